@@ -1,0 +1,19 @@
+import type { SessionValidationResult } from '$lib/server/auth/session';
+
+declare global {
+	namespace App {
+		interface Error {
+			message: string;
+			/** Roles that would have been allowed (403 pages say what is missing). */
+			missing?: string[];
+			/** Per-field messages for a 400. */
+			fields?: Record<string, string[]>;
+		}
+		interface Locals {
+			user: SessionValidationResult['user'];
+			session: SessionValidationResult['session'];
+		}
+	}
+}
+
+export {};

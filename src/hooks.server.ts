@@ -1,0 +1,99 @@
+import { building } from '$app/environment';
+import { error, json, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { client } from '$lib/server/db';
+import { isDatabaseUnavailable } from '$lib/server/db/errors';
+import { readConfig } from '$lib/server/config';
+import * as auth from '$lib/server/auth/session';
+import { allows, ruleFor } from '$lib/server/auth/policy';
+import { forbidden } from '$lib/server/auth/guard';
+
+export const init: ServerInit = async () => {
+	if (building) return;
+	try {
+		readConfig();
+	} catch (e) {
+		console.error((e as Error).message);
+		process.exit(2);
+	}
+	process.on('sveltekit:shutdown', () => void client.end({ timeout: 5 }));
+};
+
+const isApi = (path: string) => path.startsWith('/api/');
+const unavailable = () =>
+	new Response('The register is unavailable for a moment; try again shortly.', {
+		status: 503,
+		headers: { 'content-type': 'text/plain; charset=utf-8', 'retry-after': '5' }
+	});
+
+const handleSession: Handle = async ({ event, resolve }) => {
+	const token = event.cookies.get(auth.sessionCookieName);
+	event.locals.user = null;
+	event.locals.session = null;
+	if (token) {
+		try {
+			const { session, user } = await auth.validateSessionToken(token);
+			if (session?.fresh) auth.setSessionCookie(event.cookies, session.id);
+			if (!session) auth.deleteSessionCookie(event.cookies);
+			event.locals.user = user;
+			event.locals.session = session;
+		} catch (e) {
+			if (isDatabaseUnavailable(e)) return unavailable();
+			throw e;
+		}
+	}
+	return resolve(event);
+};
+
+// SvelteKit's own CSRF check covers form posts only; JSON writes need their own.
+const handleJsonOrigin: Handle = async ({ event, resolve }) => {
+	const { method, headers } = event.request;
+	if (isApi(event.url.pathname) && !['GET', 'HEAD', 'OPTIONS'].includes(method)) {
+		const origin = headers.get('origin');
+		const site = headers.get('sec-fetch-site');
+		const sameOrigin = origin ? origin === event.url.origin : site === 'same-origin';
+		if (!sameOrigin) return json({ message: 'Cross-site request refused.' }, { status: 403 });
+	}
+	return resolve(event);
+};
+
+// Deny by default: every route must appear in the written policy.
+const handleGuard: Handle = async ({ event, resolve }) => {
+	const routeId = event.route.id;
+	if (routeId === null) return resolve(event); // no such route: SvelteKit answers 404 (static files included)
+	const rule = ruleFor(routeId);
+	const reading = event.request.method === 'GET' || event.request.method === 'HEAD';
+	const access = rule ? (reading ? rule.read : rule.write) : [];
+	const user = event.locals.user;
+	if (allows(access, user?.role ?? null)) return resolve(event);
+	if (!user) {
+		if (isApi(event.url.pathname) || !reading)
+			return json({ message: 'Sign in to continue.' }, { status: 401 });
+		redirect(303, `/signin?next=${encodeURIComponent(event.url.pathname + event.url.search)}`);
+	}
+	const body = forbidden(user.role, access === 'public' || access === 'signed-in' ? [] : access);
+	if (isApi(event.url.pathname) || !reading) return json(body, { status: 403 });
+	error(403, body); // rendered by src/error.html, which says what is missing
+
+};
+
+const securityHeaders: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	const h = response.headers;
+	h.set('x-content-type-options', 'nosniff');
+	h.set('referrer-policy', 'same-origin');
+	h.set('x-frame-options', 'DENY');
+	h.set('cross-origin-opener-policy', 'same-origin');
+	h.set('permissions-policy', 'camera=(), microphone=(), geolocation=()');
+	if (event.locals.user && !h.has('cache-control')) h.set('cache-control', 'no-store');
+	return response;
+};
+
+export const handle = sequence(securityHeaders, handleSession, handleJsonOrigin, handleGuard);
+
+export const handleError: HandleServerError = ({ error, event, status, message }) => {
+	if (isDatabaseUnavailable(error))
+		return { message: 'The register is unavailable for a moment; try again shortly.' };
+	if (status >= 500) console.error('Unhandled error', event.route.id, error);
+	return { message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message };
+};

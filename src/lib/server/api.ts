@@ -1,0 +1,48 @@
+// One shape for every JSON API answer that is not a success: { message, fields? } with a 4xx/5xx.
+import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
+import type { z } from 'zod';
+import { isDatabaseUnavailable } from './db/errors';
+
+export type ApiError = App.Error;
+
+export function apiError(status: number, message: string, fields?: Record<string, string[]>) {
+	return json({ message, ...(fields ? { fields } : {}) } satisfies ApiError, { status });
+}
+
+/** Wrap an endpoint so guards' `error()` and unexpected failures still answer in the API shape. */
+export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<Response> | Response) {
+	return (async (event: E) => {
+		try {
+			return await handler(event);
+		} catch (e) {
+			if (isRedirect(e)) throw e;
+			if (isHttpError(e)) return json(e.body, { status: e.status });
+			if (isDatabaseUnavailable(e)) return apiError(503, 'The register is unavailable for a moment; try again shortly.');
+			console.error('API failure', event.route.id, e);
+			return apiError(500, 'Something went wrong on our side; it has been logged.');
+		}
+	}) as unknown as RequestHandler;
+}
+
+/** Read and validate a JSON body; a bad body answers 400 naming each field. */
+export async function readJson<S extends z.ZodType>(
+	request: Request,
+	schema: S
+): Promise<{ ok: true; data: z.infer<S> } | { ok: false; response: Response }> {
+	let body: unknown;
+	try {
+		body = await request.json();
+	} catch {
+		return { ok: false, response: apiError(400, 'The request body must be JSON.') };
+	}
+	const parsed = schema.safeParse(body);
+	if (!parsed.success) {
+		const fields: Record<string, string[]> = {};
+		for (const issue of parsed.error.issues) {
+			const key = issue.path.join('.') || '(body)';
+			(fields[key] ??= []).push(issue.message);
+		}
+		return { ok: false, response: apiError(400, 'Some fields need attention.', fields) };
+	}
+	return { ok: true, data: parsed.data };
+}

@@ -1,0 +1,42 @@
+// The written access policy: every route of the app, by route id, with who may read (GET/HEAD)
+// and who may write (every other method, form actions included). handleGuard enforces it before
+// any load, action or endpoint runs; a route that is missing here is refused (deny by default),
+// and the access-matrix test fails on it. Loads, actions and endpoints check again through guard.ts,
+// where finer rules (own labs, self-review) live.
+import type { Role } from '$lib/server/db/schema';
+
+export type Access = 'public' | 'signed-in' | readonly Role[];
+export type RouteRule = { read: Access; write: Access };
+
+const everyone: Access = 'signed-in';
+const nobody: readonly Role[] = [];
+const admin: readonly Role[] = ['admin'];
+
+export const routePolicy: Record<string, RouteRule> = {
+	'/': { read: 'public', write: nobody },
+	'/(auth)/signin': { read: 'public', write: 'public' },
+	'/(auth)/signout': { read: everyone, write: everyone },
+	'/(app)/overview': { read: everyone, write: nobody },
+	'/(app)/lasers': { read: everyone, write: nobody },
+	'/(app)/reviews': { read: everyone, write: nobody },
+	'/(app)/inspections': { read: everyone, write: nobody },
+	'/(app)/eyewear': { read: everyone, write: nobody },
+	'/(app)/limits': { read: everyone, write: nobody },
+	'/(app)/admin/users': { read: admin, write: admin },
+	'/(app)/admin/users/new': { read: admin, write: admin },
+	'/(app)/admin/users/[userId]': { read: admin, write: admin },
+	'/api/me': { read: everyone, write: nobody },
+	'/api/admin/users': { read: admin, write: admin },
+	'/api/health': { read: 'public', write: nobody }
+};
+
+export function ruleFor(routeId: string | null): RouteRule | undefined {
+	return routeId === null ? undefined : routePolicy[routeId];
+}
+
+export function allows(access: Access, role: Role | null): boolean {
+	if (access === 'public') return true;
+	if (role === null) return false;
+	if (access === 'signed-in') return true;
+	return access.includes(role);
+}

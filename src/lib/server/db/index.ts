@@ -1,0 +1,16 @@
+import { drizzle } from 'drizzle-orm/postgres-js';
+import postgres from 'postgres';
+import * as schema from './schema';
+
+// postgres.js connects lazily, so importing this module never needs a running database
+// (the build imports server modules while analysing routes). The URL is checked at start-up
+// by the server's init hook (see src/lib/server/config.ts).
+export const client = postgres(process.env.DATABASE_URL ?? 'postgres://unset@127.0.0.1:1/unset', {
+	max: Number(process.env.DATABASE_POOL_SIZE ?? 10),
+	onnotice: () => {},
+	connection: { application_name: 'beamwarden' }
+});
+
+export const db = drizzle(client, { schema });
+export type Db = typeof db;
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];

@@ -1,0 +1,33 @@
+/**
+ * Optical density that eyewear (or any attenuator) must provide: OD = log₁₀(exposure/limit) when the
+ * ratio exceeds 1, else 0 (common practice: OD = log₁₀(H/MPE)). Also rounded up to one decimal and to
+ * a whole number (common practice: eyewear is specified by the next whole OD).
+ */
+import Decimal from 'decimal.js';
+import { Dec, DecReport, ONE, TEN, ZERO } from './constants';
+import { fmt } from './format';
+import type { OpticalDensity } from './types';
+
+export interface OdValue {
+	value: Decimal;
+	roundedUpTenth: Decimal;
+	roundedUpWhole: Decimal;
+}
+
+export function requiredOpticalDensity(ratio: Decimal): OdValue {
+	if (ratio.lte(ONE)) return { value: ZERO, roundedUpTenth: ZERO, roundedUpWhole: ZERO };
+	// log₁₀ on the 24-digit clone; the result is only reported.
+	const value = new Dec(new DecReport(ratio).log10());
+	// Round away digits below 1e-12 before rounding up, so that arithmetic noise on an exact power of
+	// ten cannot add a whole OD.
+	const settled = value.toDecimalPlaces(12, Decimal.ROUND_HALF_EVEN);
+	return {
+		value,
+		roundedUpTenth: settled.times(TEN).ceil().div(TEN),
+		roundedUpWhole: settled.ceil()
+	};
+}
+
+export function writeOd(od: OdValue): OpticalDensity {
+	return { value: fmt(od.value), roundedUpTenth: fmt(od.roundedUpTenth), roundedUpWhole: fmt(od.roundedUpWhole) };
+}

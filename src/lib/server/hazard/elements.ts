@@ -1,0 +1,170 @@
+/**
+ * Path elements: the beam is walked from the aperture through the ordered elements.
+ *
+ * Each element either moves along the path (propagate, enclosure: distance z is the running sum of
+ * their lengths) or acts at the current position with zero length (transmission, mirror, expander,
+ * lens, fibre). Power and energy are tracked as one transmission factor applied to P and Q; every
+ * factor lies in [0, 1], so no element can raise the power or make it negative.
+ *
+ * The beam on each stretch is a hyperbola D(z) = √(D_w² + (φ·(z − z_w))²) in the 1/e basis (see
+ * beam.ts). How each element changes it:
+ *  • expander (magnification M, an afocal telescope, thin): diameters ×M, angles ÷M, and the
+ *    distance from the element back to the waist scales by the longitudinal magnification M²:
+ *    D_w' = M·D_w, φ' = φ/M, z_w' = z_E − M²·(z_E − z_w). This keeps D'(z_E) = M·D(z_E) exactly.
+ *  • lens (focal length f, thin, the incoming beam treated as collimated): the beam converges to a
+ *    focus at z_L + f and then diverges with full angle φ' = D_lens/f, D_lens = D(z_L). The focus
+ *    has a diffraction floor: for a Gaussian beam the 1/e² waist diameter is 4·M²·λ·f/(π·D_lens,1/e²).
+ *    On the 1/e basis both diameters shrink by √2 (D_1/e = D_1/e²/√2), so
+ *        d₀ = (1/√2)·4·M²·λ·f/(π·√2·D_lens) = 2·M²·λ·f/(π·D_lens)      (both 1/e).
+ *    Beyond the lens D(s) = √(d₀² + (φ'·(s − f))²), s measured from the lens. At the lens itself
+ *    this gives √(d₀² + D_lens²), larger than D_lens by a relative d₀²/(2·D_lens²) — negligible
+ *    whenever the focus is a real focus (d₀ ≪ D_lens).
+ *  • fibre (core diameter, numerical aperture NA): the output beam starts at the fibre end with
+ *    diameter = core diameter and full divergence 2·asin(NA); both are taken as 1/e values. The
+ *    optional coupling transmission multiplies the power.
+ *  • enclosure (length L): propagates like free space; points strictly inside it are not
+ *    accessible. Points on its entry or exit plane are accessible (the conservative reading).
+ */
+import type Decimal from 'decimal.js';
+import { ONE, PI, TWO, ZERO } from './constants';
+import { diameterAt, type BeamState } from './beam';
+import type { NormElement, NormLine } from './validate';
+
+/** The beam as it is from one position onwards, until the next zero-length element acts. */
+export interface BeamSnapshot {
+	/** Where this beam starts to apply, and where the next zero-length element replaces it. */
+	from: Decimal;
+	to: Decimal;
+	state: BeamState;
+	/** Product of transmissions and reflectances so far. */
+	transmission: Decimal;
+	/** The factors that make up `transmission`, with the element index each came from. */
+	factors: { index: number; symbol: string; value: Decimal }[];
+	/** Index of the element that produced this beam; null = the aperture. */
+	afterElement: number | null;
+}
+
+export interface EnclosedStretch {
+	index: number;
+	from: Decimal;
+	to: Decimal;
+}
+
+export interface LensRecord {
+	index: number;
+	position: Decimal;
+	focalLength: Decimal;
+	/** Beam diameter (1/e) arriving at the lens. */
+	lensDiameter: Decimal;
+	/** Diffraction-limited focal spot (1/e). */
+	focalSpot: Decimal;
+	divergenceAfter: Decimal;
+	focusPosition: Decimal;
+	transmission: Decimal;
+}
+
+export interface PathModel {
+	snapshots: BeamSnapshot[];
+	enclosures: EnclosedStretch[];
+	lenses: LensRecord[];
+	length: Decimal;
+}
+
+/** Diffraction floor of a focused Gaussian beam on the 1/e basis: d₀ = 2·M²·λ·f/(π·D_lens). */
+export function focalSpotDiameter(wavelength: Decimal, focalLength: Decimal, lensDiameter: Decimal, beamQuality: Decimal): Decimal {
+	return TWO.times(beamQuality).times(wavelength).times(focalLength).div(PI.times(lensDiameter));
+}
+
+export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
+	let z = ZERO;
+	let current: BeamSnapshot = {
+		from: ZERO,
+		to: ZERO,
+		state: { waistDiameter: line.d0, waistPosition: ZERO, divergence: line.divergence },
+		transmission: ONE,
+		factors: [],
+		afterElement: null
+	};
+	const snapshots: BeamSnapshot[] = [current];
+	const enclosures: EnclosedStretch[] = [];
+	const lenses: LensRecord[] = [];
+
+	const replace = (index: number, state: BeamState, factor?: { symbol: string; value: Decimal }) => {
+		current.to = z;
+		current = {
+			from: z,
+			to: z,
+			state,
+			transmission: factor ? current.transmission.times(factor.value) : current.transmission,
+			factors: factor ? [...current.factors, { index, ...factor }] : current.factors,
+			afterElement: index
+		};
+		snapshots.push(current);
+	};
+
+	for (const e of elements) {
+		switch (e.kind) {
+			case 'propagate':
+			case 'enclosure': {
+				if (e.kind === 'enclosure' && e.length.gt(ZERO)) enclosures.push({ index: e.index, from: z, to: z.plus(e.length) });
+				z = z.plus(e.length);
+				current.to = z;
+				break;
+			}
+			case 'transmission':
+				replace(e.index, current.state, { symbol: `T${subscript(e.index)}`, value: e.factor });
+				break;
+			case 'mirror':
+				replace(e.index, current.state, { symbol: `R${subscript(e.index)}`, value: e.factor });
+				break;
+			case 'expander': {
+				const s = current.state;
+				const m = e.magnification;
+				const behind = z.minus(s.waistPosition);
+				replace(e.index, {
+					waistDiameter: s.waistDiameter.times(m),
+					divergence: s.divergence.div(m),
+					waistPosition: z.minus(m.times(m).times(behind))
+				});
+				break;
+			}
+			case 'lens': {
+				const lensDiameter = diameterAt(current.state, z);
+				const focalSpot = focalSpotDiameter(line.wavelength, e.focalLength, lensDiameter, line.beamQuality);
+				const divergenceAfter = lensDiameter.div(e.focalLength);
+				const focusPosition = z.plus(e.focalLength);
+				lenses.push({ index: e.index, position: z, focalLength: e.focalLength, lensDiameter, focalSpot, divergenceAfter, focusPosition, transmission: current.transmission });
+				replace(e.index, { waistDiameter: focalSpot, waistPosition: focusPosition, divergence: divergenceAfter });
+				break;
+			}
+			case 'fibre': {
+				const divergence = TWO.times(e.numericalAperture.asin());
+				replace(e.index, { waistDiameter: e.coreDiameter, waistPosition: z, divergence }, { symbol: `T${subscript(e.index)}`, value: e.factor });
+				break;
+			}
+		}
+	}
+	return { snapshots, enclosures, lenses, length: z };
+}
+
+/**
+ * The beams a point at position z can see. Inside a stretch that is one beam; on a position where
+ * zero-length elements act there are several (before and after each), and the caller takes the worst.
+ */
+export function beamsAt(path: PathModel, z: Decimal): BeamSnapshot[] {
+	const out: BeamSnapshot[] = [];
+	for (const s of path.snapshots) if (s.from.lte(z) && z.lte(s.to)) out.push(s);
+	return out.length > 0 ? out : [path.snapshots[path.snapshots.length - 1]];
+}
+
+/** The enclosure that strictly contains z, if any. */
+export function enclosureAt(path: PathModel, z: Decimal): EnclosedStretch | null {
+	for (const e of path.enclosures) if (e.from.lt(z) && z.lt(e.to)) return e;
+	return null;
+}
+
+const SUBSCRIPTS = '₀₁₂₃₄₅₆₇₈₉';
+/** Element numbers in symbols use the 0-based element index, written as a subscript: T₂ is element 2. */
+export function subscript(n: number): string {
+	return String(n).replace(/\d/g, (d) => SUBSCRIPTS[Number(d)]);
+}

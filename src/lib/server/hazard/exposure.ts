@@ -1,0 +1,386 @@
+/**
+ * Exposure at a point of concern and its comparison with every applicable limit.
+ *
+ * Averaging (conservative common practice): the exposure is averaged over the larger of the beam
+ * diameter D (1/e) and the limit's limiting aperture D_f:
+ *     A = π·max(D, D_f)²/4,   E = P/A (irradiance),   H = Q/A (radiant exposure of one pulse),
+ * and H = E·T over the exposure duration T for continuous beams.
+ *
+ * Diffuse (Lambertian) reflection: at distance r from the reflecting spot, viewed at θ from the
+ * surface normal, E = ρ·P·cosθ/(π·r²) (and H = ρ·Q·cosθ/(π·r²) per pulse). The reflected field is
+ * spread wide compared with any limiting aperture, so no aperture averaging is applied.
+ *
+ * Checks by emission mode:
+ *   continuous   — continuous exposure: E (or H = E·T) against continuous-basis limits at t = T;
+ *   single pulse — H of the pulse against single-pulse limits at t = τ;
+ *   repetitive   — (1) single pulse as above; (2) average power Q·f over T against continuous-basis
+ *                  limits at t = T; (3) pulse train: H of one pulse against a single-pulse limit
+ *                  × N^x, N = f·T pulses (at least 1), for single-pulse limits that give x.
+ *                  Checks 1 and 2 are required; check 3 is made wherever a limit gives an exponent.
+ * A limit applies when tissue, wavelength (inclusive range) and the check's duration (inclusive
+ * range) match and its pulse basis fits the check. Several applicable limits: each is compared and
+ * reported, and the highest ratio (the most restrictive limit) decides the check.
+ */
+import type Decimal from 'decimal.js';
+import { PI, PI_OVER_4, ONE } from './constants';
+import { diameterAt } from './beam';
+import { Working, type StepInput } from './breakdown';
+import { requiredOpticalDensity, writeOd } from './density';
+import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
+import { fmt, fmtOrNull } from './format';
+import { applicableLimits, limitRef, limitValueAt, powPositive } from './limits';
+import type { NormLimit, NormLine, NormPoint } from './validate';
+import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Verdict } from './types';
+
+export const VERDICT_RANK: Record<Verdict, number> = {
+	within_limit: 0,
+	no_applicable_limit: 1,
+	incomplete: 2,
+	exceeds_limit: 3
+};
+
+export function worseVerdict(a: Verdict, b: Verdict): Verdict {
+	return VERDICT_RANK[a] >= VERDICT_RANK[b] ? a : b;
+}
+
+export interface CheckPlan {
+	kind: CheckKind;
+	label: string;
+	basis: PulseBasis;
+	/** τ or T; null when T is needed but missing. */
+	duration: Decimal | null;
+	durationSymbol: 'τ' | 'T';
+	/** 'irradiance' when the source is a power, 'radiant_exposure' when it is a pulse energy. */
+	measure: LimitQuantity;
+	/** Power or energy at the aperture. */
+	source: Decimal;
+	sourceSymbol: string;
+	pointSymbol: string;
+	sourceUnit: 'W' | 'J';
+	/** Pulse-train check: N = max(1, f·T); null when T is missing. */
+	pulseCount: Decimal | null;
+	needsTrainExponent: boolean;
+	/** Optional checks are only reported when a limit for them exists. */
+	optional: boolean;
+	missing: string[];
+}
+
+export function planChecks(line: NormLine, T: Decimal | null, durationField: string): CheckPlan[] {
+	const missingT = T === null ? [durationField] : [];
+	if (line.mode === 'continuous') {
+		return [
+			{ kind: 'continuous', label: 'Continuous exposure', basis: 'continuous', duration: T, durationSymbol: 'T', measure: 'irradiance', source: line.power!, sourceSymbol: 'P₀', pointSymbol: 'P', sourceUnit: 'W', pulseCount: null, needsTrainExponent: false, optional: false, missing: missingT }
+		];
+	}
+	const single: CheckPlan = { kind: 'single_pulse', label: 'Single pulse', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount: null, needsTrainExponent: false, optional: false, missing: [] };
+	if (line.mode === 'single_pulse') return [single];
+	let pulseCount: Decimal | null = null;
+	if (T !== null) {
+		const n = line.repetitionRate!.times(T);
+		pulseCount = n.lt(ONE) ? ONE : n;
+	}
+	return [
+		single,
+		{ kind: 'average_power', label: 'Average power over T', basis: 'continuous', duration: T, durationSymbol: 'T', measure: 'irradiance', source: line.averagePower!, sourceSymbol: 'P_avg,0', pointSymbol: 'P_avg', sourceUnit: 'W', pulseCount: null, needsTrainExponent: false, optional: false, missing: missingT },
+		{ kind: 'pulse_train', label: 'Pulse train', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount, needsTrainExponent: true, optional: true, missing: missingT }
+	];
+}
+
+export const MEASURE_UNIT: Record<LimitQuantity, 'W/m²' | 'J/m²'> = { irradiance: 'W/m²', radiant_exposure: 'J/m²' };
+export const MEASURE_SYMBOL: Record<LimitQuantity, 'E' | 'H'> = { irradiance: 'E', radiant_exposure: 'H' };
+
+/** Limit expressed in the plan's measure, × the pulse-train factor where it applies. */
+export interface LimitInPlan {
+	/** In the limit's own quantity. */
+	value: Decimal;
+	/** In the plan's measure (for hazard distances). */
+	natural: Decimal;
+	trainFactor: Decimal | null;
+}
+
+export function limitForPlan(limit: NormLimit, plan: CheckPlan, t: Decimal, w: Working | null, stepId: string): LimitInPlan {
+	const base = limitValueAt(limit, t);
+	let value = base;
+	let trainFactor: Decimal | null = null;
+	const unit = MEASURE_UNIT[limit.quantity];
+	if (plan.needsTrainExponent && plan.pulseCount && limit.pulseTrainExponent) {
+		trainFactor = powPositive(plan.pulseCount, limit.pulseTrainExponent);
+		value = base.times(trainFactor);
+		w?.add(stepId, `Limit “${limit.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, ''], ['N', plan.pulseCount, ''], ['x', limit.pulseTrainExponent, '']], value, unit, limit.citation);
+	} else {
+		w?.add(stepId, `Limit “${limit.label}”`, 'EL = k·tⁿ', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, '']], value, unit, limit.citation);
+	}
+	const natural = limit.quantity === plan.measure ? value : plan.measure === 'irradiance' ? value.div(t) : value.times(t);
+	return { value, natural, trainFactor };
+}
+
+export interface PointContext {
+	line: NormLine;
+	limits: NormLimit[];
+	photonEnergy: Decimal;
+	breakdown: boolean;
+	used: Set<NormLimit>;
+}
+
+interface Evaluated {
+	result: PointResult;
+	ratio: Decimal | null;
+	verdict: Verdict;
+	used: NormLimit[];
+}
+
+export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathModel): { result: PointResult; ratio: Decimal | null } {
+	const enclosure = enclosureAt(path, point.position);
+	let best: Evaluated | null = null;
+	for (const beam of beamsAt(path, point.position)) {
+		const ev = evaluateWithBeam(ctx, point, beam, enclosure ? enclosure.index : null);
+		if (!best || VERDICT_RANK[ev.verdict] > VERDICT_RANK[best.verdict] || (ev.verdict === best.verdict && ev.ratio && (!best.ratio || ev.ratio.gt(best.ratio)))) {
+			best = ev;
+		}
+	}
+	// Only the chosen beam's limits count as used.
+	for (const l of best!.used) ctx.used.add(l);
+	return { result: best!.result, ratio: best!.ratio };
+}
+
+function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapshot, enclosedBy: number | null): Evaluated {
+	const { line, photonEnergy } = ctx;
+	const w = new Working(ctx.breakdown);
+	const at = `points.${point.index}`;
+	const z = point.position;
+	const T = point.exposureDuration;
+	const diffuse = point.kind === 'diffuse';
+	const missingPoint: string[] = [];
+	if (diffuse) {
+		if (point.reflectance === null) missingPoint.push(`${at}.reflectance`);
+		if (point.viewingDistance === null) missingPoint.push(`${at}.viewingDistance`);
+	}
+
+	// Beam at the point.
+	const tPath = beam.transmission;
+	if (beam.factors.length > 0) {
+		w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPath, '');
+	} else {
+		w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPath, '');
+	}
+	const s = beam.state;
+	const D = diameterAt(s, z);
+	w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', s.divergence, 'rad'], ['z', z, 'm'], ['z_w', s.waistPosition, 'm']], D, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
+
+	const powerAtPoint = line.averagePower ? tPath.times(line.averagePower) : null;
+	const energyAtPoint = line.pulseEnergy ? tPath.times(line.pulseEnergy) : null;
+	if (powerAtPoint) w.add('power', line.mode === 'continuous' ? 'Power at the point' : 'Average power at the point', line.mode === 'continuous' ? 'P = T_path·P₀' : 'P_avg = T_path·P_avg,0', [['T_path', tPath, ''], [line.mode === 'continuous' ? 'P₀' : 'P_avg,0', line.averagePower!, 'W']], powerAtPoint, 'W');
+	if (energyAtPoint) w.add('energy', 'Pulse energy at the point', 'Q = T_path·Q₀', [['T_path', tPath, ''], ['Q₀', line.pulseEnergy!, 'J']], energyAtPoint, 'J');
+
+	// Diffuse geometry factor G = ρ·cosθ/(π·r²), m⁻².
+	let geometry: Decimal | null = null;
+	let cosTheta: Decimal | null = null;
+	if (diffuse && missingPoint.length === 0) {
+		cosTheta = point.viewingAngle.cos();
+		geometry = point.reflectance!.times(cosTheta).div(PI.times(point.viewingDistance!).times(point.viewingDistance!));
+	}
+
+	// Unaveraged irradiance / radiant exposure at the point and photon quantities.
+	const beamArea = PI_OVER_4.times(D).times(D);
+	let irradiance: Decimal | null = null;
+	let pulseH: Decimal | null = null;
+	if (!diffuse) {
+		if (powerAtPoint) {
+			irradiance = powerAtPoint.div(beamArea);
+			w.add('irradiance', 'Irradiance of the beam at the point (1/e, no aperture averaging)', 'E_beam = P / (π·D²/4)', [['P', powerAtPoint, 'W'], ['D', D, 'm']], irradiance, 'W/m²');
+		}
+		if (energyAtPoint) {
+			pulseH = energyAtPoint.div(beamArea);
+			w.add('pulse-exposure', 'Radiant exposure of one pulse at the point (1/e, no aperture averaging)', 'H_beam = Q / (π·D²/4)', [['Q', energyAtPoint, 'J'], ['D', D, 'm']], pulseH, 'J/m²');
+		}
+	} else if (geometry) {
+		const diffuseInputs = (sym: string, v: Decimal, u: string): StepInput[] => [['ρ', point.reflectance!, ''], [sym, v, u], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']];
+		if (powerAtPoint) {
+			irradiance = geometry.times(powerAtPoint);
+			w.add('irradiance', 'Irradiance of the diffuse reflection at the viewer', 'E = ρ·P·cosθ / (π·r²)', diffuseInputs('P', powerAtPoint, 'W'), irradiance, 'W/m²', 'Lambertian surface.');
+		}
+		if (energyAtPoint) {
+			pulseH = geometry.times(energyAtPoint);
+			w.add('pulse-exposure', 'Radiant exposure of one pulse of the diffuse reflection at the viewer', 'H = ρ·Q·cosθ / (π·r²)', diffuseInputs('Q', energyAtPoint, 'J'), pulseH, 'J/m²', 'Lambertian surface.');
+		}
+	}
+	let photonFluxDensity: Decimal | null = null;
+	let photonFluence: Decimal | null = null;
+	if (irradiance) {
+		photonFluxDensity = irradiance.div(photonEnergy);
+		w.add('photon-flux-density', 'Photon flux density at the point', 'Φ_A = E / E_ph', [['E', irradiance, 'W/m²'], ['E_ph', photonEnergy, 'J']], photonFluxDensity, 's⁻¹·m⁻²');
+	}
+	if (pulseH) {
+		photonFluence = pulseH.div(photonEnergy);
+		w.add('photon-fluence', 'Photons per pulse per area at the point', 'N_A = H / E_ph', [['H', pulseH, 'J/m²'], ['E_ph', photonEnergy, 'J']], photonFluence, 'm⁻²');
+	}
+
+	// Checks.
+	const checks: CheckResult[] = [];
+	let verdict: Verdict = 'within_limit';
+	let worstRatio: Decimal | null = null;
+	let diffuseDistance: { r: Decimal; limit: NormLimit; check: CheckKind; inputs: StepInput[]; natural: Decimal } | null = null;
+	const allMissing = new Set<string>(missingPoint);
+	const used: NormLimit[] = [];
+
+	for (const plan of planChecks(line, T, `${at}.exposureDuration`)) {
+		const t = plan.duration;
+		const limits = t === null ? [] : applicableLimits(ctx.limits, { tissue: point.tissue, wavelength: line.wavelength, basis: plan.basis, duration: t, needsTrainExponent: plan.needsTrainExponent });
+		const missing = [...plan.missing, ...missingPoint];
+		// The optional pulse-train check is made only where a limit asks for it (τ is always known).
+		if (plan.optional && limits.length === 0) continue;
+		if (missing.length > 0 || t === null) {
+			for (const m of missing) allMissing.add(m);
+			checks.push({ kind: plan.kind, label: plan.label, duration: fmtOrNull(t), verdict: 'incomplete', reason: `Needs ${missing.join(', ')}.`, ratio: null, decidingLimit: null, comparisons: [], missing });
+			verdict = worseVerdict(verdict, 'incomplete');
+			continue;
+		}
+		if (limits.length === 0) {
+			checks.push({ kind: plan.kind, label: plan.label, duration: fmt(t), verdict: 'no_applicable_limit', reason: `No entered limit covers ${point.tissue} exposure at λ = ${fmt(line.wavelength)} m for ${plan.durationSymbol} = ${fmt(t)} s (${plan.basis.replace('_', '-')} basis).`, ratio: null, decidingLimit: null, comparisons: [], missing: [] });
+			verdict = worseVerdict(verdict, 'no_applicable_limit');
+			continue;
+		}
+
+		const x = tPath.times(plan.source);
+		const xs = plan.pointSymbol;
+		const nat = MEASURE_SYMBOL[plan.measure];
+		const natUnit = MEASURE_UNIT[plan.measure];
+		// Diffuse exposure is the same for every limit.
+		const diffuseExposure = geometry ? geometry.times(x) : null;
+		let atBeam: Decimal | null = null; // exposure averaged over D itself, shared by limits with D_f ≤ D
+		const comparisons: Comparison[] = [];
+		let best: { ratio: Decimal; limit: NormLimit; index: number } | null = null;
+
+		for (const limit of limits) {
+			const sid = `${plan.kind}.limit${limit.index}`;
+			let exposureNat: Decimal;
+			let averaging: Decimal | null = null;
+			if (diffuseExposure) {
+				exposureNat = diffuseExposure;
+				w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']], exposureNat, natUnit, 'Lambertian surface; no aperture averaging.');
+			} else {
+				const df = limit.limitingAperture;
+				averaging = D.gte(df) ? D : df;
+				w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', df, 'm']], averaging, 'm');
+				if (averaging === D) exposureNat = atBeam ??= x.div(beamArea);
+				else exposureNat = x.div(PI_OVER_4.times(averaging).times(averaging));
+				w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, x, plan.sourceUnit], ['D_avg', averaging, 'm']], exposureNat, natUnit);
+			}
+			let exposure = exposureNat;
+			if (limit.quantity !== plan.measure) {
+				if (plan.measure === 'irradiance') {
+					exposure = exposureNat.times(t);
+					w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNat, 'W/m²'], [plan.durationSymbol, t, 's']], exposure, 'J/m²');
+				} else {
+					exposure = exposureNat.div(t);
+					w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
+				}
+			}
+			const lim = limitForPlan(limit, plan, t, w.enabled ? w : null, `${sid}.limit`);
+			const ratio = exposure.div(lim.value);
+			const q = MEASURE_SYMBOL[limit.quantity];
+			w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, MEASURE_UNIT[limit.quantity]], ['EL', lim.value, MEASURE_UNIT[limit.quantity]]], ratio, '');
+
+			const cmp: Comparison = {
+				limit: { id: limit.id, version: limit.version, label: limit.label, citation: limit.citation },
+				quantity: limit.quantity,
+				unit: MEASURE_UNIT[limit.quantity],
+				duration: fmt(t),
+				limitingAperture: fmt(limit.limitingAperture),
+				beamDiameter: diffuse ? null : fmt(D),
+				averagingDiameter: averaging ? fmt(averaging) : null,
+				exposure: fmt(exposure),
+				limitValue: fmt(lim.value),
+				ratio: fmt(ratio),
+				verdict: ratio.gt(ONE) ? 'exceeds_limit' : 'within_limit',
+				deciding: false
+			};
+			if (lim.trainFactor) {
+				cmp.pulseCount = fmt(plan.pulseCount!);
+				cmp.trainFactor = fmt(lim.trainFactor);
+			}
+			comparisons.push(cmp);
+			used.push(limit);
+			if (!best || ratio.gt(best.ratio)) best = { ratio, limit, index: comparisons.length - 1 };
+
+			if (geometry) {
+				// r_h = √(ρ·X·cosθ/(π·EL)) with EL in the plan's measure.
+				const r = geometry.times(point.viewingDistance!).times(point.viewingDistance!).times(x).div(lim.natural).sqrt();
+				if (!diffuseDistance || r.gt(diffuseDistance.r)) {
+					diffuseDistance = { r, limit, check: plan.kind, natural: lim.natural, inputs: [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['EL', lim.natural, natUnit]] };
+				}
+			}
+		}
+		const b = best!;
+		comparisons[b.index].deciding = true;
+		const checkVerdict: Verdict = b.ratio.gt(ONE) ? 'exceeds_limit' : 'within_limit';
+		verdict = worseVerdict(verdict, checkVerdict);
+		if (!worstRatio || b.ratio.gt(worstRatio)) worstRatio = b.ratio;
+		checks.push({
+			kind: plan.kind,
+			label: plan.label,
+			duration: fmt(t),
+			verdict: checkVerdict,
+			reason: `${checkVerdict === 'exceeds_limit' ? 'Exceeds' : 'Within'} “${b.limit.label}”: exposure is ${fmt(b.ratio.toSignificantDigits(4))} × the limit.`,
+			ratio: fmt(b.ratio),
+			decidingLimit: limitRef(b.limit),
+			comparisons,
+			missing: []
+		});
+	}
+
+	if (checks.length === 0) verdict = 'no_applicable_limit';
+	const od = worstRatio ? requiredOpticalDensity(worstRatio) : null;
+	if (od && worstRatio) w.add('optical-density', 'Optical density needed', 'OD = log₁₀(ratio) (0 when ratio ≤ 1)', [['ratio', worstRatio, '']], od.value, '', `Rounded up: ${fmt(od.roundedUpTenth)} (one decimal), ${fmt(od.roundedUpWhole)} (whole).`);
+
+	let diffuseHazardDistance: DiffuseDistance | null = null;
+	if (diffuseDistance) {
+		w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', diffuseDistance.inputs, diffuseDistance.r, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
+		diffuseHazardDistance = { distance: fmt(diffuseDistance.r), decidingLimit: limitRef(diffuseDistance.limit), check: diffuseDistance.check };
+	}
+
+	const accessible = enclosedBy === null;
+	const result: PointResult = {
+		id: point.id,
+		label: point.label,
+		tissue: point.tissue,
+		kind: point.kind,
+		position: fmt(z),
+		accessible,
+		enclosedBy,
+		beamAfterElement: beam.afterElement,
+		verdict,
+		reason: pointReason(verdict, checks, accessible, enclosedBy),
+		missing: [...allMissing],
+		transmissionFactor: fmt(tPath),
+		power: fmtOrNull(powerAtPoint),
+		pulseEnergy: fmtOrNull(energyAtPoint),
+		beamDiameter: fmt(D),
+		beamDivergence: fmt(s.divergence),
+		irradiance: fmtOrNull(irradiance),
+		pulseRadiantExposure: fmtOrNull(pulseH),
+		photonFluxDensity: fmtOrNull(photonFluxDensity),
+		photonFluencePerPulse: fmtOrNull(photonFluence),
+		checks,
+		worstRatio: fmtOrNull(worstRatio),
+		requiredOpticalDensity: od ? writeOd(od) : null,
+		diffuseHazardDistance,
+		breakdown: w.steps
+	};
+	return { result, ratio: worstRatio, verdict, used };
+}
+
+function pointReason(verdict: Verdict, checks: CheckResult[], accessible: boolean, enclosedBy: number | null): string {
+	const lead = accessible ? '' : `Inside the enclosure (element ${enclosedBy}): not accessible, reported but left out of the overall verdict. `;
+	const decisive = checks.find((c) => c.verdict === verdict);
+	switch (verdict) {
+		case 'exceeds_limit':
+			return lead + (decisive ? `${decisive.label}: ${decisive.reason}` : 'Exceeds a limit.');
+		case 'incomplete':
+			return lead + (decisive ? `${decisive.label}: ${decisive.reason}` : 'Input is missing.');
+		case 'no_applicable_limit':
+			return lead + (decisive ? `${decisive.label}: ${decisive.reason}` : 'No entered limit applies.') + ' Not shown as safe.';
+		case 'within_limit':
+			return lead + 'Every check is within its most restrictive applicable limit.';
+	}
+}

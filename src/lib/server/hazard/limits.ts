@@ -1,0 +1,83 @@
+/**
+ * Exposure limits: selection and evaluation. Limits are always inputs (entered by the laser safety
+ * officer from the local code); no limit value is built into the engine.
+ */
+import type Decimal from 'decimal.js';
+import { ONE } from './constants';
+import type { NormLimit } from './validate';
+import type { LimitQuantity, LimitRef, PulseBasis, Tissue } from './types';
+
+/**
+ * x^y for x > 0. Exponents that are whole multiples of 1/4 (0.75, −0.25, 0.5, …, the usual shape of
+ * exposure limits) go through square roots and an integer power, which is exact to the working
+ * precision and much cheaper than exp/ln; anything else falls back to Decimal.pow.
+ */
+export function powPositive(x: Decimal, y: Decimal): Decimal {
+	if (y.isZero()) return ONE;
+	const quarters = y.times(4);
+	if (quarters.isInteger() && quarters.abs().lte(4000)) {
+		const q = quarters.toNumber();
+		const whole = Math.trunc(q / 4);
+		const rest = q - whole * 4; // −3 … 3
+		let result = whole === 0 ? ONE : x.pow(whole);
+		if (rest !== 0) {
+			const r2 = x.sqrt();
+			const part = Math.abs(rest) === 2 ? r2 : Math.abs(rest) === 1 ? r2.sqrt() : r2.times(r2.sqrt());
+			result = rest > 0 ? result.times(part) : result.div(part);
+		}
+		return result;
+	}
+	return x.pow(y);
+}
+
+/** Limit value k·tⁿ at duration t (W/m² or J/m² according to the limit's quantity). */
+export function limitValueAt(limit: NormLimit, t: Decimal): Decimal {
+	const hit = limit.memo.get(t);
+	if (hit) return hit;
+	const v = limit.k.times(powPositive(t, limit.n));
+	limit.memo.set(t, v);
+	return v;
+}
+
+export interface LimitQuery {
+	tissue: Tissue;
+	wavelength: Decimal;
+	basis: PulseBasis;
+	duration: Decimal;
+	/** Pulse-train check: only single-pulse limits that give an exponent. */
+	needsTrainExponent?: boolean;
+}
+
+/** True when the limit covers the tissue, the wavelength and the duration (all ranges inclusive). */
+export function limitApplies(limit: NormLimit, q: LimitQuery): boolean {
+	return (
+		limit.tissue === q.tissue &&
+		limit.pulseBasis === q.basis &&
+		(!q.needsTrainExponent || limit.pulseTrainExponent !== null) &&
+		limit.wavelengthMin.lte(q.wavelength) &&
+		q.wavelength.lte(limit.wavelengthMax) &&
+		limit.durationMin.lte(q.duration) &&
+		q.duration.lte(limit.durationMax)
+	);
+}
+
+export function applicableLimits(limits: NormLimit[], q: LimitQuery): NormLimit[] {
+	return limits.filter((l) => limitApplies(l, q));
+}
+
+/**
+ * Expresses a limit in the measure that matches the exposure being compared:
+ *   'irradiance' (power-like exposure, W/m²)    E_lim = k·tⁿ, or H_lim / t for a radiant-exposure limit;
+ *   'radiant_exposure' (energy-like, J/m²)      H_lim = k·tⁿ, or E_lim · t for an irradiance limit.
+ * The conversion is H = E·t at the check's duration t.
+ */
+export function limitInMeasure(limit: NormLimit, t: Decimal, measure: LimitQuantity): Decimal {
+	const v = limitValueAt(limit, t);
+	if (limit.quantity === measure) return v;
+	return measure === 'irradiance' ? v.div(t) : v.times(t);
+}
+
+export function limitRef(limit: NormLimit): LimitRef {
+	return { id: limit.id, version: limit.version };
+}
+

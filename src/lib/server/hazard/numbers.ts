@@ -1,0 +1,115 @@
+/**
+ * Reading numeric input (SI units) into decimals, with range checks that report a named field.
+ */
+import type Decimal from 'decimal.js';
+import { Dec } from './constants';
+import type { ErrorList } from './errors';
+
+/** Plain decimal notation, optionally with an exponent: '5', '-0.25', '.5', '1.2e-3'. */
+const DECIMAL_TEXT = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+export type NumberRead = { ok: true; value: Decimal } | { ok: false; reason: string; missing: boolean };
+
+export function isMissing(value: unknown): boolean {
+	return value === undefined || value === null || (typeof value === 'string' && value.trim() === '');
+}
+
+/** Turns a JSON number, numeric string, bigint or Decimal into a finite Decimal. */
+export function readDecimal(value: unknown): NumberRead {
+	if (isMissing(value)) return { ok: false, reason: 'is required.', missing: true };
+	if (typeof value === 'number') {
+		if (Number.isNaN(value)) return { ok: false, reason: 'is not a number (NaN).', missing: false };
+		if (!Number.isFinite(value)) return { ok: false, reason: 'must be finite, not Infinity.', missing: false };
+		return { ok: true, value: new Dec(value) };
+	}
+	if (typeof value === 'bigint') return { ok: true, value: new Dec(value.toString()) };
+	if (typeof value === 'string') {
+		const text = value.trim();
+		if (/^[+-]?(?:nan|infinity|inf)$/i.test(text)) {
+			return { ok: false, reason: `must be a finite number, not “${text}”.`, missing: false };
+		}
+		if (!DECIMAL_TEXT.test(text)) {
+			return { ok: false, reason: `“${text.slice(0, 40)}” is not a number in SI units (use digits, '.' and an optional exponent).`, missing: false };
+		}
+		return { ok: true, value: new Dec(text) };
+	}
+	if (value !== null && typeof value === 'object' && typeof (value as Decimal).isFinite === 'function' && typeof (value as Decimal).toString === 'function') {
+		const d = value as Decimal;
+		if (d.isNaN()) return { ok: false, reason: 'is not a number (NaN).', missing: false };
+		if (!d.isFinite()) return { ok: false, reason: 'must be finite, not Infinity.', missing: false };
+		return { ok: true, value: new Dec(d) };
+	}
+	return { ok: false, reason: 'must be a number.', missing: false };
+}
+
+export interface RangeRule {
+	/** Lower bound; `minExclusive` makes it strict. */
+	min?: Decimal;
+	minExclusive?: boolean;
+	max?: Decimal;
+	maxExclusive?: boolean;
+	/** Human description used in the error, e.g. 'greater than zero'. */
+	describe: string;
+}
+
+/**
+ * Reads a required number and checks its range; on failure records an error and returns undefined.
+ */
+export function requireNumber(errors: ErrorList, field: string, value: unknown, rule?: RangeRule, label = 'This value'): Decimal | undefined {
+	const read = readDecimal(value);
+	if (!read.ok) {
+		errors.add(field, `${label} ${read.reason}`);
+		return undefined;
+	}
+	if (rule && !inRange(read.value, rule)) {
+		errors.add(field, `${label} must be ${rule.describe}; got ${read.value.toString()}.`);
+		return undefined;
+	}
+	return read.value;
+}
+
+/**
+ * Reads an optional number. Missing → `null` (no error). Present but bad → error, returns undefined.
+ */
+export function optionalNumber(errors: ErrorList, field: string, value: unknown, rule?: RangeRule, label = 'This value'): Decimal | null | undefined {
+	if (isMissing(value)) return null;
+	return requireNumber(errors, field, value, rule, label);
+}
+
+export function inRange(v: Decimal, rule: RangeRule): boolean {
+	if (rule.min !== undefined) {
+		const c = v.cmp(rule.min);
+		if (c < 0 || (c === 0 && rule.minExclusive)) return false;
+	}
+	if (rule.max !== undefined) {
+		const c = v.cmp(rule.max);
+		if (c > 0 || (c === 0 && rule.maxExclusive)) return false;
+	}
+	return true;
+}
+
+/** Reads one of a fixed set of words. */
+export function requireEnum<T extends string>(errors: ErrorList, field: string, value: unknown, allowed: readonly T[], label = 'This value'): T | undefined {
+	if (typeof value === 'string' && (allowed as readonly string[]).includes(value)) return value as T;
+	if (isMissing(value)) errors.add(field, `${label} is required; choose one of: ${allowed.join(', ')}.`);
+	else errors.add(field, `${label} “${String(value).slice(0, 40)}” is not one of: ${allowed.join(', ')}.`);
+	return undefined;
+}
+
+/** Reads a non-empty string identifier or label. */
+export function requireText(errors: ErrorList, field: string, value: unknown, label = 'This value', maxLength = 200): string | undefined {
+	if (typeof value === 'number' && Number.isFinite(value)) return String(value);
+	if (typeof value !== 'string' || value.trim() === '') {
+		errors.add(field, `${label} is required.`);
+		return undefined;
+	}
+	if (value.length > maxLength) {
+		errors.add(field, `${label} is longer than ${maxLength} characters.`);
+		return undefined;
+	}
+	return value;
+}
+
+export function optionalText(value: unknown, fallback: string): string {
+	return typeof value === 'string' && value.trim() !== '' ? value : fallback;
+}

@@ -1,0 +1,140 @@
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import { db } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as audit from '$lib/server/audit';
+import { burnVerification, hashPassword, passwordProblem, verifyPassword } from '$lib/server/auth/password';
+import * as throttle from '$lib/server/auth/throttle';
+import type { NewUserInput, UpdateUserInput } from '$lib/schemas/users';
+
+export type UserSummary = {
+	id: string;
+	name: string;
+	email: string;
+	role: table.Role;
+	disabled: boolean;
+	version: number;
+	labIds: string[];
+};
+
+type Failure = { ok: false; status: 400 | 404 | 409; message: string; fields?: Record<string, string[]> };
+
+const summaryColumns = {
+	id: table.user.id,
+	name: table.user.name,
+	email: table.user.email,
+	role: table.user.role,
+	disabled: table.user.disabled,
+	version: table.user.version
+};
+
+export async function list(): Promise<UserSummary[]> {
+	const [people, memberships] = await Promise.all([
+		db.select(summaryColumns).from(table.user).orderBy(asc(table.user.name)),
+		db.select().from(table.labMember)
+	]);
+	const labsOf = new Map<string, string[]>();
+	for (const m of memberships) labsOf.set(m.userId, [...(labsOf.get(m.userId) ?? []), m.labId]);
+	return people.map((p) => ({ ...p, labIds: labsOf.get(p.id) ?? [] }));
+}
+
+export async function find(userId: string): Promise<UserSummary | null> {
+	const [person] = await db.select(summaryColumns).from(table.user).where(eq(table.user.id, userId));
+	if (!person) return null;
+	const memberships = await db.select().from(table.labMember).where(eq(table.labMember.userId, userId));
+	return { ...person, labIds: memberships.map((m) => m.labId) };
+}
+
+async function unknownLabs(labIds: string[]): Promise<string[]> {
+	if (labIds.length === 0) return [];
+	const found = await db.select({ id: table.lab.id }).from(table.lab).where(inArray(table.lab.id, labIds));
+	const known = new Set(found.map((l) => l.id));
+	return labIds.filter((id) => !known.has(id));
+}
+
+export async function create(actorId: string | null, input: NewUserInput): Promise<{ ok: true; id: string } | Failure> {
+	const problem = passwordProblem(input.password, [input.name, input.email.split('@')[0]]);
+	if (problem) return { ok: false, status: 400, message: 'Some fields need attention.', fields: { password: [problem] } };
+	if ((await unknownLabs(input.labIds)).length)
+		return { ok: false, status: 400, message: 'Some fields need attention.', fields: { labIds: ['Unknown lab.'] } };
+	const passwordHash = await hashPassword(input.password);
+	return db.transaction(async (tx) => {
+		const inserted = await tx
+			.insert(table.user)
+			.values({ name: input.name, email: input.email, role: input.role, passwordHash })
+			.onConflictDoNothing({ target: table.user.email })
+			.returning({ id: table.user.id });
+		if (inserted.length === 0)
+			return { ok: false, status: 409, message: 'Some fields need attention.', fields: { email: ['Someone already uses this e-mail address.'] } } as Failure;
+		const id = inserted[0].id;
+		if (input.labIds.length) await tx.insert(table.labMember).values(input.labIds.map((labId) => ({ labId, userId: id })));
+		await audit.record(tx, {
+			actorId,
+			action: 'user.create',
+			entity: 'user',
+			entityId: id,
+			after: { name: input.name, email: input.email, role: input.role, labIds: input.labIds }
+		});
+		return { ok: true, id } as const;
+	});
+}
+
+/** Role, labs and disabled flag, guarded by the row's version. A change of role or a disable ends the person's sessions. */
+export async function update(actorId: string, userId: string, input: UpdateUserInput): Promise<{ ok: true } | Failure> {
+	if ((await unknownLabs(input.labIds)).length)
+		return { ok: false, status: 400, message: 'Some fields need attention.', fields: { labIds: ['Unknown lab.'] } };
+	if (actorId === userId && (input.disabled || input.role !== 'admin'))
+		return { ok: false, status: 400, message: 'You cannot disable yourself or remove your own administrator role.' };
+	return db.transaction(async (tx) => {
+		const [before] = await tx.select(summaryColumns).from(table.user).where(eq(table.user.id, userId)).for('update');
+		if (!before) return { ok: false, status: 404, message: 'No such user.' } as Failure;
+		const updated = await tx
+			.update(table.user)
+			.set({ role: input.role, disabled: input.disabled, version: before.version + 1, updatedAt: new Date() })
+			.where(and(eq(table.user.id, userId), eq(table.user.version, input.version)))
+			.returning({ id: table.user.id });
+		if (updated.length === 0)
+			return { ok: false, status: 409, message: 'Someone else changed this user meanwhile. Reload to see their change; nothing was saved.' } as Failure;
+		const oldLabs = (await tx.select().from(table.labMember).where(eq(table.labMember.userId, userId))).map((m) => m.labId);
+		await tx.delete(table.labMember).where(eq(table.labMember.userId, userId));
+		if (input.labIds.length) await tx.insert(table.labMember).values(input.labIds.map((labId) => ({ labId, userId })));
+		if (before.role !== input.role || input.disabled) await tx.delete(table.session).where(eq(table.session.userId, userId));
+		await audit.record(tx, {
+			actorId,
+			action: 'user.update',
+			entity: 'user',
+			entityId: userId,
+			before: { role: before.role, disabled: before.disabled, labIds: oldLabs },
+			after: { role: input.role, disabled: input.disabled, labIds: input.labIds }
+		});
+		return { ok: true } as const;
+	});
+}
+
+export type SignInOutcome = { ok: true; userId: string } | { ok: false; reason: 'invalid' } | { ok: false; reason: 'throttled'; retryAfter: number };
+
+/** The same answer for an unknown account, a wrong password and a disabled account. */
+export async function authenticate(emailInput: string, password: string, address: string): Promise<SignInOutcome> {
+	const email = emailInput.trim().toLowerCase();
+	const wait = await throttle.lockedFor(email, address);
+	if (wait > 0) return { ok: false, reason: 'throttled', retryAfter: wait };
+	const [person] = await db
+		.select({ id: table.user.id, passwordHash: table.user.passwordHash, disabled: table.user.disabled })
+		.from(table.user)
+		.where(eq(table.user.email, email));
+	const valid = person ? await verifyPassword(person.passwordHash, password) : (await burnVerification(password), false);
+	if (!person || !valid || person.disabled) {
+		await throttle.recordFailure(email, address);
+		return { ok: false, reason: 'invalid' };
+	}
+	await throttle.recordSuccess(email, address);
+	return { ok: true, userId: person.id };
+}
+
+export async function setPassword(actorId: string | null, userId: string, password: string): Promise<void> {
+	const passwordHash = await hashPassword(password);
+	await db.transaction(async (tx) => {
+		await tx.update(table.user).set({ passwordHash, updatedAt: new Date() }).where(eq(table.user.id, userId));
+		await tx.delete(table.session).where(eq(table.session.userId, userId));
+		await audit.record(tx, { actorId, action: 'user.password', entity: 'user', entityId: userId });
+	});
+}

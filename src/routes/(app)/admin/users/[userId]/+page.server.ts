@@ -1,0 +1,32 @@
+import { error, redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { updateUserSchema } from '$lib/schemas/users';
+import { requireRole } from '$lib/server/auth/guard';
+import { failForm } from '$lib/server/forms';
+import * as labs from '$lib/server/labs';
+import * as users from '$lib/server/users';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+	requireRole(locals, 'admin');
+	const person = await users.find(params.userId);
+	if (!person) error(404, { message: 'No such person.' });
+	const { role, labIds, disabled, version } = person;
+	return {
+		person: { id: person.id, name: person.name, email: person.email },
+		form: await superValidate({ role, labIds, disabled, version }, zod4(updateUserSchema)),
+		labs: await labs.list()
+	};
+};
+
+export const actions: Actions = {
+	save: async function saveUser({ locals, request, params }) {
+		const admin = requireRole(locals, 'admin');
+		const form = await superValidate(request, zod4(updateUserSchema));
+		if (!form.valid) return fail(400, { form });
+		const result = await users.update(admin.id, params.userId, form.data);
+		if (!result.ok) return failForm(form, result);
+		redirect(303, '/admin/users');
+	}
+};

@@ -1,0 +1,21 @@
+import { json } from '@sveltejs/kit';
+import { newUserSchema } from '$lib/schemas/users';
+import { apiError, endpoint, readJson } from '$lib/server/api';
+import { requireRole } from '$lib/server/auth/guard';
+import * as users from '$lib/server/users';
+
+export type UsersResponse = { users: users.UserSummary[] };
+
+export const GET = endpoint(async ({ locals }) => {
+	requireRole(locals, 'admin');
+	return json({ users: await users.list() } satisfies UsersResponse);
+});
+
+export const POST = endpoint(async ({ locals, request }) => {
+	const admin = requireRole(locals, 'admin');
+	const body = await readJson(request, newUserSchema);
+	if (!body.ok) return body.response;
+	const result = await users.create(admin.id, body.data);
+	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	return json({ id: result.id }, { status: 201 });
+});

@@ -1,0 +1,13 @@
+import { json } from '@sveltejs/kit';
+import { sql } from 'drizzle-orm';
+import { db } from '$lib/server/db';
+
+/** Load balancers ask this: 200 when the database answers, 503 otherwise. */
+export async function GET() {
+	try {
+		await db.execute(sql`SELECT 1`);
+		return json({ status: 'ok' });
+	} catch {
+		return json({ status: 'unavailable', message: 'The database does not answer.' }, { status: 503 });
+	}
+}
