@@ -2,6 +2,8 @@ import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
 import { defineConfig } from 'vitest/config';
 
+const pgPort = process.env.BEAMWARDEN_PGPORT ?? '54329';
+
 export default defineConfig({
 	plugins: [tailwindcss(), sveltekit()],
 	server: { host: '127.0.0.1' },
@@ -22,6 +24,8 @@ export default defineConfig({
 					environment: 'node',
 					include: ['tests/integration/**/*.test.ts'],
 					globalSetup: ['tests/integration/global-setup.ts'],
+					// The app's own role on the test database: the demo database is never touched.
+					env: { DATABASE_URL: `postgres://beamwarden_app@127.0.0.1:${pgPort}/beamwarden_test` },
 					fileParallelism: false,
 					testTimeout: 30000,
 					hookTimeout: 60000

@@ -27,6 +27,7 @@ export const routePolicy: Record<string, RouteRule> = {
 	'/(app)/admin/users/[userId]': { read: admin, write: admin },
 	'/api/me': { read: everyone, write: nobody },
 	'/api/admin/users': { read: admin, write: admin },
+	'/api/admin/users/[userId]': { read: admin, write: admin },
 	'/api/health': { read: 'public', write: nobody }
 };
 

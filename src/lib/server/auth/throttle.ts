@@ -2,10 +2,9 @@
 // Three counters per failure: the (account, address) pair locks quickly, so an attacker at one
 // address cannot keep guessing while the account's owner still signs in from elsewhere; the address
 // alone and the account alone lock at higher counts to slow spraying and distributed guessing.
-import { sql } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import { inArray } from 'drizzle-orm';
+import { inArray, sql } from 'drizzle-orm';
 
 const WINDOW_MS = 15 * 60 * 1000;
 const LOCK_MS = 15 * 60 * 1000;
@@ -32,19 +31,20 @@ export async function lockedFor(email: string, address: string, now = new Date()
 
 export async function recordFailure(email: string, address: string, now = new Date()): Promise<void> {
 	const k = keys(email, address);
-	const windowStart = new Date(now.getTime() - WINDOW_MS);
-	const lockUntil = new Date(now.getTime() + LOCK_MS);
+	const at = now.toISOString();
+	const windowStart = new Date(now.getTime() - WINDOW_MS).toISOString();
+	const lockUntil = new Date(now.getTime() + LOCK_MS).toISOString();
 	await db.transaction(async (tx) => {
 		for (const kind of ['pair', 'address', 'account'] as const) {
 			// One atomic upsert per counter: a new window restarts the count.
 			await tx.execute(sql`
 				INSERT INTO sign_in_throttle (key, failures, window_start)
-				VALUES (${k[kind]}, 1, ${now})
+				VALUES (${k[kind]}, 1, ${at}::timestamptz)
 				ON CONFLICT (key) DO UPDATE SET
-					failures = CASE WHEN sign_in_throttle.window_start < ${windowStart} THEN 1 ELSE sign_in_throttle.failures + 1 END,
-					window_start = CASE WHEN sign_in_throttle.window_start < ${windowStart} THEN ${now} ELSE sign_in_throttle.window_start END`);
+					failures = CASE WHEN sign_in_throttle.window_start < ${windowStart}::timestamptz THEN 1 ELSE sign_in_throttle.failures + 1 END,
+					window_start = CASE WHEN sign_in_throttle.window_start < ${windowStart}::timestamptz THEN ${at}::timestamptz ELSE sign_in_throttle.window_start END`);
 			await tx.execute(sql`
-				UPDATE sign_in_throttle SET locked_until = ${lockUntil}
+				UPDATE sign_in_throttle SET locked_until = ${lockUntil}::timestamptz
 				WHERE key = ${k[kind]} AND failures >= ${LIMITS[kind]}`);
 		}
 	});

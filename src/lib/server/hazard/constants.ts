@@ -19,7 +19,7 @@ export const Dec = Decimal.clone({
 	precision: WORKING_PRECISION,
 	rounding: Decimal.ROUND_HALF_EVEN,
 	toExpNeg: -7,
-	toExpPos: 21
+	toExpPos: 15
 });
 export type Dec = Decimal;
 
@@ -32,7 +32,7 @@ export const DecReport = Decimal.clone({
 	precision: 24,
 	rounding: Decimal.ROUND_HALF_EVEN,
 	toExpNeg: -7,
-	toExpPos: 21
+	toExpPos: 15
 });
 
 // Exact defining constants of the SI (2019 redefinition).

@@ -17,7 +17,7 @@ export interface OdValue {
 export function requiredOpticalDensity(ratio: Decimal): OdValue {
 	if (ratio.lte(ONE)) return { value: ZERO, roundedUpTenth: ZERO, roundedUpWhole: ZERO };
 	// log₁₀ on the 24-digit clone; the result is only reported.
-	const value = new Dec(new DecReport(ratio).log10());
+	const value = new Dec(DecReport.log10(ratio));
 	// Round away digits below 1e-12 before rounding up, so that arithmetic noise on an exact power of
 	// ten cannot add a whole OD.
 	const settled = value.toDecimalPlaces(12, Decimal.ROUND_HALF_EVEN);

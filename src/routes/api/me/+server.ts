@@ -6,6 +6,7 @@ import { ABSOLUTE_TIMEOUT_MS } from '$lib/server/auth/session';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import type { Role } from '$lib/roles';
+import type { RequestHandler } from './$types';
 
 export type MeResponse = {
 	id: string;
@@ -16,7 +17,7 @@ export type MeResponse = {
 	session: { idleEndsAt: string; absoluteEndsAt: string };
 };
 
-export const GET = endpoint(async ({ locals }) => {
+export const GET: RequestHandler = endpoint(async ({ locals }) => {
 	const user = requireUser(locals);
 	const session = locals.session!;
 	const labs = await db

@@ -3,15 +3,16 @@ import { newUserSchema } from '$lib/schemas/users';
 import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireRole } from '$lib/server/auth/guard';
 import * as users from '$lib/server/users';
+import type { RequestHandler } from './$types';
 
 export type UsersResponse = { users: users.UserSummary[] };
 
-export const GET = endpoint(async ({ locals }) => {
+export const GET: RequestHandler = endpoint(async ({ locals }) => {
 	requireRole(locals, 'admin');
 	return json({ users: await users.list() } satisfies UsersResponse);
 });
 
-export const POST = endpoint(async ({ locals, request }) => {
+export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
 	const admin = requireRole(locals, 'admin');
 	const body = await readJson(request, newUserSchema);
 	if (!body.ok) return body.response;

@@ -1,0 +1,277 @@
+/**
+ * Benchmark of the hazard engine on a synthetic campus register.
+ *
+ *   npx tsx scripts/bench-hazard.ts [paths=10000]
+ *
+ * Generates (seeded, in-process) N beam paths × 4 points × 3 limits — a mix of continuous,
+ * single-pulse and repetitive lines with a few elements each — evaluates every path with
+ * `assess`, and times it against a plain float64 (Number) implementation of the same per-point
+ * arithmetic run on the same data in the same process. Also cross-checks that both agree.
+ */
+import { assess } from '../src/lib/server/hazard/index';
+import type { AssessmentInput, ElementInput, LimitInput, PointInput } from '../src/lib/server/hazard/index';
+
+const PATHS = Number(process.argv[2] ?? 10000);
+
+// ------------------------------------------------------------------ seeded data
+function mulberry32(seed: number): () => number {
+	let a = seed >>> 0;
+	return () => {
+		a = (a + 0x6d2b79f5) >>> 0;
+		let t = a;
+		t = Math.imul(t ^ (t >>> 15), t | 1);
+		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+	};
+}
+const rnd = mulberry32(20240611);
+const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
+/** A decimal string with 4 significant digits, log-uniform between lo and hi. */
+const logU = (lo: number, hi: number) => Math.exp(Math.log(lo) + rnd() * (Math.log(hi) - Math.log(lo))).toPrecision(4);
+
+const WAVELENGTHS = ['405e-9', '532e-9', '800e-9', '1064e-9', '1550e-9', '10.6e-6'];
+const DEFS = ['1/e', '1/e2', 'fwhm'] as const;
+
+function limitsFor(wl: string, mode: string): LimitInput[] {
+	// Invented synthetic limits: shaped like real ones (k·tⁿ), values are not from any code.
+	const base = { wavelengthMin: '1.8e-7', wavelengthMax: '1e-3', citation: 'synthetic benchmark data' };
+	const eyeCw: LimitInput = { ...base, id: `eye-cw-${wl}`, version: 1, label: 'eye continuous', tissue: 'eye', durationMin: '1e-6', durationMax: '3e4', quantity: 'radiant_exposure', k: '18', n: '0.75', limitingAperture: '7e-3', pulseBasis: 'continuous' };
+	const eyeSp: LimitInput = { ...base, id: `eye-sp-${wl}`, version: 2, label: 'eye single pulse', tissue: 'eye', durationMin: '1e-13', durationMax: '1e-3', quantity: 'radiant_exposure', k: '0.05', n: '0', limitingAperture: '7e-3', pulseBasis: 'single_pulse', pulseTrainExponent: '-0.25' };
+	const skin: LimitInput = { ...base, id: `skin-${mode}`, version: 1, label: 'skin', tissue: 'skin', durationMin: '1e-13', durationMax: '3e4', quantity: mode === 'continuous' ? 'irradiance' : 'radiant_exposure', k: mode === 'continuous' ? '2000' : '200', n: mode === 'continuous' ? '0' : '0.25', limitingAperture: '3.5e-3', pulseBasis: mode === 'continuous' ? 'continuous' : 'single_pulse' };
+	const eyeCw2: LimitInput = { ...eyeCw, id: `eye-cw-irr-${wl}`, quantity: 'irradiance', k: '10', n: '0', durationMin: '10', durationMax: '3e4', limitingAperture: '1e-3' };
+	return mode === 'continuous' ? [eyeCw, eyeCw2, skin] : [eyeSp, eyeCw, skin];
+}
+
+function makePath(i: number): AssessmentInput {
+	const mode = pick(['continuous', 'continuous', 'single_pulse', 'repetitive', 'repetitive'] as const);
+	const wl = pick(WAVELENGTHS);
+	const line: AssessmentInput['line'] = {
+		wavelength: wl,
+		mode,
+		beamDiameter: logU(0.5e-3, 10e-3),
+		beamDiameterDefinition: pick(DEFS),
+		divergence: rnd() < 0.05 ? '0' : logU(0.1e-3, 5e-3),
+		divergenceDefinition: pick(DEFS),
+		beamQuality: (1 + rnd()).toFixed(2)
+	};
+	if (mode === 'continuous') line.power = logU(1e-3, 100);
+	else {
+		line.pulseEnergy = logU(1e-6, 1);
+		line.pulseDuration = logU(30e-15, 1e-6);
+		if (mode === 'repetitive') line.repetitionRate = pick(['10', '1000', '80e6'].filter((f) => Number(line.pulseDuration) * Number(f) < 0.5));
+	}
+	const elements: ElementInput[] = [];
+	let length = 0;
+	const nEl = 2 + Math.floor(rnd() * 4);
+	for (let k = 0; k < nEl; k++) {
+		const r = rnd();
+		if (r < 0.35) {
+			const L = Number(logU(0.1, 5));
+			length += L;
+			elements.push({ kind: 'propagate', length: String(L) });
+		} else if (r < 0.5) elements.push({ kind: 'transmission', transmission: rnd().toFixed(3), label: 'attenuator' });
+		else if (r < 0.65) elements.push({ kind: 'mirror', reflectance: (0.9 + rnd() / 10).toFixed(3) });
+		else if (r < 0.75) elements.push({ kind: 'expander', magnification: pick(['0.5', '2', '3', '5']) });
+		else if (r < 0.82) elements.push({ kind: 'lens', focalLength: pick(['0.05', '0.1', '0.25', '0.5']) });
+		else {
+			const L = Number(logU(0.2, 2));
+			length += L;
+			elements.push({ kind: 'enclosure', length: String(L) });
+		}
+	}
+	elements.push({ kind: 'propagate', length: '2' });
+	length += 2;
+	const points: PointInput[] = [];
+	for (let p = 0; p < 4; p++) {
+		const z = (rnd() * length).toFixed(3);
+		const diffuse = rnd() < 0.25;
+		points.push({
+			id: `p${p}`,
+			position: z,
+			tissue: rnd() < 0.8 ? 'eye' : 'skin',
+			exposureDuration: pick(['0.25', '10', '100', '30000']),
+			kind: diffuse ? 'diffuse' : 'intrabeam',
+			...(diffuse ? { reflectance: rnd().toFixed(2), viewingAngle: (rnd() * 1.2).toFixed(3), viewingDistance: logU(0.2, 3) } : {})
+		});
+	}
+	return { line, elements, points, limits: limitsFor(wl, mode), nohd: { exposureDuration: i % 2 ? '0.25' : '10' } };
+}
+
+// ------------------------------------------------------------------ float64 baseline
+// The same formulas as the engine, on Numbers: definitions, path walk, averaging, checks, limits,
+// ratios, optical density, diffuse distance and NOHD. No validation messages and no breakdown.
+interface F64Point { ratio: number | null; od: number }
+function f64(input: AssessmentInput): { points: F64Point[]; nohd: number } {
+	const L = input.line;
+	const num = (v: unknown) => Number(v);
+	const toE = (v: number, d: string) => (d === '1/e' ? v : d === '1/e2' ? v / Math.SQRT2 : v / Math.sqrt(Math.LN2));
+	const lambda = num(L.wavelength);
+	const m2 = L.beamQuality == null ? 1 : num(L.beamQuality);
+	const d0 = toE(num(L.beamDiameter), L.beamDiameterDefinition);
+	const phi0 = toE(num(L.divergence), L.divergenceDefinition);
+	const mode = L.mode;
+	const Q = mode === 'continuous' ? 0 : num(L.pulseEnergy);
+	const tau = mode === 'continuous' ? 0 : num(L.pulseDuration);
+	const f = mode === 'repetitive' ? num(L.repetitionRate) : 0;
+	const Pavg = mode === 'continuous' ? num(L.power) : mode === 'repetitive' ? Q * f : 0;
+	const ePh = (6.62607015e-34 * 299792458) / lambda;
+	void ePh;
+	const limits = input.limits.map((l) => ({ tissue: l.tissue, lmin: num(l.wavelengthMin), lmax: num(l.wavelengthMax), tmin: num(l.durationMin), tmax: num(l.durationMax), irr: l.quantity === 'irradiance', k: num(l.k), n: num(l.n), df: num(l.limitingAperture), basis: l.pulseBasis, x: l.pulseTrainExponent == null ? null : num(l.pulseTrainExponent) }));
+	type Snap = { from: number; to: number; dw: number; zw: number; phi: number; t: number };
+	let z = 0;
+	let cur: Snap = { from: 0, to: 0, dw: d0, zw: 0, phi: phi0, t: 1 };
+	const snaps: Snap[] = [cur];
+	const encl: [number, number][] = [];
+	const next = (s: Partial<Snap>) => {
+		cur.to = z;
+		cur = { ...cur, ...s, from: z, to: z };
+		snaps.push(cur);
+	};
+	for (const e of input.elements ?? []) {
+		switch (e.kind) {
+			case 'propagate':
+			case 'enclosure': {
+				const len = num(e.length);
+				if (e.kind === 'enclosure' && len > 0) encl.push([z, z + len]);
+				z += len;
+				cur.to = z;
+				break;
+			}
+			case 'transmission':
+				next({ t: cur.t * num(e.transmission) });
+				break;
+			case 'mirror':
+				next({ t: cur.t * (e.reflectance == null ? 1 : num(e.reflectance)) });
+				break;
+			case 'expander': {
+				const M = num(e.magnification);
+				next({ dw: cur.dw * M, phi: cur.phi / M, zw: z - M * M * (z - cur.zw) });
+				break;
+			}
+			case 'lens': {
+				const fl = num(e.focalLength);
+				const dl = Math.hypot(cur.dw, cur.phi * (z - cur.zw));
+				next({ dw: (2 * m2 * lambda * fl) / (Math.PI * dl), zw: z + fl, phi: dl / fl });
+				break;
+			}
+			case 'fibre':
+				next({ dw: num(e.coreDiameter), zw: z, phi: 2 * Math.asin(num(e.numericalAperture)), t: cur.t * (e.couplingTransmission == null ? 1 : num(e.couplingTransmission)) });
+				break;
+		}
+	}
+	type Plan = { basis: string; t: number | null; irrMeasure: boolean; x: number; N: number | null; train: boolean };
+	const plans = (T: number | null): Plan[] =>
+		mode === 'continuous'
+			? [{ basis: 'continuous', t: T, irrMeasure: true, x: Pavg, N: null, train: false }]
+			: mode === 'single_pulse'
+				? [{ basis: 'single_pulse', t: tau, irrMeasure: false, x: Q, N: null, train: false }]
+				: [
+						{ basis: 'single_pulse', t: tau, irrMeasure: false, x: Q, N: null, train: false },
+						{ basis: 'continuous', t: T, irrMeasure: true, x: Pavg, N: null, train: false },
+						{ basis: 'single_pulse', t: tau, irrMeasure: false, x: Q, N: T === null ? null : Math.max(1, f * T), train: true }
+					];
+	const applies = (l: (typeof limits)[number], tissue: string, p: Plan) => l.tissue === tissue && l.basis === p.basis && (!p.train || l.x !== null) && l.lmin <= lambda && lambda <= l.lmax && l.tmin <= p.t! && p.t! <= l.tmax;
+	const limitNat = (l: (typeof limits)[number], p: Plan) => {
+		let v = l.k * Math.pow(p.t!, l.n);
+		if (p.train && p.N !== null && l.x !== null) v *= Math.pow(p.N, l.x);
+		return { v, nat: l.irr === p.irrMeasure ? v : p.irrMeasure ? v / p.t! : v * p.t! };
+	};
+	const points: F64Point[] = [];
+	for (const pt of input.points) {
+		const zp = num(pt.position);
+		const T = pt.exposureDuration == null ? null : num(pt.exposureDuration);
+		const diffuse = pt.kind === 'diffuse';
+		const rho = diffuse ? num(pt.reflectance) : 0;
+		const r = diffuse ? num(pt.viewingDistance) : 0;
+		const theta = diffuse ? num(pt.viewingAngle ?? 0) : 0;
+		const geometry = diffuse ? (rho * Math.cos(theta)) / (Math.PI * r * r) : 0;
+		let best: number | null = null;
+		for (const s of snaps) {
+			if (!(s.from <= zp && zp <= s.to)) continue;
+			const D = Math.hypot(s.dw, s.phi * (zp - s.zw));
+			let worst: number | null = null;
+			for (const p of plans(T)) {
+				if (p.t === null) continue;
+				const x = s.t * p.x;
+				for (const l of limits) {
+					if (!applies(l, pt.tissue, p)) continue;
+					const davg = Math.max(D, l.df);
+					const nat = diffuse ? geometry * x : x / ((Math.PI * davg * davg) / 4);
+					const exposure = l.irr === p.irrMeasure ? nat : p.irrMeasure ? nat * p.t : nat / p.t;
+					const ratio = exposure / limitNat(l, p).v;
+					if (worst === null || ratio > worst) worst = ratio;
+					if (diffuse) Math.sqrt((geometry * r * r * x) / limitNat(l, p).nat);
+				}
+			}
+			if (worst !== null && (best === null || worst > best)) best = worst;
+		}
+		void encl;
+		points.push({ ratio: best, od: best !== null && best > 1 ? Math.log10(best) : 0 });
+	}
+	// NOHD at the aperture.
+	let nohd = 0;
+	const Tn = input.nohd?.exposureDuration == null ? null : num(input.nohd.exposureDuration);
+	for (const p of plans(Tn)) {
+		if (p.t === null) continue;
+		for (const l of limits) {
+			if (!applies(l, 'eye', p)) continue;
+			const dc = Math.sqrt((4 * p.x) / (Math.PI * limitNat(l, p).nat));
+			if (dc > Math.max(d0, l.df)) nohd = Math.max(nohd, phi0 === 0 ? Infinity : Math.sqrt(dc * dc - d0 * d0) / phi0);
+		}
+	}
+	return { points, nohd };
+}
+
+// ------------------------------------------------------------------ run
+function time<T>(fn: () => T): [T, number] {
+	const t0 = process.hrtime.bigint();
+	const out = fn();
+	return [out, Number(process.hrtime.bigint() - t0) / 1e6];
+}
+
+const register = Array.from({ length: PATHS }, (_, i) => makePath(i));
+// Warm-up on a slice, so that both implementations are compiled before timing.
+for (const p of register.slice(0, 300)) {
+	assess(p);
+	f64(p);
+}
+
+const [results, engineMs] = time(() => register.map((p) => assess(p)));
+const [, engineLeanMs] = time(() => register.map((p) => assess({ ...p, options: { breakdown: false } })));
+const [baseline, f64Ms] = time(() => register.map((p) => f64(p)));
+
+// Cross-check: every worst ratio per point agrees with the float64 baseline.
+let failures = 0;
+let points = 0;
+let maxRel = 0;
+let counts: Record<string, number> = {};
+results.forEach((out, i) => {
+	if (!out.ok) {
+		failures++;
+		if (failures < 4) console.error('input error', JSON.stringify(out.errors));
+		return;
+	}
+	counts[out.result.verdict] = (counts[out.result.verdict] ?? 0) + 1;
+	out.result.points.forEach((p, j) => {
+		points++;
+		const b = baseline[i].points[j].ratio;
+		if (p.worstRatio === null || b === null) {
+			if ((p.worstRatio === null) !== (b === null)) maxRel = Infinity;
+			return;
+		}
+		const rel = Math.abs(Number(p.worstRatio) - b) / b;
+		if (rel > maxRel) maxRel = rel;
+	});
+});
+
+const rssMB = process.resourceUsage().maxRSS / 1024;
+const jsonBytes = JSON.stringify(results).length;
+console.log(`register: ${PATHS} paths, ${points} points, 3 limits per path; input errors: ${failures}`);
+console.log(`verdicts: ${JSON.stringify(counts)}`);
+console.log(`decimal engine (with breakdown):    ${engineMs.toFixed(0)} ms  (${((engineMs * 1000) / points).toFixed(1)} µs/point)`);
+console.log(`decimal engine (breakdown off):     ${engineLeanMs.toFixed(0)} ms`);
+console.log(`float64 baseline (same arithmetic): ${f64Ms.toFixed(1)} ms`);
+console.log(`ratio engine/baseline: ${(engineMs / f64Ms).toFixed(1)}× (with breakdown), ${(engineLeanMs / f64Ms).toFixed(1)}× (breakdown off)`);
+console.log(`max relative difference of worst ratios vs float64: ${maxRel.toExponential(2)}`);
+console.log(`result JSON size: ${(jsonBytes / 1e6).toFixed(1)} MB; peak RSS: ${rssMB.toFixed(0)} MB`);
+console.log(`target: < 2000 ms for the register — ${engineMs < 2000 ? 'met' : 'NOT met'}; within 10× of float64 — ${engineMs / f64Ms <= 10 ? 'met' : 'NOT met'}`);

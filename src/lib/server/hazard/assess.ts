@@ -1,0 +1,165 @@
+/**
+ * assess(): the public entry. Validates, walks the path, evaluates every point, aggregates.
+ *
+ * Overall verdict: the worst verdict over the accessible points, with the precedence
+ *     exceeds_limit > incomplete > no_applicable_limit > within_limit.
+ * An assessment is never within limit while any accessible point is incomplete or has no applicable
+ * limit, and never within limit without any accessible point. Points inside an enclosure are
+ * computed and reported but take no part in the verdict, the worst point or the optical density.
+ */
+import type Decimal from 'decimal.js';
+import { ELEMENTARY_CHARGE, ENGINE_VERSION, ONE, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT } from './constants';
+import { Working } from './breakdown';
+import { requiredOpticalDensity, writeOd } from './density';
+import { hazardDistance } from './distances';
+import { walkPath } from './elements';
+import { evaluatePoint, VERDICT_RANK } from './exposure';
+import { fmt, fmtOrNull, NonFiniteResultError } from './format';
+import { limitRef } from './limits';
+import { joulesToElectronvolts, photonEnergy } from './photon';
+import { validate, type NormInput, type NormLimit } from './validate';
+import type { AssessmentInput, AssessmentOutcome, AssessmentResult, LensNohdResult, LineResult, PointResult, Verdict } from './types';
+
+export function assess(input: AssessmentInput): AssessmentOutcome {
+	try {
+		const v = validate(input);
+		if (!v.ok) return { ok: false, errors: v.errors.items };
+		return { ok: true, result: compute(v.input) };
+	} catch (err) {
+		// Not expected for any input; reported as an error rather than thrown.
+		const why = err instanceof NonFiniteResultError ? err.message : err instanceof Error ? err.message : String(err);
+		return { ok: false, errors: [{ field: '', reason: `The assessment could not be computed (${why}). Check the inputs for extreme values.` }] };
+	}
+}
+
+function compute(input: NormInput): AssessmentResult {
+	const { line, limits } = input;
+	const w = new Working(input.breakdown);
+	const used = new Set<NormLimit>();
+
+	// Line quantities.
+	const ePh = photonEnergy(line.wavelength);
+	const eV = joulesToElectronvolts(ePh);
+	w.add('photon-energy', 'Photon energy', 'E_ph = h·c / λ', [['h', PLANCK_CONSTANT, 'J·s'], ['c', SPEED_OF_LIGHT, 'm/s'], ['λ', line.wavelength, 'm']], ePh, 'J', 'Exact SI 2019 constants.');
+	w.add('photon-energy-ev', 'Photon energy in electronvolts', 'E_ph[eV] = E_ph / e', [['E_ph', ePh, 'J'], ['e', ELEMENTARY_CHARGE, 'C']], eV, 'eV');
+	if (line.beamDiameterDefinition !== '1/e') w.add('beam-diameter', 'Beam diameter at the aperture on the 1/e basis', line.beamDiameterDefinition === '1/e2' ? 'D₀ = D₀(1/e²) / √2' : 'D₀ = D₀(FWHM) / √(ln 2)', [[line.beamDiameterDefinition === '1/e2' ? 'D₀(1/e²)' : 'D₀(FWHM)', line.beamDiameterEntered, 'm']], line.d0, 'm', 'Exact for a Gaussian beam.');
+	if (line.divergenceDefinition !== '1/e') w.add('divergence', 'Divergence on the 1/e basis', line.divergenceDefinition === '1/e2' ? 'φ = φ(1/e²) / √2' : 'φ = φ(FWHM) / √(ln 2)', [[line.divergenceDefinition === '1/e2' ? 'φ(1/e²)' : 'φ(FWHM)', line.divergenceEntered, 'rad']], line.divergence, 'rad', 'Exact for a Gaussian beam.');
+	let photonFlux: Decimal | null = null;
+	let peakPhotonFlux: Decimal | null = null;
+	let photonsPerPulse: Decimal | null = null;
+	if (line.mode === 'repetitive') w.add('average-power', 'Average power', 'P_avg = Q·f', [['Q', line.pulseEnergy!, 'J'], ['f', line.repetitionRate!, 'Hz']], line.averagePower!, 'W');
+	if (line.peakPower) w.add('peak-power', 'Peak power', 'P_peak = Q / τ', [['Q', line.pulseEnergy!, 'J'], ['τ', line.pulseDuration!, 's']], line.peakPower, 'W');
+	if (line.averagePower) {
+		photonFlux = line.averagePower.div(ePh);
+		w.add('photon-flux', 'Photon flux', 'Φ = P / E_ph', [['P', line.averagePower, 'W'], ['E_ph', ePh, 'J']], photonFlux, 's⁻¹');
+	}
+	if (line.pulseEnergy) {
+		photonsPerPulse = line.pulseEnergy.div(ePh);
+		peakPhotonFlux = line.peakPower!.div(ePh);
+		w.add('photons-per-pulse', 'Photons per pulse', 'N_ph = Q / E_ph', [['Q', line.pulseEnergy, 'J'], ['E_ph', ePh, 'J']], photonsPerPulse, '');
+	}
+
+	// Path.
+	const path = walkPath(line, input.elements);
+
+	// NOHD at the aperture.
+	const nohd = hazardDistance(line, limits, input.nohdExposureDuration, { waist: line.d0, waistSymbol: 'D₀', divergence: line.divergence, transmission: ONE }, w, 'nohd', used, 'at the aperture');
+
+	// NOHD after each lens, from its focus.
+	const lensNohd: LensNohdResult[] = path.lenses.map((lens) => {
+		const out = hazardDistance(line, limits, input.nohdExposureDuration, { waist: lens.focalSpot, waistSymbol: 'd₀', divergence: lens.divergenceAfter, transmission: lens.transmission }, w, `lens${lens.index}.nohd`, used, `after the lens (element ${lens.index})`);
+		if (w.enabled) {
+			w.add(`lens${lens.index}.focal-spot`, `Focal spot of the lens (element ${lens.index}), 1/e`, 'd₀ = 2·M²·λ·f / (π·D_lens)', [['M²', line.beamQuality, ''], ['λ', line.wavelength, 'm'], ['f', lens.focalLength, 'm'], ['D_lens', lens.lensDiameter, 'm']], lens.focalSpot, 'm', 'Gaussian 1/e² waist 4·M²·λ·f/(π·D_lens,1/e²) rewritten on the 1/e basis.');
+			w.add(`lens${lens.index}.divergence`, `Divergence after the focus (element ${lens.index})`, 'φ = D_lens / f', [['D_lens', lens.lensDiameter, 'm'], ['f', lens.focalLength, 'm']], lens.divergenceAfter, 'rad');
+		}
+		const handbook = out.deciding && !out.deciding.unbounded ? lens.focalLength.div(lens.lensDiameter).times(out.deciding.criticalDiameter) : null;
+		return {
+			...out.result,
+			elementIndex: lens.index,
+			focusPosition: fmt(lens.focusPosition),
+			focalSpotDiameter: fmt(lens.focalSpot),
+			divergenceAfterFocus: fmt(lens.divergenceAfter),
+			handbookFormDistance: handbook && out.deciding!.distance!.isZero() ? fmt(out.deciding!.distance!) : fmtOrNull(handbook)
+		};
+	});
+
+	// Points.
+	const ctx = { line, limits, photonEnergy: ePh, breakdown: input.breakdown, used };
+	const points: PointResult[] = [];
+	const ratios: (Decimal | null)[] = [];
+	for (const p of input.points) {
+		const ev = evaluatePoint(ctx, p, path);
+		points.push(ev.result);
+		ratios.push(ev.ratio);
+	}
+
+	// Aggregation over accessible points.
+	let verdict: Verdict = 'within_limit';
+	let worstIndex = -1;
+	let worstRatio: Decimal | null = null;
+	let anyAccessible = false;
+	points.forEach((p, i) => {
+		if (!p.accessible) return;
+		anyAccessible = true;
+		if (VERDICT_RANK[p.verdict] > VERDICT_RANK[verdict]) verdict = p.verdict;
+		const r = ratios[i];
+		if (r && (!worstRatio || r.gt(worstRatio))) {
+			worstRatio = r;
+			worstIndex = i;
+		}
+	});
+	if (!anyAccessible) verdict = 'incomplete';
+	if (worstIndex < 0 && anyAccessible) worstIndex = points.findIndex((p) => p.accessible && p.verdict === verdict);
+	const worst = worstIndex >= 0 ? points[worstIndex] : null;
+	const od = worstRatio ? requiredOpticalDensity(worstRatio) : null;
+
+	const lineResult: LineResult = {
+		wavelength: fmt(line.wavelength),
+		mode: line.mode,
+		photonEnergy: fmt(ePh),
+		photonEnergyEV: fmt(eV),
+		averagePower: fmtOrNull(line.averagePower),
+		peakPower: fmtOrNull(line.peakPower),
+		pulseEnergy: fmtOrNull(line.pulseEnergy),
+		pulseDuration: fmtOrNull(line.pulseDuration),
+		repetitionRate: fmtOrNull(line.repetitionRate),
+		photonFlux: fmtOrNull(photonFlux),
+		peakPhotonFlux: fmtOrNull(peakPhotonFlux),
+		photonsPerPulse: fmtOrNull(photonsPerPulse),
+		beamDiameter: fmt(line.d0),
+		divergence: fmt(line.divergence),
+		beamQuality: fmt(line.beamQuality)
+	};
+
+	return {
+		engineVersion: ENGINE_VERSION,
+		verdict,
+		reason: overallReason(verdict, anyAccessible, worst),
+		worstPointId: worst ? worst.id : null,
+		worstRatio: fmtOrNull(worstRatio),
+		requiredOpticalDensity: od ? writeOd(od) : null,
+		line: lineResult,
+		pathLength: fmt(path.length),
+		nohd: nohd.result,
+		lensNohd,
+		points,
+		limitsUsed: limits.filter((l) => used.has(l)).map(limitRef),
+		limitsConsidered: limits.map(limitRef),
+		breakdown: w.steps,
+		caution: RESULT_CAUTION
+	};
+}
+
+function overallReason(verdict: Verdict, anyAccessible: boolean, worst: PointResult | null): string {
+	if (!anyAccessible) return 'No accessible point of concern: mark where a person could be exposed. Not shown as safe.';
+	switch (verdict) {
+		case 'exceeds_limit':
+			return `At least one accessible point exceeds a limit; the worst is “${worst?.label}”.`;
+		case 'incomplete':
+			return 'At least one accessible point lacks input needed for a required check.';
+		case 'no_applicable_limit':
+			return 'At least one accessible point has a required check with no applicable limit. Not shown as safe.';
+		case 'within_limit':
+			return 'Every accessible point is within its most restrictive applicable limits.';
+	}
+}

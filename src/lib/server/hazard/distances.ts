@@ -1,0 +1,170 @@
+/**
+ * Hazard distances.
+ *
+ * NOHD (closed form, consistent with D(r) = √(D₀² + (r·φ)²) and averaging over max(D, D_f)):
+ *   the exposure X/(π·D²/4) equals the limit EL when D equals the critical diameter
+ *       D_c = √(4·X/(π·EL)),
+ *   X being the power (continuous, average) or the pulse energy and EL the limit in the matching
+ *   measure. If D_c ≤ max(D₀, D_f) the beam never exceeds the limit: NOHD = 0. Otherwise
+ *       NOHD = √(D_c² − D₀²)/φ,
+ *   and for φ = 0 the beam never spreads: the NOHD is unbounded (no division by zero).
+ *   The linear handbook form (D_c − D₀)/φ, which treats the diameter as growing linearly from D₀,
+ *   is reported beside it; the two agree when D_c ≫ D₀, and the linear form is the shorter.
+ *
+ * After a lens the same closed form is used from the focus, with the focal spot d₀ in place of D₀
+ * and the post-focus divergence φ = D_lens/f: distance from the focus = √(D_c² − d₀²)/φ. Beside it
+ * the handbook lens form (f/D_lens)·D_c, which neglects d₀.
+ *
+ * With pulsed lines every applicable check gives a candidate (single pulse with the pulse energy,
+ * average power, pulse train) and the largest distance decides.
+ */
+import type Decimal from 'decimal.js';
+import { FOUR, PI, ZERO } from './constants';
+import type { Working } from './breakdown';
+import { planChecks, limitForPlan, MEASURE_UNIT, type CheckPlan } from './exposure';
+import { fmt, fmtOrNull } from './format';
+import { applicableLimits, limitRef } from './limits';
+import type { NormLimit, NormLine } from './validate';
+import type { CheckKind, NohdCandidate, NohdResult } from './types';
+
+export interface DistanceBeam {
+	/** Waist diameter the beam spreads from (D₀ at the aperture, d₀ at a focus), 1/e. */
+	waist: Decimal;
+	waistSymbol: string;
+	divergence: Decimal;
+	/** Transmission of the path up to the waist. */
+	transmission: Decimal;
+}
+
+interface Candidate {
+	plan: CheckPlan;
+	limit: NormLimit;
+	x: Decimal;
+	el: Decimal;
+	criticalDiameter: Decimal;
+	distance: Decimal | null;
+	linear: Decimal | null;
+	unbounded: boolean;
+}
+
+export interface DistanceOutcome {
+	result: NohdResult;
+	deciding: Candidate | null;
+}
+
+/** D_c = √(4·X/(π·EL)). */
+export function criticalDiameter(x: Decimal, el: Decimal): Decimal {
+	return FOUR.times(x).div(PI.times(el)).sqrt();
+}
+
+export function hazardDistance(line: NormLine, limits: NormLimit[], exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, used: Set<NormLimit>, place: string): DistanceOutcome {
+	const plans = planChecks(line, exposureDuration, 'nohd.exposureDuration');
+	const candidates: Candidate[] = [];
+	const withoutLimit: CheckKind[] = [];
+	const missing = new Set<string>();
+	for (const plan of plans) {
+		const t = plan.duration;
+		if (t === null) {
+			for (const m of plan.missing) missing.add(m);
+			continue;
+		}
+		const applicable = applicableLimits(limits, { tissue: 'eye', wavelength: line.wavelength, basis: plan.basis, duration: t, needsTrainExponent: plan.needsTrainExponent });
+		if (applicable.length === 0) {
+			if (!plan.optional) withoutLimit.push(plan.kind);
+			continue;
+		}
+		if (plan.missing.length > 0) {
+			for (const m of plan.missing) missing.add(m);
+			continue;
+		}
+		const x = beam.transmission.times(plan.source);
+		for (const limit of applicable) {
+			const el = limitForPlan(limit, plan, t, null, '').natural;
+			const dc = criticalDiameter(x, el);
+			const threshold = beam.waist.gte(limit.limitingAperture) ? beam.waist : limit.limitingAperture;
+			let distance: Decimal | null = ZERO;
+			let linear: Decimal | null = ZERO;
+			let unbounded = false;
+			if (dc.gt(threshold)) {
+				if (beam.divergence.isZero()) {
+					distance = null;
+					linear = null;
+					unbounded = true;
+				} else {
+					distance = dc.times(dc).minus(beam.waist.times(beam.waist)).sqrt().div(beam.divergence);
+					linear = dc.minus(beam.waist).div(beam.divergence);
+				}
+			}
+			candidates.push({ plan, limit, x, el, criticalDiameter: dc, distance, linear, unbounded });
+		}
+	}
+	for (const c of candidates) used.add(c.limit);
+
+	const written: NohdCandidate[] = candidates.map((c) => ({
+		check: c.plan.kind,
+		limit: limitRef(c.limit),
+		criticalDiameter: fmt(c.criticalDiameter),
+		distance: fmtOrNull(c.distance),
+		linearFormDistance: fmtOrNull(c.linear),
+		unbounded: c.unbounded
+	}));
+	const base = {
+		exposureDuration: fmtOrNull(exposureDuration),
+		checksWithoutLimit: withoutLimit,
+		candidates: written
+	};
+	if (missing.size > 0) {
+		return {
+			deciding: null,
+			result: { ...base, status: 'incomplete', unbounded: false, distance: null, linearFormDistance: null, decidingLimit: null, decidingCheck: null, reason: `Needs ${[...missing].join(', ')}: the exposure duration assumed for the NOHD.` }
+		};
+	}
+	if (candidates.length === 0) {
+		return {
+			deciding: null,
+			result: { ...base, status: 'no_applicable_limit', unbounded: false, distance: null, linearFormDistance: null, decidingLimit: null, decidingCheck: null, reason: `No entered eye limit applies at λ = ${fmt(line.wavelength)} m for the assumed durations; no NOHD can be given. Not shown as safe.` }
+		};
+	}
+	let deciding = candidates[0];
+	for (const c of candidates) {
+		if (deciding.unbounded) break;
+		if (c.unbounded || c.distance!.gt(deciding.distance!)) deciding = c;
+	}
+	const partial = withoutLimit.length > 0 ? ` No eye limit for the ${withoutLimit.map((k) => k.replace('_', ' ')).join(', ')} check: the distance may be understated.` : '';
+	const dcInputs = [[deciding.plan.pointSymbol, deciding.x, deciding.plan.sourceUnit], ['EL', deciding.el, MEASURE_UNIT[deciding.plan.measure]]] as const;
+	if (w.enabled) {
+		limitForPlan(deciding.limit, deciding.plan, deciding.plan.duration!, w, `${prefix}.limit`);
+		if (deciding.plan.measure !== deciding.limit.quantity) {
+			const t = deciding.plan.duration!;
+			w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', limitForPlan(deciding.limit, deciding.plan, t, null, '').value, MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, t, 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
+		}
+		w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, deciding.criticalDiameter, 'm');
+	}
+	if (deciding.unbounded) {
+		return {
+			deciding,
+			result: { ...base, status: 'unbounded', unbounded: true, distance: null, linearFormDistance: null, decidingLimit: limitRef(deciding.limit), decidingCheck: deciding.plan.kind, reason: `The beam ${place} does not spread (divergence 0) and exceeds “${deciding.limit.label}”: the NOHD is unbounded.${partial}` }
+		};
+	}
+	if (w.enabled) {
+		const dc = deciding.criticalDiameter;
+		if (deciding.distance!.isZero()) {
+			w.add(`${prefix}.distance`, 'Hazard distance', `0 when D_c ≤ max(${beam.waistSymbol}, D_f)`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['D_f', deciding.limit.limitingAperture, 'm']], ZERO, 'm');
+		} else {
+			w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], deciding.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${fmt(deciding.linear!)} m.`);
+		}
+	}
+	return {
+		deciding,
+		result: {
+			...base,
+			status: 'finite',
+			unbounded: false,
+			distance: fmt(deciding.distance!),
+			linearFormDistance: fmt(deciding.linear!),
+			decidingLimit: limitRef(deciding.limit),
+			decidingCheck: deciding.plan.kind,
+			reason: (deciding.distance!.isZero() ? `The beam ${place} is below the most restrictive eye limit at every distance.` : `Beyond ${fmt(deciding.distance!.toSignificantDigits(4))} m ${place === 'at the aperture' ? 'from the aperture' : 'from the focus'} the beam is below “${deciding.limit.label}”.`) + partial
+		}
+	};
+}

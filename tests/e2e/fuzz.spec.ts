@@ -1,0 +1,33 @@
+// Fuzzing the JSON API with fast-check: whatever the body, only 2xx/4xx, never a 5xx, and no row
+// written from invalid input.
+import fc from 'fast-check';
+import { expect, test } from '@playwright/test';
+import { demo, signedInClient } from './helpers';
+
+test('POST /api/admin/users and PATCH /api/admin/users/[userId] never answer 5xx', async () => {
+	const admin = await signedInClient(demo('admin'));
+	const count = async () => ((await (await admin.get('/api/admin/users')).json()) as { users: unknown[] }).users.length;
+	const before = await count();
+	const list = (await (await admin.get('/api/admin/users')).json()) as { users: { id: string; email: string }[] };
+	const target = list.users.find((u) => u.email === demo('researcher').email)!.id;
+	const body = fc.oneof(
+		fc.anything(),
+		fc.record({ name: fc.anything(), email: fc.anything(), role: fc.anything(), labIds: fc.anything(), password: fc.anything() }, { requiredKeys: [] }),
+		fc.string({ maxLength: 5000 }),
+		fc.constant('x'.repeat(200_000))
+	);
+	await fc.assert(
+		fc.asyncProperty(body, fc.boolean(), async (data, raw) => {
+			const payload = raw && typeof data === 'string' ? data : JSON.stringify(data) ?? 'null';
+			for (const res of [
+				await admin.post('/api/admin/users', { data: payload, headers: { 'content-type': 'application/json' } }),
+				await admin.patch(`/api/admin/users/${target}`, { data: payload, headers: { 'content-type': 'application/json' } })
+			]) {
+				expect(res.status(), payload.slice(0, 200)).toBeLessThan(500);
+				if (res.status() >= 400) expect(typeof (await res.json()).message).toBe('string');
+			}
+		}),
+		{ numRuns: 150 }
+	);
+	expect(await count()).toBe(before);
+});

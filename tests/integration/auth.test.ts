@@ -1,0 +1,176 @@
+import { createHash } from 'node:crypto';
+import { eq, sql } from 'drizzle-orm';
+import { describe, expect, it } from 'vitest';
+import { db } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import { hashPassword, passwordProblem, verifyPassword } from '$lib/server/auth/password';
+import * as auth from '$lib/server/auth/session';
+import * as users from '$lib/server/users';
+import { makeLab, makeUser } from './factories';
+
+describe('password storage [ASVS 11.4.2, 6.2.x]', () => {
+	it('stores only an Argon2id hash with m ≥ 19456 KiB, t ≥ 2, p = 1', async () => {
+		const u = await makeUser();
+		const [row] = await db.select().from(table.user).where(eq(table.user.id, u.id));
+		expect(row.passwordHash).not.toContain(u.password);
+		// PHC string format: $argon2id$v=19$m=…,t=…,p=…$salt$hash
+		const m = /^\$argon2id\$v=19\$m=(\d+),t=(\d+),p=(\d+)\$[A-Za-z0-9+/]+\$[A-Za-z0-9+/]+$/.exec(row.passwordHash);
+		expect(m, row.passwordHash.slice(0, 30)).not.toBeNull();
+		expect(Number(m![1])).toBeGreaterThanOrEqual(19456);
+		expect(Number(m![2])).toBeGreaterThanOrEqual(2);
+		expect(Number(m![3])).toBe(1);
+	});
+
+	it('does not truncate long passwords and accepts any Unicode', async () => {
+		const long = 'ü'.repeat(100) + 'Ωmega passphrase 🛡️ ' + 'x'.repeat(80);
+		const hash = await hashPassword(long);
+		expect(await verifyPassword(hash, long)).toBe(true);
+		expect(await verifyPassword(hash, long.slice(0, 72))).toBe(false);
+		expect(passwordProblem(long)).toBeNull();
+		expect(passwordProblem('日本語のとても長いパスフレーズです')).toBeNull();
+	});
+
+	it('refuses short, common and product-name passwords, without composition rules', () => {
+		expect(passwordProblem('short')).toMatch(/at least 12/);
+		expect(passwordProblem('1qaz2wsx3edc')).toMatch(/common/); // in the common-password list shipped with @zxcvbn-ts/language-common
+		expect(passwordProblem('qwerty123456')).toMatch(/common/);
+		expect(passwordProblem('my beamwarden login')).toMatch(/product name/);
+		expect(passwordProblem('aaaaaaaaaaaaaaaa')).toMatch(/repeats/);
+		expect(passwordProblem('lowercase words only here')).toBeNull();
+	});
+});
+
+describe('sessions [ASVS 7.2.x, 7.3.x, 7.4.x]', () => {
+	it('uses a random token of at least 128 bits and stores only its SHA-256', async () => {
+		const u = await makeUser();
+		const s = await auth.createSession(u.id);
+		// lucia's ids are base32 (5 bits per character)
+		expect(s.id.length * 5).toBeGreaterThanOrEqual(128);
+		const rows = await db.select().from(table.session).where(eq(table.session.userId, u.id));
+		expect(rows).toHaveLength(1);
+		expect(rows[0].id).not.toBe(s.id);
+		expect(rows[0].id).toBe(createHash('sha256').update(s.id).digest('hex'));
+		const v = await auth.validateSessionToken(s.id);
+		expect(v.user?.id).toBe(u.id);
+		expect(v.user).not.toHaveProperty('passwordHash');
+		// the stored hash itself is not a usable token
+		expect((await auth.validateSessionToken(rows[0].id)).session).toBeNull();
+	});
+
+	it('sign-out invalidates the session server-side', async () => {
+		const u = await makeUser();
+		const s = await auth.createSession(u.id);
+		await auth.invalidateSession(s.id);
+		expect((await auth.validateSessionToken(s.id)).session).toBeNull();
+		expect(await db.select().from(table.session).where(eq(table.session.userId, u.id))).toHaveLength(0);
+	});
+
+	it('ends an idle session and one past the absolute timeout', async () => {
+		const u = await makeUser();
+		const idle = await auth.createSession(u.id);
+		await db.update(table.session).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(table.session.id, auth.hashToken(idle.id)));
+		expect((await auth.validateSessionToken(idle.id)).session).toBeNull();
+
+		const old = await auth.createSession(u.id);
+		const signedInLongAgo = new Date(Date.now() - auth.ABSOLUTE_TIMEOUT_MS - 60_000);
+		await db.update(table.session).set({ createdAt: signedInLongAgo }).where(eq(table.session.id, auth.hashToken(old.id)));
+		expect((await auth.validateSessionToken(old.id)).session).toBeNull();
+		expect(await db.select().from(table.session).where(eq(table.session.id, auth.hashToken(old.id)))).toHaveLength(0);
+	});
+
+	it('ends every session of a person whose role changes, who is disabled, or whose password changes', async () => {
+		const admin = await makeUser('admin');
+		const u = await makeUser('researcher');
+		const s1 = await auth.createSession(u.id);
+		const before = (await users.find(u.id))!;
+		expect((await users.update(admin.id, u.id, { role: 'officer', labIds: [], disabled: false, version: before.version })).ok).toBe(true);
+		expect((await auth.validateSessionToken(s1.id)).session).toBeNull();
+
+		const s2 = await auth.createSession(u.id);
+		const now = (await users.find(u.id))!;
+		await users.update(admin.id, u.id, { role: 'officer', labIds: [], disabled: true, version: now.version });
+		expect((await auth.validateSessionToken(s2.id)).session).toBeNull();
+
+		const v = await makeUser('manager');
+		const s3 = await auth.createSession(v.id);
+		await users.setPassword(admin.id, v.id, 'a brand new long passphrase');
+		expect((await auth.validateSessionToken(s3.id)).session).toBeNull();
+	});
+});
+
+describe('sign-in throttling [ASVS 6.3.1]', () => {
+	it('locks an account at one address after repeated failures, while its owner signs in from elsewhere', async () => {
+		const u = await makeUser();
+		const attacker = '203.0.113.7'; // documentation address range (RFC 5737)
+		for (let i = 0; i < 5; i++) expect(await users.authenticate(u.email, 'wrong guess number ' + i, attacker)).toEqual({ ok: false, reason: 'invalid' });
+		const locked = await users.authenticate(u.email, u.password, attacker);
+		expect(locked.ok).toBe(false);
+		expect(locked).toMatchObject({ reason: 'throttled' });
+		const owner = await users.authenticate(u.email, u.password, '198.51.100.20');
+		expect(owner).toEqual({ ok: true, userId: u.id });
+	});
+
+	it('answers an unknown account exactly like a wrong password', async () => {
+		const u = await makeUser();
+		const unknown = await users.authenticate('nobody-here@test.example', 'whatever password', '192.0.2.1');
+		const wrong = await users.authenticate(u.email, 'not the password', '192.0.2.2');
+		expect(unknown).toEqual(wrong);
+	});
+
+	it('keeps the counters in PostgreSQL, where every app instance sees them', async () => {
+		const u = await makeUser();
+		await users.authenticate(u.email, 'nope nope nope', '192.0.2.9');
+		const rows = await db.select().from(table.signInThrottle).where(sql`${table.signInThrottle.key} LIKE ${'%' + u.email + '%'}`);
+		expect(rows.map((r) => r.key.split(':')[0]).sort()).toEqual(['account', 'pair']);
+	});
+});
+
+describe('people, labs and the audit log', () => {
+	it('refuses a stale save with 409 and keeps the first one', async () => {
+		const admin = await makeUser('admin');
+		const u = await makeUser();
+		const { version } = (await users.find(u.id))!;
+		expect((await users.update(admin.id, u.id, { role: 'manager', labIds: [], disabled: false, version })).ok).toBe(true);
+		const stale = await users.update(admin.id, u.id, { role: 'officer', labIds: [], disabled: false, version });
+		expect(stale).toMatchObject({ ok: false, status: 409 });
+		expect((await users.find(u.id))!.role).toBe('manager');
+	});
+
+	it('writes nothing when part of the input is bad', async () => {
+		const before = await db.$count(table.user);
+		const r = await users.create(null, {
+			name: 'Half Saved',
+			email: 'half-saved@test.example',
+			role: 'researcher',
+			labIds: ['00000000-0000-4000-8000-000000000000'],
+			password: 'a perfectly fine passphrase'
+		});
+		expect(r).toMatchObject({ ok: false, status: 400 });
+		expect(await db.$count(table.user)).toBe(before);
+	});
+
+	it('records who changed what, before and after', async () => {
+		const admin = await makeUser('admin');
+		const lab = await makeLab();
+		const u = await makeUser();
+		const { version } = (await users.find(u.id))!;
+		await users.update(admin.id, u.id, { role: 'researcher', labIds: [lab.id], disabled: false, version });
+		const [entry] = await db.select().from(table.auditLog).where(sql`${table.auditLog.entityId} = ${u.id} AND ${table.auditLog.action} = 'user.update'`);
+		expect(entry.actorId).toBe(admin.id);
+		expect(entry.before).toMatchObject({ labIds: [] });
+		expect(entry.after).toMatchObject({ labIds: [lab.id] });
+	});
+
+	it('keeps the audit log append-only for the app’s database role', async () => {
+		const u = await makeUser();
+		const denied = (q: Promise<unknown>) =>
+			q.then(
+				() => 'allowed',
+				(e: { cause?: { code?: string } }) => e.cause?.code // 42501 = insufficient_privilege
+			);
+		expect(await denied(db.execute(sql`UPDATE audit_log SET action = 'tampered' WHERE entity_id = ${u.id}`))).toBe('42501');
+		expect(await denied(db.execute(sql`DELETE FROM audit_log WHERE entity_id = ${u.id}`))).toBe('42501');
+		expect(await denied(db.execute(sql`TRUNCATE audit_log`))).toBe('42501');
+		expect(await db.$count(table.auditLog, eq(table.auditLog.entityId, u.id))).toBe(1);
+	});
+});
