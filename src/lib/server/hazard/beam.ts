@@ -19,6 +19,7 @@
  */
 import type Decimal from 'decimal.js';
 import { SQRT2, SQRT_LN2 } from './constants';
+import { sqrt } from './fastmath';
 import type { BeamDefinition } from './types';
 
 /** Converts a diameter or full-angle divergence given in `definition` to the 1/e basis. */
@@ -60,11 +61,11 @@ export interface BeamState {
 
 export function diameterAt(state: BeamState, z: Decimal): Decimal {
 	const spread = state.divergence.times(z.minus(state.waistPosition));
-	return state.waistDiameter.times(state.waistDiameter).plus(spread.times(spread)).sqrt();
+	return sqrt(state.waistDiameter.times(state.waistDiameter).plus(spread.times(spread)));
 }
 
 /** D(r) = √(D₀² + (r·φ)²). */
 export function propagatedDiameter(d0: Decimal, divergence: Decimal, distance: Decimal): Decimal {
 	const spread = divergence.times(distance);
-	return d0.times(d0).plus(spread.times(spread)).sqrt();
+	return sqrt(d0.times(d0).plus(spread.times(spread)));
 }

@@ -23,18 +23,6 @@ export const Dec = Decimal.clone({
 });
 export type Dec = Decimal;
 
-/**
- * A cheaper clone for transcendental functions whose result is only reported (logarithm for the
- * optical density) and never fed back into further arithmetic: 24 digits is still twice the
- * reported 12.
- */
-export const DecReport = Decimal.clone({
-	precision: 24,
-	rounding: Decimal.ROUND_HALF_EVEN,
-	toExpNeg: -7,
-	toExpPos: 15
-});
-
 // Exact defining constants of the SI (2019 redefinition).
 /** Planck constant h, J·s (exact). */
 export const PLANCK_CONSTANT = new Dec('6.62607015e-34');

@@ -4,7 +4,8 @@
  * a whole number (common practice: eyewear is specified by the next whole OD).
  */
 import Decimal from 'decimal.js';
-import { Dec, DecReport, ONE, TEN, ZERO } from './constants';
+import { ONE, TEN, ZERO } from './constants';
+import { log10 } from './fastmath';
 import { fmt } from './format';
 import type { OpticalDensity } from './types';
 
@@ -16,8 +17,7 @@ export interface OdValue {
 
 export function requiredOpticalDensity(ratio: Decimal): OdValue {
 	if (ratio.lte(ONE)) return { value: ZERO, roundedUpTenth: ZERO, roundedUpWhole: ZERO };
-	// log₁₀ on the 24-digit clone; the result is only reported.
-	const value = new Dec(DecReport.log10(ratio));
+	const value = log10(ratio);
 	// Round away digits below 1e-12 before rounding up, so that arithmetic noise on an exact power of
 	// ten cannot add a whole OD.
 	const settled = value.toDecimalPlaces(12, Decimal.ROUND_HALF_EVEN);

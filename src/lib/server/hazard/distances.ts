@@ -21,6 +21,7 @@
 import type Decimal from 'decimal.js';
 import { FOUR, PI, ZERO } from './constants';
 import type { Working } from './breakdown';
+import { sqrt } from './fastmath';
 import { planChecks, limitForPlan, MEASURE_UNIT, type CheckPlan } from './exposure';
 import { fmt, fmtOrNull } from './format';
 import { applicableLimits, limitRef } from './limits';
@@ -54,7 +55,7 @@ export interface DistanceOutcome {
 
 /** D_c = √(4·X/(π·EL)). */
 export function criticalDiameter(x: Decimal, el: Decimal): Decimal {
-	return FOUR.times(x).div(PI.times(el)).sqrt();
+	return sqrt(FOUR.times(x).div(PI.times(el)));
 }
 
 export function hazardDistance(line: NormLine, limits: NormLimit[], exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, used: Set<NormLimit>, place: string): DistanceOutcome {
@@ -91,7 +92,7 @@ export function hazardDistance(line: NormLine, limits: NormLimit[], exposureDura
 					linear = null;
 					unbounded = true;
 				} else {
-					distance = dc.times(dc).minus(beam.waist.times(beam.waist)).sqrt().div(beam.divergence);
+					distance = sqrt(dc.times(dc).minus(beam.waist.times(beam.waist))).div(beam.divergence);
 					linear = dc.minus(beam.waist).div(beam.divergence);
 				}
 			}

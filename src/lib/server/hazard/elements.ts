@@ -28,6 +28,7 @@
 import type Decimal from 'decimal.js';
 import { ONE, PI, TWO, ZERO } from './constants';
 import { diameterAt, type BeamState } from './beam';
+import { asin } from './fastmath';
 import type { NormElement, NormLine } from './validate';
 
 /** The beam as it is from one position onwards, until the next zero-length element acts. */
@@ -138,7 +139,7 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
 				break;
 			}
 			case 'fibre': {
-				const divergence = TWO.times(e.numericalAperture.asin());
+				const divergence = TWO.times(asin(e.numericalAperture));
 				replace(e.index, { waistDiameter: e.coreDiameter, waistPosition: z, divergence }, { symbol: `T${subscript(e.index)}`, value: e.factor });
 				break;
 			}

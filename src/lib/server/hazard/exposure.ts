@@ -24,11 +24,12 @@
 import type Decimal from 'decimal.js';
 import { PI, PI_OVER_4, ONE } from './constants';
 import { diameterAt } from './beam';
+import { cosAcute, sqrt } from './fastmath';
 import { Working, type StepInput } from './breakdown';
 import { requiredOpticalDensity, writeOd } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
 import { fmt, fmtOrNull } from './format';
-import { applicableLimits, limitRef, limitValueAt, powPositive } from './limits';
+import { applicableLimits, limitRef, limitValueAt, memoPow } from './limits';
 import type { NormLimit, NormLine, NormPoint } from './validate';
 import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Verdict } from './types';
 
@@ -104,7 +105,7 @@ export function limitForPlan(limit: NormLimit, plan: CheckPlan, t: Decimal, w: W
 	let trainFactor: Decimal | null = null;
 	const unit = MEASURE_UNIT[limit.quantity];
 	if (plan.needsTrainExponent && plan.pulseCount && limit.pulseTrainExponent) {
-		trainFactor = powPositive(plan.pulseCount, limit.pulseTrainExponent);
+		trainFactor = memoPow(plan.pulseCount, limit.pulseTrainExponent);
 		value = base.times(trainFactor);
 		w?.add(stepId, `Limit “${limit.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, ''], ['N', plan.pulseCount, ''], ['x', limit.pulseTrainExponent, '']], value, unit, limit.citation);
 	} else {
@@ -176,7 +177,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	let geometry: Decimal | null = null;
 	let cosTheta: Decimal | null = null;
 	if (diffuse && missingPoint.length === 0) {
-		cosTheta = point.viewingAngle.cos();
+		cosTheta = cosAcute(point.viewingAngle);
 		geometry = point.reflectance!.times(cosTheta).div(PI.times(point.viewingDistance!).times(point.viewingDistance!));
 	}
 
@@ -305,7 +306,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 			if (geometry) {
 				// r_h = √(ρ·X·cosθ/(π·EL)) with EL in the plan's measure.
-				const r = geometry.times(point.viewingDistance!).times(point.viewingDistance!).times(x).div(lim.natural).sqrt();
+				const r = sqrt(geometry.times(point.viewingDistance!).times(point.viewingDistance!).times(x).div(lim.natural));
 				if (!diffuseDistance || r.gt(diffuseDistance.r)) {
 					diffuseDistance = { r, limit, check: plan.kind, natural: lim.natural, inputs: [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['EL', lim.natural, natUnit]] };
 				}

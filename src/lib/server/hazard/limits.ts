@@ -4,6 +4,7 @@
  */
 import type Decimal from 'decimal.js';
 import { ONE } from './constants';
+import { sqrt } from './fastmath';
 import type { NormLimit } from './validate';
 import type { LimitQuantity, LimitRef, PulseBasis, Tissue } from './types';
 
@@ -21,8 +22,8 @@ export function powPositive(x: Decimal, y: Decimal): Decimal {
 		const rest = q - whole * 4; // −3 … 3
 		let result = whole === 0 ? ONE : x.pow(whole);
 		if (rest !== 0) {
-			const r2 = x.sqrt();
-			const part = Math.abs(rest) === 2 ? r2 : Math.abs(rest) === 1 ? r2.sqrt() : r2.times(r2.sqrt());
+			const r2 = sqrt(x);
+			const part = Math.abs(rest) === 2 ? r2 : Math.abs(rest) === 1 ? sqrt(r2) : r2.times(sqrt(r2));
 			result = rest > 0 ? result.times(part) : result.div(part);
 		}
 		return result;
@@ -30,11 +31,28 @@ export function powPositive(x: Decimal, y: Decimal): Decimal {
 	return x.pow(y);
 }
 
+// tⁿ depends only on t and n, and a register uses few durations and few exponents: memoised by
+// value across assessments (a pure function, so sharing is safe), with a bounded size.
+const powers = new Map<string, Decimal>();
+const POWERS_MAX = 20000;
+
+export function memoPow(t: Decimal, n: Decimal): Decimal {
+	if (n.isZero()) return ONE;
+	const key = `${n.toString()}|${t.toString()}`;
+	let v = powers.get(key);
+	if (v === undefined) {
+		if (powers.size >= POWERS_MAX) powers.clear();
+		v = powPositive(t, n);
+		powers.set(key, v);
+	}
+	return v;
+}
+
 /** Limit value k·tⁿ at duration t (W/m² or J/m² according to the limit's quantity). */
 export function limitValueAt(limit: NormLimit, t: Decimal): Decimal {
 	const hit = limit.memo.get(t);
 	if (hit) return hit;
-	const v = limit.k.times(powPositive(t, limit.n));
+	const v = limit.k.times(memoPow(t, limit.n));
 	limit.memo.set(t, v);
 	return v;
 }
