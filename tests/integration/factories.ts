@@ -18,3 +18,104 @@ export async function makeUser(role: Role = 'researcher', labIds: string[] = [])
 	if (!result.ok) throw new Error(`factory failed: ${result.message}`);
 	return { id: result.id, email, password: strongPassword, role };
 }
+
+import * as lasers from '$lib/server/lasers';
+import * as limits from '$lib/server/limits';
+import { scopeOf } from '$lib/server/auth/scope';
+import type { LimitForm } from '$lib/schemas/limits';
+import type { NewLaserForm, PathForm } from '$lib/schemas/register';
+
+export async function scopeFor(u: { id: string; email: string; role: Role }) {
+	return scopeOf({ id: u.id, email: u.email, name: 'Test', role: u.role, disabled: false });
+}
+
+export function laserForm(labId: string, overrides: Partial<NewLaserForm['line']> = {}): NewLaserForm {
+	return {
+		labId,
+		maker: 'Test Optics',
+		model: 'Green CW 5',
+		serial: `SN-${randomUUID().slice(0, 6)}`,
+		laserClass: '4',
+		status: 'active',
+		notes: '',
+		line: {
+			label: 'main',
+			mode: 'continuous',
+			wavelength: '532 nm',
+			wavelengthMax: '',
+			power: '5 W',
+			pulseEnergy: '',
+			pulseDuration: '',
+			repetitionRate: '',
+			beamDiameter: '2 mm',
+			beamDiameterDefinition: '1/e2',
+			divergence: '1 mrad',
+			divergenceDefinition: '1/e2',
+			beamQuality: '',
+			...overrides
+		}
+	};
+}
+
+const element = (kind: PathForm['elements'][number]['kind'], values: Partial<PathForm['elements'][number]>) => ({
+	kind,
+	label: '',
+	length: '',
+	transmission: '',
+	reflectance: '',
+	magnification: '',
+	focalLength: '',
+	coreDiameter: '',
+	numericalAperture: '',
+	couplingTransmission: '',
+	...values
+});
+
+/** A path with a splitter and a lens, and two points of concern. */
+export function pathForm(lineId: string, overrides: Partial<PathForm> = {}): PathForm {
+	return {
+		lineId,
+		name: 'Bench path A',
+		purpose: 'alignment',
+		nohdExposureDuration: '0.25 s',
+		elements: [
+			element('propagate', { length: '0.5 m' }),
+			element('transmission', { label: 'splitter, 10 % branch', transmission: '0.1' }),
+			element('propagate', { length: '0.3 m' }),
+			element('lens', { label: 'f = 100 mm', focalLength: '100 mm' }),
+			element('propagate', { length: '1 m' })
+		],
+		points: [
+			{ key: 'p1', label: 'Before the splitter', kind: 'intrabeam', tissue: 'eye', position: '0.4 m', exposureDuration: '0.25 s', reflectance: '', viewingAngle: '', viewingDistance: '' },
+			{ key: 'p2', label: 'Past the lens', kind: 'intrabeam', tissue: 'eye', position: '1.8 m', exposureDuration: '0.25 s', reflectance: '', viewingAngle: '', viewingDistance: '' }
+		],
+		version: 0,
+		...overrides
+	};
+}
+
+/** A visible-band eye limit for flow tests (a test fixture, not a value from any code). */
+export function limitForm(overrides: Partial<LimitForm> = {}): LimitForm {
+	return {
+		label: 'Test fixture: visible eye, short exposure',
+		tissue: 'eye',
+		wavelengthMin: '400 nm',
+		wavelengthMax: '700 nm',
+		durationMin: '1e-9 s',
+		durationMax: '10 s',
+		quantity: 'radiant_exposure',
+		k: '18 J/m²',
+		n: '0.75',
+		limitingAperture: '7 mm',
+		pulseBasis: 'continuous',
+		pulseTrainExponent: '',
+		citation: 'Test fixture',
+		demonstration: true,
+		validFrom: '',
+		validUntil: '',
+		version: 0,
+		...overrides
+	};
+}
+
+export { lasers, limits };

@@ -1,7 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import { setError, message, type SuperValidated } from 'sveltekit-superforms';
-
-type Failure = { status: 400 | 404 | 409; message: string; fields?: Record<string, string[]> };
+import type { Failure } from './failure';
 
 /** Turn a data module's failure into the form's per-field errors, with its 4xx status. */
 export function failForm<T extends Record<string, unknown>>(form: SuperValidated<T>, failure: Failure) {

@@ -5,6 +5,7 @@ import * as audit from '$lib/server/audit';
 import { burnVerification, hashPassword, passwordProblem, verifyPassword } from '$lib/server/auth/password';
 import * as throttle from '$lib/server/auth/throttle';
 import type { NewUserInput, UpdateUserInput } from '$lib/schemas/users';
+import type { Failure } from '$lib/server/failure';
 
 export type UserSummary = {
 	id: string;
@@ -16,7 +17,6 @@ export type UserSummary = {
 	labIds: string[];
 };
 
-type Failure = { ok: false; status: 400 | 404 | 409; message: string; fields?: Record<string, string[]> };
 
 const summaryColumns = {
 	id: table.user.id,

@@ -15,7 +15,7 @@ import { hazardDistance } from './distances';
 import { walkPath } from './elements';
 import { evaluatePoint, VERDICT_RANK } from './exposure';
 import { fmt, fmtOrNull, NonFiniteResultError } from './format';
-import { limitRef } from './limits';
+import { LimitIndex, limitRef } from './limits';
 import { joulesToElectronvolts, photonEnergy } from './photon';
 import { validate, type NormInput, type NormLimit } from './validate';
 import type { AssessmentInput, AssessmentOutcome, AssessmentResult, LensNohdResult, LineResult, PointResult, Verdict } from './types';
@@ -34,6 +34,7 @@ export function assess(input: AssessmentInput): AssessmentOutcome {
 
 function compute(input: NormInput): AssessmentResult {
 	const { line, limits } = input;
+	const index = new LimitIndex(limits, line.wavelength);
 	const w = new Working(input.breakdown);
 	const used = new Set<NormLimit>();
 
@@ -63,11 +64,11 @@ function compute(input: NormInput): AssessmentResult {
 	const path = walkPath(line, input.elements);
 
 	// NOHD at the aperture.
-	const nohd = hazardDistance(line, limits, input.nohdExposureDuration, { waist: line.d0, waistSymbol: 'D₀', divergence: line.divergence, transmission: ONE }, w, 'nohd', used, 'at the aperture');
+	const nohd = hazardDistance(line, index, input.nohdExposureDuration, { waist: line.d0, waistSymbol: 'D₀', divergence: line.divergence, transmission: ONE }, w, 'nohd', used, 'at the aperture');
 
 	// NOHD after each lens, from its focus.
 	const lensNohd: LensNohdResult[] = path.lenses.map((lens) => {
-		const out = hazardDistance(line, limits, input.nohdExposureDuration, { waist: lens.focalSpot, waistSymbol: 'd₀', divergence: lens.divergenceAfter, transmission: lens.transmission }, w, `lens${lens.index}.nohd`, used, `after the lens (element ${lens.index})`);
+		const out = hazardDistance(line, index, input.nohdExposureDuration, { waist: lens.focalSpot, waistSymbol: 'd₀', divergence: lens.divergenceAfter, transmission: lens.transmission }, w, `lens${lens.index}.nohd`, used, `after the lens (element ${lens.index})`);
 		if (w.enabled) {
 			w.add(`lens${lens.index}.focal-spot`, `Focal spot of the lens (element ${lens.index}), 1/e`, 'd₀ = 2·M²·λ·f / (π·D_lens)', [['M²', line.beamQuality, ''], ['λ', line.wavelength, 'm'], ['f', lens.focalLength, 'm'], ['D_lens', lens.lensDiameter, 'm']], lens.focalSpot, 'm', 'Gaussian 1/e² waist 4·M²·λ·f/(π·D_lens,1/e²) rewritten on the 1/e basis.');
 			w.add(`lens${lens.index}.divergence`, `Divergence after the focus (element ${lens.index})`, 'φ = D_lens / f', [['D_lens', lens.lensDiameter, 'm'], ['f', lens.focalLength, 'm']], lens.divergenceAfter, 'rad');
@@ -84,7 +85,7 @@ function compute(input: NormInput): AssessmentResult {
 	});
 
 	// Points.
-	const ctx = { line, limits, photonEnergy: ePh, breakdown: input.breakdown, used };
+	const ctx = { line, limits: index, photonEnergy: ePh, perPhoton: ONE.div(ePh), breakdown: input.breakdown, used };
 	const points: PointResult[] = [];
 	const ratios: (Decimal | null)[] = [];
 	for (const p of input.points) {

@@ -19,12 +19,14 @@
  * average power, pulse train) and the largest distance decides.
  */
 import type Decimal from 'decimal.js';
-import { FOUR, PI, ZERO } from './constants';
+import { FOUR, ONE, PI, ZERO } from './constants';
+
+const FOUR_OVER_PI = FOUR.div(PI);
 import type { Working } from './breakdown';
 import { sqrt } from './fastmath';
 import { planChecks, limitForPlan, MEASURE_UNIT, type CheckPlan } from './exposure';
 import { fmt, fmtOrNull } from './format';
-import { applicableLimits, limitRef } from './limits';
+import { limitReciprocal, limitRef, type LimitIndex } from './limits';
 import type { NormLimit, NormLine } from './validate';
 import type { CheckKind, NohdCandidate, NohdResult } from './types';
 
@@ -58,18 +60,20 @@ export function criticalDiameter(x: Decimal, el: Decimal): Decimal {
 	return sqrt(FOUR.times(x).div(PI.times(el)));
 }
 
-export function hazardDistance(line: NormLine, limits: NormLimit[], exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, used: Set<NormLimit>, place: string): DistanceOutcome {
+export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, used: Set<NormLimit>, place: string): DistanceOutcome {
 	const plans = planChecks(line, exposureDuration, 'nohd.exposureDuration');
 	const candidates: Candidate[] = [];
 	const withoutLimit: CheckKind[] = [];
 	const missing = new Set<string>();
+	const waist2 = beam.waist.times(beam.waist);
+	let perDivergence: Decimal | null = null;
 	for (const plan of plans) {
 		const t = plan.duration;
 		if (t === null) {
 			for (const m of plan.missing) missing.add(m);
 			continue;
 		}
-		const applicable = applicableLimits(limits, { tissue: 'eye', wavelength: line.wavelength, basis: plan.basis, duration: t, needsTrainExponent: plan.needsTrainExponent });
+		const applicable = limits.find('eye', plan.basis, t, plan.needsTrainExponent);
 		if (applicable.length === 0) {
 			if (!plan.optional) withoutLimit.push(plan.kind);
 			continue;
@@ -79,9 +83,13 @@ export function hazardDistance(line: NormLine, limits: NormLimit[], exposureDura
 			continue;
 		}
 		const x = beam.transmission.times(plan.source);
+		// D_c² = (4/π)·X/EL, formed with the limit's memoised reciprocal where no conversion intervenes.
+		const xScaled = FOUR_OVER_PI.times(x);
 		for (const limit of applicable) {
-			const el = limitForPlan(limit, plan, t, null, '').natural;
-			const dc = criticalDiameter(x, el);
+			const lim = limitForPlan(limit, plan, t, null, '');
+			const el = lim.natural;
+			const dc2 = el === lim.value && !lim.trainFactor ? xScaled.times(limitReciprocal(limit, t, el)) : xScaled.div(el);
+			const dc = sqrt(dc2);
 			const threshold = beam.waist.gte(limit.limitingAperture) ? beam.waist : limit.limitingAperture;
 			let distance: Decimal | null = ZERO;
 			let linear: Decimal | null = ZERO;
@@ -92,8 +100,9 @@ export function hazardDistance(line: NormLine, limits: NormLimit[], exposureDura
 					linear = null;
 					unbounded = true;
 				} else {
-					distance = sqrt(dc.times(dc).minus(beam.waist.times(beam.waist))).div(beam.divergence);
-					linear = dc.minus(beam.waist).div(beam.divergence);
+					perDivergence ??= ONE.div(beam.divergence);
+					distance = sqrt(dc2.minus(waist2)).times(perDivergence);
+					linear = dc.minus(beam.waist).times(perDivergence);
 				}
 			}
 			candidates.push({ plan, limit, x, el, criticalDiameter: dc, distance, linear, unbounded });

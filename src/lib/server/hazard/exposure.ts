@@ -29,7 +29,7 @@ import { Working, type StepInput } from './breakdown';
 import { requiredOpticalDensity, writeOd } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
 import { fmt, fmtOrNull } from './format';
-import { applicableLimits, limitRef, limitValueAt, memoPow } from './limits';
+import { limitReciprocal, limitRef, limitValueAt, memoPow, type LimitIndex } from './limits';
 import type { NormLimit, NormLine, NormPoint } from './validate';
 import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Verdict } from './types';
 
@@ -117,8 +117,10 @@ export function limitForPlan(limit: NormLimit, plan: CheckPlan, t: Decimal, w: W
 
 export interface PointContext {
 	line: NormLine;
-	limits: NormLimit[];
+	limits: LimitIndex;
 	photonEnergy: Decimal;
+	/** 1/E_ph, so that photon counts are products. */
+	perPhoton: Decimal;
 	breakdown: boolean;
 	used: Set<NormLimit>;
 }
@@ -183,15 +185,16 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 	// Unaveraged irradiance / radiant exposure at the point and photon quantities.
 	const beamArea = PI_OVER_4.times(D).times(D);
+	const perArea = ONE.div(beamArea);
 	let irradiance: Decimal | null = null;
 	let pulseH: Decimal | null = null;
 	if (!diffuse) {
 		if (powerAtPoint) {
-			irradiance = powerAtPoint.div(beamArea);
+			irradiance = powerAtPoint.times(perArea);
 			w.add('irradiance', 'Irradiance of the beam at the point (1/e, no aperture averaging)', 'E_beam = P / (π·D²/4)', [['P', powerAtPoint, 'W'], ['D', D, 'm']], irradiance, 'W/m²');
 		}
 		if (energyAtPoint) {
-			pulseH = energyAtPoint.div(beamArea);
+			pulseH = energyAtPoint.times(perArea);
 			w.add('pulse-exposure', 'Radiant exposure of one pulse at the point (1/e, no aperture averaging)', 'H_beam = Q / (π·D²/4)', [['Q', energyAtPoint, 'J'], ['D', D, 'm']], pulseH, 'J/m²');
 		}
 	} else if (geometry) {
@@ -208,11 +211,11 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	let photonFluxDensity: Decimal | null = null;
 	let photonFluence: Decimal | null = null;
 	if (irradiance) {
-		photonFluxDensity = irradiance.div(photonEnergy);
+		photonFluxDensity = irradiance.times(ctx.perPhoton);
 		w.add('photon-flux-density', 'Photon flux density at the point', 'Φ_A = E / E_ph', [['E', irradiance, 'W/m²'], ['E_ph', photonEnergy, 'J']], photonFluxDensity, 's⁻¹·m⁻²');
 	}
 	if (pulseH) {
-		photonFluence = pulseH.div(photonEnergy);
+		photonFluence = pulseH.times(ctx.perPhoton);
 		w.add('photon-fluence', 'Photons per pulse per area at the point', 'N_A = H / E_ph', [['H', pulseH, 'J/m²'], ['E_ph', photonEnergy, 'J']], photonFluence, 'm⁻²');
 	}
 
@@ -226,7 +229,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 	for (const plan of planChecks(line, T, `${at}.exposureDuration`)) {
 		const t = plan.duration;
-		const limits = t === null ? [] : applicableLimits(ctx.limits, { tissue: point.tissue, wavelength: line.wavelength, basis: plan.basis, duration: t, needsTrainExponent: plan.needsTrainExponent });
+		const limits = t === null ? [] : ctx.limits.find(point.tissue, plan.basis, t, plan.needsTrainExponent);
 		const missing = [...plan.missing, ...missingPoint];
 		// The optional pulse-train check is made only where a limit asks for it (τ is always known).
 		if (plan.optional && limits.length === 0) continue;
@@ -263,7 +266,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 				const df = limit.limitingAperture;
 				averaging = D.gte(df) ? D : df;
 				w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', df, 'm']], averaging, 'm');
-				if (averaging === D) exposureNat = atBeam ??= x.div(beamArea);
+				if (averaging === D) exposureNat = atBeam ??= x.times(perArea);
 				else exposureNat = x.div(PI_OVER_4.times(averaging).times(averaging));
 				w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, x, plan.sourceUnit], ['D_avg', averaging, 'm']], exposureNat, natUnit);
 			}
@@ -278,7 +281,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 				}
 			}
 			const lim = limitForPlan(limit, plan, t, w.enabled ? w : null, `${sid}.limit`);
-			const ratio = exposure.div(lim.value);
+			const ratio = lim.trainFactor ? exposure.div(lim.value) : exposure.times(limitReciprocal(limit, t, lim.value));
 			const q = MEASURE_SYMBOL[limit.quantity];
 			w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, MEASURE_UNIT[limit.quantity]], ['EL', lim.value, MEASURE_UNIT[limit.quantity]]], ratio, '');
 

@@ -12,15 +12,21 @@ export class NonFiniteResultError extends Error {
 	}
 }
 
-// The same decimal is often written several times (a step's value is the next step's input).
-const written = new WeakMap<Decimal, string>();
+// The same decimal is often written several times within a few lines (a step's value is the next
+// step's input). A small ring of the last written instances, compared by identity, catches those
+// repeats; a WeakMap costs more on a miss than the formatting it saves.
+const RING = 32;
+const ringKeys: (Decimal | null)[] = new Array(RING).fill(null);
+const ringValues: string[] = new Array(RING).fill('');
+let ringNext = 0;
 
 export function fmt(d: Decimal, what = 'the computation'): string {
-	const hit = written.get(d);
-	if (hit !== undefined) return hit;
+	for (let i = 0; i < RING; i++) if (ringKeys[i] === d) return ringValues[i];
 	if (!d.isFinite()) throw new NonFiniteResultError(what);
 	const s = d.toSignificantDigits(OUTPUT_SIGNIFICANT_DIGITS).toString();
-	written.set(d, s);
+	ringKeys[ringNext] = d;
+	ringValues[ringNext] = s;
+	ringNext = (ringNext + 1) % RING;
 	return s;
 }
 

@@ -57,6 +57,16 @@ export function limitValueAt(limit: NormLimit, t: Decimal): Decimal {
 	return v;
 }
 
+/** 1/(k·tⁿ), memoised beside the value: ratios are then products. */
+export function limitReciprocal(limit: NormLimit, t: Decimal, value: Decimal): Decimal {
+	let inv = limit.inverseMemo.get(t);
+	if (inv === undefined) {
+		inv = ONE.div(value);
+		limit.inverseMemo.set(t, inv);
+	}
+	return inv;
+}
+
 export interface LimitQuery {
 	tissue: Tissue;
 	wavelength: Decimal;
@@ -81,6 +91,36 @@ export function limitApplies(limit: NormLimit, q: LimitQuery): boolean {
 
 export function applicableLimits(limits: NormLimit[], q: LimitQuery): NormLimit[] {
 	return limits.filter((l) => limitApplies(l, q));
+}
+
+/**
+ * Applicable limits for one assessment (one wavelength), memoised by tissue, basis and duration
+ * instance: the points of a path share a handful of durations.
+ */
+export class LimitIndex {
+	private readonly memo = new Map<string, Map<Decimal, NormLimit[]>>();
+	private readonly atWavelength: NormLimit[];
+	constructor(
+		readonly all: NormLimit[],
+		readonly wavelength: Decimal
+	) {
+		this.atWavelength = all.filter((l) => l.wavelengthMin.lte(wavelength) && wavelength.lte(l.wavelengthMax));
+	}
+
+	find(tissue: Tissue, basis: PulseBasis, duration: Decimal, needsTrainExponent: boolean): NormLimit[] {
+		const key = `${tissue}|${basis}|${needsTrainExponent ? 1 : 0}`;
+		let byDuration = this.memo.get(key);
+		if (!byDuration) {
+			byDuration = new Map();
+			this.memo.set(key, byDuration);
+		}
+		let hit = byDuration.get(duration);
+		if (!hit) {
+			hit = this.atWavelength.filter((l) => limitApplies(l, { tissue, basis, duration, wavelength: this.wavelength, needsTrainExponent }));
+			byDuration.set(duration, hit);
+		}
+		return hit;
+	}
 }
 
 /**

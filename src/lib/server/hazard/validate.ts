@@ -88,8 +88,9 @@ export interface NormLimit {
 	limitingAperture: Decimal;
 	pulseBasis: PulseBasis;
 	pulseTrainExponent: Decimal | null;
-	/** Memo of k·tⁿ keyed by the duration instance. */
+	/** Memo of k·tⁿ and of its reciprocal, keyed by the (interned) duration instance. */
 	memo: Map<Decimal, Decimal>;
+	inverseMemo: Map<Decimal, Decimal>;
 }
 
 export interface NormInput {
@@ -307,7 +308,8 @@ function validateLimit(raw: unknown, i: number, errors: ErrorList): NormLimit | 
 		limitingAperture,
 		pulseBasis,
 		pulseTrainExponent,
-		memo: new Map()
+		memo: new Map(),
+		inverseMemo: new Map()
 	};
 }
 

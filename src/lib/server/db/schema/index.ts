@@ -1,3 +1,5 @@
 export * from './auth';
 export * from './labs';
 export * from './audit';
+export * from './register';
+export * from './limits';

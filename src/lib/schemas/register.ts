@@ -1,0 +1,265 @@
+// Forms of the register, shared by browser and server. Physical values are typed with their unit
+// ("5 W", "5000 mW", "532 nm") and kept as text in the form; toSI() turns them into SI decimal
+// strings for the engine and the database, naming the field when one does not parse.
+import { z } from 'zod';
+import { parseQuantity, type QuantityKind } from '$lib/units';
+
+export const laserClasses = ['1', '1M', '2', '2M', '3R', '3B', '4'] as const;
+export const laserStatuses = ['active', 'in_storage', 'retired'] as const;
+export const emissionModes = ['continuous', 'single_pulse', 'repetitive'] as const;
+export const beamDefinitions = ['1/e', '1/e2', 'fwhm'] as const;
+export const elementKinds = ['propagate', 'transmission', 'mirror', 'expander', 'lens', 'fibre', 'enclosure'] as const;
+export const tissues = ['eye', 'skin'] as const;
+export const pointKinds = ['intrabeam', 'diffuse'] as const;
+
+export type ElementKind = (typeof elementKinds)[number];
+
+/** A value with its unit, as typed. Empty is allowed here; whether it is required depends on the mode or kind. */
+function quantity(kind: QuantityKind, opts: { defaultUnit?: string } = {}) {
+	return z
+		.string()
+		.trim()
+		.max(64, 'That is too long for a number with its unit.')
+		.default('')
+		.superRefine((text, ctx) => {
+			if (text === '') return;
+			const parsed = parseQuantity(text, kind, opts);
+			if (!parsed.ok) ctx.addIssue({ code: 'custom', message: parsed.reason });
+		});
+}
+
+const plainNumber = z
+	.string()
+	.trim()
+	.max(32)
+	.default('')
+	.refine((t) => t === '' || /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t), 'Enter a plain number, like 0.5 or 2.');
+
+const requiredText = (what: string, max = 200) => z.string().trim().min(1, `Enter ${what}.`).max(max, `At most ${max} characters.`);
+
+export const lineFields = {
+	label: z.string().trim().max(120).default(''),
+	mode: z.enum(emissionModes, { error: 'Choose continuous, single pulse or repetitively pulsed.' }).default('continuous'),
+	wavelength: quantity('wavelength'),
+	wavelengthMax: quantity('wavelength'),
+	power: quantity('power'),
+	pulseEnergy: quantity('energy'),
+	pulseDuration: quantity('time'),
+	repetitionRate: quantity('frequency'),
+	beamDiameter: quantity('length', { defaultUnit: 'mm' }),
+	beamDiameterDefinition: z.enum(beamDefinitions).default('1/e2'),
+	divergence: quantity('angle', { defaultUnit: 'mrad' }),
+	divergenceDefinition: z.enum(beamDefinitions).default('1/e2'),
+	beamQuality: plainNumber
+};
+
+type LineForm = { [K in keyof typeof lineFields]: z.infer<(typeof lineFields)[K]> };
+
+/** Which line fields each emission mode needs. */
+export const lineFieldsByMode: Record<(typeof emissionModes)[number], (keyof LineForm)[]> = {
+	continuous: ['wavelength', 'power', 'beamDiameter', 'divergence'],
+	single_pulse: ['wavelength', 'pulseEnergy', 'pulseDuration', 'beamDiameter', 'divergence'],
+	repetitive: ['wavelength', 'pulseEnergy', 'pulseDuration', 'repetitionRate', 'beamDiameter', 'divergence']
+};
+
+function requireLineFields(line: LineForm, ctx: z.RefinementCtx, prefix: (string | number)[] = []) {
+	for (const f of lineFieldsByMode[line.mode])
+		if (line[f] === '') ctx.addIssue({ code: 'custom', path: [...prefix, f], message: 'Needed for this emission mode.' });
+}
+
+export const lineSchema = z
+	.object({ ...lineFields, version: z.coerce.number().int().nonnegative().default(0) })
+	.strict()
+	.superRefine((l, ctx) => requireLineFields(l, ctx));
+
+export const laserFields = {
+	labId: z.uuid({ error: 'Choose the lab.' }),
+	maker: requiredText('the maker', 120),
+	model: requiredText('the model', 120),
+	serial: z.string().trim().max(120).default(''),
+	laserClass: z.enum(laserClasses, { error: 'Choose the laser class.' }).default('4'),
+	status: z.enum(laserStatuses, { error: 'Choose a status.' }).default('active'),
+	notes: z.string().trim().max(2000).default('')
+};
+
+/** A new laser with its first emission line. */
+export const newLaserSchema = z
+	.object({ ...laserFields, line: z.object(lineFields).strict() })
+	.strict()
+	.superRefine((l, ctx) => requireLineFields(l.line, ctx, ['line']));
+
+export const editLaserSchema = z.object({ ...laserFields, version: z.coerce.number().int().positive() }).strict();
+
+export const elementFormSchema = z
+	.object({
+		kind: z.enum(elementKinds, { error: 'Choose an element kind.' }),
+		label: z.string().trim().max(120).default(''),
+		length: quantity('length', { defaultUnit: 'm' }),
+		transmission: plainNumber,
+		reflectance: plainNumber,
+		magnification: plainNumber,
+		focalLength: quantity('length', { defaultUnit: 'mm' }),
+		coreDiameter: quantity('length', { defaultUnit: 'µm' }),
+		numericalAperture: plainNumber,
+		couplingTransmission: plainNumber
+	})
+	.strict();
+
+export const pointFormSchema = z
+	.object({
+		key: z.string().trim().min(1).max(64),
+		label: requiredText('a name for the point', 120),
+		kind: z.enum(pointKinds, { error: 'Choose intrabeam or diffuse.' }).default('intrabeam'),
+		tissue: z.enum(tissues, { error: 'Choose eye or skin.' }).default('eye'),
+		position: quantity('length', { defaultUnit: 'm' }),
+		exposureDuration: quantity('time'),
+		reflectance: plainNumber,
+		viewingAngle: quantity('angle', { defaultUnit: '°' }),
+		viewingDistance: quantity('length', { defaultUnit: 'm' })
+	})
+	.strict();
+
+export const pathFormSchema = z
+	.object({
+		lineId: z.uuid({ error: 'Choose the emission line.' }),
+		name: requiredText('a name for the path', 160),
+		purpose: z.string().trim().max(2000).default(''),
+		nohdExposureDuration: quantity('time'),
+		elements: z.array(elementFormSchema).max(200, 'At most 200 elements.').default([]),
+		points: z.array(pointFormSchema).min(1, 'Mark at least one point where a person could be exposed.').max(100, 'At most 100 points.').default([]),
+		version: z.coerce.number().int().nonnegative().default(0)
+	})
+	.strict();
+
+export type ElementForm = z.infer<typeof elementFormSchema>;
+export type PointForm = z.infer<typeof pointFormSchema>;
+export type PathForm = z.infer<typeof pathFormSchema>;
+export type NewLaserForm = z.infer<typeof newLaserSchema>;
+
+/** The fields an element kind needs, with the unit kind each is read in (null = plain number). */
+export const elementFieldsByKind: Record<ElementKind, { field: keyof ElementForm; unit: QuantityKind | null; optional?: boolean; defaultUnit?: string }[]> = {
+	propagate: [{ field: 'length', unit: 'length', defaultUnit: 'm' }],
+	enclosure: [{ field: 'length', unit: 'length', defaultUnit: 'm' }],
+	transmission: [{ field: 'transmission', unit: null }],
+	mirror: [{ field: 'reflectance', unit: null, optional: true }],
+	expander: [{ field: 'magnification', unit: null }],
+	lens: [{ field: 'focalLength', unit: 'length', defaultUnit: 'mm' }],
+	fibre: [
+		{ field: 'coreDiameter', unit: 'length', defaultUnit: 'µm' },
+		{ field: 'numericalAperture', unit: null },
+		{ field: 'couplingTransmission', unit: null, optional: true }
+	]
+};
+
+export type FieldErrors = Record<string, string>;
+
+/** Text with a unit → SI decimal string; '' → null. Records a message under `path` when it does not parse. */
+export function toSI(text: string, kind: QuantityKind | null, path: string, errors: FieldErrors, defaultUnit?: string): string | null {
+	const t = text.trim();
+	if (t === '') return null;
+	if (kind === null) {
+		if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) {
+			errors[path] = 'Enter a plain number, like 0.5 or 2.';
+			return null;
+		}
+		return t;
+	}
+	const parsed = parseQuantity(t, kind, { defaultUnit });
+	if (!parsed.ok) {
+		errors[path] = parsed.reason;
+		return null;
+	}
+	return parsed.value.toString();
+}
+
+const lineUnits: Record<string, [QuantityKind | null, string?]> = {
+	wavelength: ['wavelength'],
+	wavelengthMax: ['wavelength'],
+	power: ['power'],
+	pulseEnergy: ['energy'],
+	pulseDuration: ['time'],
+	repetitionRate: ['frequency'],
+	beamDiameter: ['length', 'mm'],
+	divergence: ['angle', 'mrad'],
+	beamQuality: [null]
+};
+
+export type LineSI = {
+	label: string;
+	mode: (typeof emissionModes)[number];
+	beamDiameterDefinition: (typeof beamDefinitions)[number];
+	divergenceDefinition: (typeof beamDefinitions)[number];
+} & Record<'wavelength' | 'wavelengthMax' | 'power' | 'pulseEnergy' | 'pulseDuration' | 'repetitionRate' | 'beamDiameter' | 'divergence' | 'beamQuality', string | null>;
+
+/** A line form in SI, with only the fields its mode uses (the others are cleared). */
+export function lineToSI(line: LineForm, prefix = ''): { ok: true; value: LineSI } | { ok: false; errors: FieldErrors } {
+	const errors: FieldErrors = {};
+	const used = new Set<string>([...lineFieldsByMode[line.mode], 'wavelengthMax', 'beamQuality']);
+	const out: Record<string, string | null> = {};
+	for (const [field, [kind, defaultUnit]] of Object.entries(lineUnits)) {
+		const text = used.has(field) ? (line[field as keyof LineForm] as string) : '';
+		out[field] = toSI(text, kind, prefix + field, errors, defaultUnit);
+		if (used.has(field) && out[field] === null && lineFieldsByMode[line.mode].includes(field as keyof LineForm) && !errors[prefix + field])
+			errors[prefix + field] = 'Needed for this emission mode.';
+	}
+	if (Object.keys(errors).length) return { ok: false, errors };
+	return {
+		ok: true,
+		value: {
+			label: line.label,
+			mode: line.mode,
+			beamDiameterDefinition: line.beamDiameterDefinition,
+			divergenceDefinition: line.divergenceDefinition,
+			...(out as Omit<LineSI, 'label' | 'mode' | 'beamDiameterDefinition' | 'divergenceDefinition'>)
+		}
+	};
+}
+
+export type ElementSI = { kind: ElementKind; label: string } & Partial<Record<Exclude<keyof ElementForm, 'kind' | 'label'>, string | null>>;
+export type PointSI = {
+	key: string;
+	label: string;
+	kind: (typeof pointKinds)[number];
+	tissue: (typeof tissues)[number];
+	position: string | null;
+	exposureDuration: string | null;
+	reflectance: string | null;
+	viewingAngle: string | null;
+	viewingDistance: string | null;
+};
+
+/** Elements and points of a path form in SI. Errors are keyed like the form: 'elements.2.length'. */
+export function pathToSI(form: Pick<PathForm, 'elements' | 'points' | 'nohdExposureDuration'>):
+	| { ok: true; value: { elements: ElementSI[]; points: PointSI[]; nohdExposureDuration: string | null } }
+	| { ok: false; errors: FieldErrors } {
+	const errors: FieldErrors = {};
+	const elements = form.elements.map((e, i) => {
+		const out: ElementSI = { kind: e.kind, label: e.label };
+		for (const spec of elementFieldsByKind[e.kind]) {
+			const path = `elements.${i}.${spec.field}`;
+			const v = toSI(e[spec.field] as string, spec.unit, path, errors, spec.defaultUnit);
+			if (v === null && !spec.optional && !errors[path]) errors[path] = 'Needed for this element.';
+			(out as Record<string, unknown>)[spec.field] = v;
+		}
+		return out;
+	});
+	const points = form.points.map((p, i) => {
+		const at = (f: string) => `points.${i}.${f}`;
+		const point: PointSI = {
+			key: p.key,
+			label: p.label,
+			kind: p.kind,
+			tissue: p.tissue,
+			position: toSI(p.position, 'length', at('position'), errors, 'm'),
+			exposureDuration: toSI(p.exposureDuration, 'time', at('exposureDuration'), errors),
+			reflectance: p.kind === 'diffuse' ? toSI(p.reflectance, null, at('reflectance'), errors) : null,
+			viewingAngle: p.kind === 'diffuse' ? toSI(p.viewingAngle, 'angle', at('viewingAngle'), errors, '°') : null,
+			viewingDistance: p.kind === 'diffuse' ? toSI(p.viewingDistance, 'length', at('viewingDistance'), errors, 'm') : null
+		};
+		if (point.position === null && !errors[at('position')]) errors[at('position')] = 'Enter the distance along the path.';
+		return point;
+	});
+	const nohdExposureDuration = toSI(form.nohdExposureDuration, 'time', 'nohdExposureDuration', errors);
+	if (Object.keys(errors).length) return { ok: false, errors };
+	return { ok: true, value: { elements, points, nohdExposureDuration } };
+}

@@ -1,0 +1,76 @@
+// Exposure limits as the laser safety officer enters them from the local code. Never built in.
+// A limit keeps every version: an assessment names the versions it used, so a later edit makes it stale.
+import { boolean, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { user } from './auth';
+import { beamPath, tissueEnum, verdictEnum } from './register';
+
+export const limitQuantities = ['irradiance', 'radiant_exposure'] as const;
+export const limitQuantityEnum = pgEnum('limit_quantity', limitQuantities);
+export const pulseBases = ['single_pulse', 'continuous'] as const;
+export const pulseBasisEnum = pgEnum('pulse_basis', pulseBases);
+
+export const exposureLimit = pgTable('exposure_limit', {
+	id: uuid('id').primaryKey().defaultRandom(),
+	currentVersion: integer('current_version').notNull().default(1),
+	retired: boolean('retired').notNull().default(false),
+	createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+});
+
+export const exposureLimitVersion = pgTable(
+	'exposure_limit_version',
+	{
+		limitId: uuid('limit_id').notNull().references(() => exposureLimit.id),
+		version: integer('version').notNull(),
+		label: text('label').notNull(),
+		tissue: tissueEnum('tissue').notNull(),
+		wavelengthMin: numeric('wavelength_min').notNull(),
+		wavelengthMax: numeric('wavelength_max').notNull(),
+		durationMin: numeric('duration_min').notNull(),
+		durationMax: numeric('duration_max').notNull(),
+		quantity: limitQuantityEnum('quantity').notNull(),
+		k: numeric('k').notNull(),
+		n: numeric('n').notNull(),
+		limitingAperture: numeric('limiting_aperture').notNull(),
+		pulseBasis: pulseBasisEnum('pulse_basis').notNull(),
+		pulseTrainExponent: numeric('pulse_train_exponent'),
+		citation: text('citation').notNull(),
+		/** Demonstration values, to be replaced by the local code's. */
+		demonstration: boolean('demonstration').notNull().default(false),
+		validFrom: timestamp('valid_from', { withTimezone: true, mode: 'date' }),
+		validUntil: timestamp('valid_until', { withTimezone: true, mode: 'date' }),
+		/** How many beam paths this version made stale when it was saved. */
+		staleMarked: integer('stale_marked').notNull().default(0),
+		createdBy: text('created_by').references(() => user.id),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [primaryKey({ columns: [t.limitId, t.version] }), index('limit_version_tissue_idx').on(t.tissue)]
+);
+
+/** An assessment snapshot: what the engine said about a path, from which inputs and limit versions. */
+export const assessment = pgTable(
+	'assessment',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		pathId: uuid('path_id').notNull().references(() => beamPath.id),
+		pathVersion: integer('path_version').notNull(),
+		engineVersion: text('engine_version').notNull(),
+		inputs: jsonb('inputs').notNull(),
+		result: jsonb('result').notNull(),
+		verdict: verdictEnum('verdict').notNull(),
+		worstRatio: numeric('worst_ratio'),
+		requiredOd: numeric('required_od'),
+		/** [{ id, version }] of every limit the engine was given. */
+		limitVersions: jsonb('limit_versions').$type<{ id: string; version: string }[]>().notNull(),
+		/** Why the snapshot was taken: 'save' by a person, 'reassess' after a limit changed. */
+		cause: text('cause').notNull().default('save'),
+		stale: boolean('stale').notNull().default(false),
+		staleReason: text('stale_reason'),
+		createdBy: text('created_by').references(() => user.id),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('assessment_path_idx').on(t.pathId, t.createdAt), index('assessment_stale_idx').on(t.stale)]
+);
+
+export type ExposureLimit = typeof exposureLimit.$inferSelect;
+export type ExposureLimitVersion = typeof exposureLimitVersion.$inferSelect;
+export type Assessment = typeof assessment.$inferSelect;

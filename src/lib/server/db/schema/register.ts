@@ -1,0 +1,172 @@
+// The register: laser controlled areas, lasers, emission lines, beam paths, path elements,
+// points of concern. Physical inputs are stored in SI units as PostgreSQL numeric (strings in TS).
+import { sql } from 'drizzle-orm';
+import { boolean, index, integer, numeric, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { user } from './auth';
+import { lab } from './labs';
+
+const created = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
+const updated = () => timestamp('updated_at', { withTimezone: true }).notNull().defaultNow();
+const si = (name: string) => numeric(name);
+
+export const laserClasses = ['1', '1M', '2', '2M', '3R', '3B', '4'] as const;
+export const laserClassEnum = pgEnum('laser_class', laserClasses);
+export const laserStatuses = ['active', 'in_storage', 'retired'] as const;
+export const laserStatusEnum = pgEnum('laser_status', laserStatuses);
+export const emissionModes = ['continuous', 'single_pulse', 'repetitive'] as const;
+export const emissionModeEnum = pgEnum('emission_mode', emissionModes);
+export const beamDefinitions = ['1/e', '1/e2', 'fwhm'] as const;
+export const beamDefinitionEnum = pgEnum('beam_definition', beamDefinitions);
+export const elementKinds = ['propagate', 'transmission', 'mirror', 'expander', 'lens', 'fibre', 'enclosure'] as const;
+export const elementKindEnum = pgEnum('element_kind', elementKinds);
+export const tissues = ['eye', 'skin'] as const;
+export const tissueEnum = pgEnum('tissue', tissues);
+export const pointKinds = ['intrabeam', 'diffuse'] as const;
+export const pointKindEnum = pgEnum('point_kind', pointKinds);
+export const verdicts = ['within_limit', 'exceeds_limit', 'no_applicable_limit', 'incomplete'] as const;
+export const verdictEnum = pgEnum('verdict', verdicts);
+
+/** A laser controlled area: where lasers stand and what is inspected. */
+export const area = pgTable(
+	'area',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		labId: uuid('lab_id').notNull().references(() => lab.id),
+		name: text('name').notNull(),
+		building: text('building').notNull().default(''),
+		room: text('room').notNull().default(''),
+		responsibleId: text('responsible_id').references(() => user.id),
+		interlockNotes: text('interlock_notes').notNull().default(''),
+		signageNotes: text('signage_notes').notNull().default(''),
+		version: integer('version').notNull().default(1),
+		createdAt: created(),
+		updatedAt: updated()
+	},
+	(t) => [index('area_lab_idx').on(t.labId)]
+);
+
+export const laser = pgTable(
+	'laser',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		labId: uuid('lab_id').notNull().references(() => lab.id),
+		areaId: uuid('area_id').references(() => area.id),
+		maker: text('maker').notNull(),
+		model: text('model').notNull(),
+		serial: text('serial').notNull().default(''),
+		laserClass: laserClassEnum('laser_class').notNull(),
+		status: laserStatusEnum('status').notNull().default('active'),
+		ownerId: text('owner_id').references(() => user.id),
+		notes: text('notes').notNull().default(''),
+		/** Shortest and longest wavelength of its lines, m: kept for the wavelength-band filter. */
+		wavelengthMin: si('wavelength_min'),
+		wavelengthMax: si('wavelength_max'),
+		version: integer('version').notNull().default(1),
+		createdAt: created(),
+		updatedAt: updated()
+	},
+	(t) => [
+		index('laser_lab_status_idx').on(t.labId, t.status),
+		index('laser_class_idx').on(t.laserClass),
+		index('laser_wavelength_idx').on(t.wavelengthMin, t.wavelengthMax),
+		index('laser_updated_idx').on(t.updatedAt),
+		index('laser_search_idx').using('gin', sql`(${t.maker} || ' ' || ${t.model} || ' ' || ${t.serial}) gin_trgm_ops`)
+	]
+);
+
+export const emissionLine = pgTable(
+	'emission_line',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		laserId: uuid('laser_id').notNull().references(() => laser.id),
+		label: text('label').notNull().default(''),
+		mode: emissionModeEnum('mode').notNull(),
+		/** λ, m; for a tunable line the assessment uses this value and wavelengthMax bounds the range. */
+		wavelength: si('wavelength').notNull(),
+		wavelengthMax: si('wavelength_max'),
+		power: si('power'),
+		pulseEnergy: si('pulse_energy'),
+		pulseDuration: si('pulse_duration'),
+		repetitionRate: si('repetition_rate'),
+		beamDiameter: si('beam_diameter').notNull(),
+		beamDiameterDefinition: beamDefinitionEnum('beam_diameter_definition').notNull(),
+		divergence: si('divergence').notNull(),
+		divergenceDefinition: beamDefinitionEnum('divergence_definition').notNull(),
+		beamQuality: si('beam_quality'),
+		version: integer('version').notNull().default(1),
+		createdAt: created(),
+		updatedAt: updated()
+	},
+	(t) => [index('emission_line_laser_idx').on(t.laserId)]
+);
+
+export const beamPath = pgTable(
+	'beam_path',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		laserId: uuid('laser_id').notNull().references(() => laser.id),
+		lineId: uuid('line_id').notNull().references(() => emissionLine.id),
+		name: text('name').notNull(),
+		purpose: text('purpose').notNull().default(''),
+		/** Exposure duration for the NOHD, s (e.g. 0.25 s aversion response for visible beams). */
+		nohdExposureDuration: si('nohd_exposure_duration'),
+		/** Verdict of the latest assessment snapshot, null before the first save. */
+		verdict: verdictEnum('verdict'),
+		/** True while the latest snapshot exceeds a limit (or cannot be shown as safe) and no review cleared it. */
+		flagged: boolean('flagged').notNull().default(false),
+		/** The latest snapshot no longer reflects the path, its line or the limits it used. */
+		stale: boolean('stale').notNull().default(false),
+		retired: boolean('retired').notNull().default(false),
+		createdBy: text('created_by').references(() => user.id),
+		updatedBy: text('updated_by').references(() => user.id),
+		version: integer('version').notNull().default(1),
+		createdAt: created(),
+		updatedAt: updated()
+	},
+	(t) => [index('beam_path_laser_idx').on(t.laserId), index('beam_path_line_idx').on(t.lineId), index('beam_path_flagged_idx').on(t.flagged, t.stale)]
+);
+
+export const pathElement = pgTable(
+	'path_element',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		pathId: uuid('path_id').notNull().references(() => beamPath.id, { onDelete: 'cascade' }),
+		sequence: integer('sequence').notNull(),
+		kind: elementKindEnum('kind').notNull(),
+		label: text('label').notNull().default(''),
+		length: si('length'),
+		transmission: si('transmission'),
+		reflectance: si('reflectance'),
+		magnification: si('magnification'),
+		focalLength: si('focal_length'),
+		coreDiameter: si('core_diameter'),
+		numericalAperture: si('numerical_aperture'),
+		couplingTransmission: si('coupling_transmission')
+	},
+	(t) => [uniqueIndex('path_element_order_idx').on(t.pathId, t.sequence)]
+);
+
+export const pointOfConcern = pgTable(
+	'point_of_concern',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		pathId: uuid('path_id').notNull().references(() => beamPath.id, { onDelete: 'cascade' }),
+		sequence: integer('sequence').notNull(),
+		label: text('label').notNull(),
+		kind: pointKindEnum('kind').notNull(),
+		tissue: tissueEnum('tissue').notNull(),
+		position: si('position').notNull(),
+		exposureDuration: si('exposure_duration'),
+		reflectance: si('reflectance'),
+		viewingAngle: si('viewing_angle'),
+		viewingDistance: si('viewing_distance')
+	},
+	(t) => [uniqueIndex('point_of_concern_order_idx').on(t.pathId, t.sequence)]
+);
+
+export type Area = typeof area.$inferSelect;
+export type Laser = typeof laser.$inferSelect;
+export type EmissionLine = typeof emissionLine.$inferSelect;
+export type BeamPath = typeof beamPath.$inferSelect;
+export type PathElement = typeof pathElement.$inferSelect;
+export type PointOfConcern = typeof pointOfConcern.$inferSelect;

@@ -1,0 +1,50 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { Dec, HALF_PI } from './constants';
+import { asin, cosAcute, log10, sqrt } from './fastmath';
+
+describe('fast elementary functions', () => {
+	it('sqrt has at least 30 correct significant digits', () => {
+		fc.assert(
+			fc.property(fc.double({ min: 1e-30, max: 1e30, noNaN: true }), fc.integer({ min: 1, max: 999 }), (x, tail) => {
+				const a = new Dec(x).times(`1.${tail}`);
+				return sqrt(a).minus(a.sqrt()).abs().div(a.sqrt()).lt('1e-30');
+			}),
+			{ numRuns: 200 }
+		);
+		expect(sqrt(new Dec(4)).toString()).toBe('2');
+		expect(sqrt(new Dec('1e-6')).toString()).toBe('0.001');
+		expect(sqrt(new Dec(0)).toString()).toBe('0');
+	});
+
+	it('log10 is within 1e-14 and exact on powers of ten', () => {
+		fc.assert(
+			fc.property(fc.double({ min: 1, max: 1e100, noNaN: true }), (x) => {
+				const a = new Dec(x);
+				return log10(a).minus(Dec.log10(a)).abs().lt('1e-14');
+			}),
+			{ numRuns: 200 }
+		);
+		for (const k of [0, 1, 5, 17, 40]) expect(log10(new Dec(10).pow(k)).toString()).toBe(String(k));
+	});
+
+	it('cos keeps its relative accuracy up to grazing angles', () => {
+		fc.assert(
+			fc.property(fc.double({ min: 0, max: 1.5707, noNaN: true }), (x) => {
+				const t = new Dec(x);
+				const exact = t.cos();
+				return cosAcute(t).minus(exact).abs().div(exact).lt('1e-14');
+			}),
+			{ numRuns: 200 }
+		);
+		const nearGrazing = HALF_PI.minus('1e-9');
+		expect(cosAcute(nearGrazing).minus(nearGrazing.cos()).abs().div(nearGrazing.cos()).lt('1e-14')).toBe(true);
+	});
+
+	it('asin is within 1e-14 over the whole range of numerical apertures', () => {
+		for (const na of ['0.1', '0.22', '0.5', '0.99', '0.995', '0.9999', '1']) {
+			const x = new Dec(na);
+			expect(asin(x).minus(x.asin()).abs().div(x.asin()).lt('1e-14')).toBe(true);
+		}
+	});
+});

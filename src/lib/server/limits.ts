@@ -1,0 +1,110 @@
+// The limit library. A limit is never edited in place: a revision is a new version, and every
+// beam path whose wavelength the old or the new version covers becomes stale in the same transaction.
+import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import { db, type Tx } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as audit from '$lib/server/audit';
+import * as jobs from '$lib/server/jobs';
+import { queues } from '$lib/server/jobs/queues';
+import { changedMeanwhile, notFound, type Failure } from '$lib/server/failure';
+import { isUuid } from '$lib/server/lasers';
+import { limitToSI, type LimitForm } from '$lib/schemas/limits';
+
+export type LimitSummary = table.ExposureLimitVersion & { retired: boolean };
+
+export async function list(): Promise<LimitSummary[]> {
+	const rows = await db
+		.select({ v: table.exposureLimitVersion, retired: table.exposureLimit.retired })
+		.from(table.exposureLimit)
+		.innerJoin(
+			table.exposureLimitVersion,
+			and(eq(table.exposureLimitVersion.limitId, table.exposureLimit.id), eq(table.exposureLimitVersion.version, table.exposureLimit.currentVersion))
+		)
+		.orderBy(asc(table.exposureLimit.retired), asc(table.exposureLimitVersion.tissue), asc(table.exposureLimitVersion.wavelengthMin), asc(table.exposureLimitVersion.durationMin));
+	return rows.map((r) => ({ ...r.v, retired: r.retired }));
+}
+
+export async function find(limitId: string) {
+	if (!isUuid(limitId)) return null;
+	const [head] = await db.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId));
+	if (!head) return null;
+	const versions = await db.select().from(table.exposureLimitVersion).where(eq(table.exposureLimitVersion.limitId, limitId)).orderBy(desc(table.exposureLimitVersion.version));
+	return { ...head, current: versions.find((v) => v.version === head.currentVersion)!, versions };
+}
+
+/** Mark stale every assessed, live path whose line (or tunable range) meets one of these wavelength ranges. */
+async function markStale(tx: Tx, ranges: { min: string; max: string }[], reason: string): Promise<number> {
+	const overlaps = ranges.map((r) => sql`(l.wavelength <= ${r.max}::numeric AND coalesce(l.wavelength_max, l.wavelength) >= ${r.min}::numeric)`);
+	const marked = await tx.execute<{ id: string }>(sql`
+		UPDATE beam_path bp SET stale = true
+		FROM emission_line l
+		WHERE bp.line_id = l.id AND NOT bp.retired AND bp.verdict IS NOT NULL AND NOT bp.stale
+			AND (${sql.join(overlaps, sql` OR `)})
+		RETURNING bp.id`);
+	if (marked.length)
+		await tx.execute(sql`
+			UPDATE assessment a SET stale = true, stale_reason = ${reason}
+			WHERE a.id IN (SELECT DISTINCT ON (path_id) id FROM assessment WHERE path_id IN ${sql`(${sql.join(marked.map((m) => sql`${m.id}::uuid`), sql`, `)})`} ORDER BY path_id, created_at DESC)`);
+	return marked.length;
+}
+
+export async function create(actorId: string, form: LimitForm): Promise<{ ok: true; id: string; staleMarked: number }> {
+	const values = limitToSI(form);
+	const out = await db.transaction(async (tx) => {
+		const [head] = await tx.insert(table.exposureLimit).values({}).returning();
+		const staleMarked = await markStale(tx, [{ min: values.wavelengthMin, max: values.wavelengthMax }], `New limit “${values.label}”`);
+		const [v] = await tx.insert(table.exposureLimitVersion).values({ limitId: head.id, version: 1, ...values, staleMarked, createdBy: actorId }).returning();
+		await audit.record(tx, { actorId, action: 'limit.create', entity: 'exposure_limit', entityId: head.id, after: v });
+		return { ok: true, id: head.id, staleMarked } as const;
+	});
+	if (out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	return out;
+}
+
+/** A new version; `form.version` must be the version the officer was looking at. */
+export async function revise(actorId: string, limitId: string, form: LimitForm): Promise<{ ok: true; version: number; staleMarked: number } | Failure> {
+	const values = limitToSI(form);
+	const out = await db.transaction(async (tx) => {
+		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
+		if (!found.length) return notFound('limit');
+		const head = found[0];
+		if (head.currentVersion !== form.version) return changedMeanwhile('limit');
+		const [old] = await tx
+			.select()
+			.from(table.exposureLimitVersion)
+			.where(and(eq(table.exposureLimitVersion.limitId, limitId), eq(table.exposureLimitVersion.version, head.currentVersion)));
+		const version = head.currentVersion + 1;
+		const staleMarked = await markStale(
+			tx,
+			[
+				{ min: old.wavelengthMin, max: old.wavelengthMax },
+				{ min: values.wavelengthMin, max: values.wavelengthMax }
+			],
+			`Limit “${values.label}” revised to version ${version}`
+		);
+		const [v] = await tx.insert(table.exposureLimitVersion).values({ limitId, version, ...values, staleMarked, createdBy: actorId }).returning();
+		await tx.update(table.exposureLimit).set({ currentVersion: version, retired: false }).where(eq(table.exposureLimit.id, limitId));
+		await audit.record(tx, { actorId, action: 'limit.revise', entity: 'exposure_limit', entityId: limitId, before: old, after: v });
+		return { ok: true, version, staleMarked } as const;
+	});
+	if (out.ok && out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	return out;
+}
+
+export async function retire(actorId: string, limitId: string, version: number): Promise<{ ok: true; staleMarked: number } | Failure> {
+	const out = await db.transaction(async (tx) => {
+		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
+		if (!found.length) return notFound('limit');
+		if (found[0].currentVersion !== version || found[0].retired) return changedMeanwhile('limit');
+		const [current] = await tx
+			.select()
+			.from(table.exposureLimitVersion)
+			.where(and(eq(table.exposureLimitVersion.limitId, limitId), eq(table.exposureLimitVersion.version, version)));
+		await tx.update(table.exposureLimit).set({ retired: true }).where(eq(table.exposureLimit.id, limitId));
+		const staleMarked = await markStale(tx, [{ min: current.wavelengthMin, max: current.wavelengthMax }], `Limit “${current.label}” withdrawn`);
+		await audit.record(tx, { actorId, action: 'limit.retire', entity: 'exposure_limit', entityId: limitId, before: { retired: false }, after: { retired: true, staleMarked } });
+		return { ok: true, staleMarked } as const;
+	});
+	if (out.ok && out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	return out;
+}

@@ -1,0 +1,213 @@
+// Beam paths: their ordered elements and points of concern, saved together with an assessment
+// snapshot in one transaction, so a path is never stored without the result it had when saved.
+import { and, asc, eq, sql } from 'drizzle-orm';
+import { db, type Tx } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as audit from '$lib/server/audit';
+import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
+import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { currentLimits, evaluate, latestFor, needsReview, type PathSnapshotInput } from '$lib/server/assessments';
+import { isUuid } from '$lib/server/lasers';
+import { ENGINE_VERSION, type AssessmentResult } from '$lib/server/hazard';
+import { pathToSI, type ElementSI, type PathForm, type PointSI } from '$lib/schemas/register';
+
+export function elementFromRow(e: table.PathElement): ElementSI {
+	return {
+		kind: e.kind,
+		label: e.label,
+		length: e.length,
+		transmission: e.transmission,
+		reflectance: e.reflectance,
+		magnification: e.magnification,
+		focalLength: e.focalLength,
+		coreDiameter: e.coreDiameter,
+		numericalAperture: e.numericalAperture,
+		couplingTransmission: e.couplingTransmission
+	};
+}
+
+export function pointFromRow(p: table.PointOfConcern): PointSI {
+	return {
+		key: p.id,
+		label: p.label,
+		kind: p.kind,
+		tissue: p.tissue,
+		position: p.position,
+		exposureDuration: p.exposureDuration,
+		reflectance: p.reflectance,
+		viewingAngle: p.viewingAngle,
+		viewingDistance: p.viewingDistance
+	};
+}
+
+async function loadPath(pathId: string, ex: typeof db | Tx = db) {
+	const [row] = await ex
+		.select({ path: table.beamPath, laser: table.laser, line: table.emissionLine, lab: { id: table.lab.id, code: table.lab.code, name: table.lab.name } })
+		.from(table.beamPath)
+		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
+		.innerJoin(table.emissionLine, eq(table.emissionLine.id, table.beamPath.lineId))
+		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
+		.where(eq(table.beamPath.id, pathId));
+	if (!row) return null;
+	const [elements, points, latest] = await Promise.all([
+		ex.select().from(table.pathElement).where(eq(table.pathElement.pathId, pathId)).orderBy(asc(table.pathElement.sequence)),
+		ex.select().from(table.pointOfConcern).where(eq(table.pointOfConcern.pathId, pathId)).orderBy(asc(table.pointOfConcern.sequence)),
+		latestFor(pathId, ex)
+	]);
+	return { ...row, elements, points, latest };
+}
+
+export type PathDetail = NonNullable<Awaited<ReturnType<typeof loadPath>>>;
+
+export async function find(scope: Scope, pathId: string): Promise<{ ok: true; detail: PathDetail; editable: boolean } | Failure> {
+	if (!isUuid(pathId)) return notFound('beam path');
+	const detail = await loadPath(pathId);
+	if (!detail) return notFound('beam path');
+	if (!canRead(scope, detail.laser.labId)) return notYours('beam path');
+	return { ok: true, detail, editable: canEdit(scope, detail.laser.labId) && detail.laser.status !== 'retired' };
+}
+
+export function snapshotInput(detail: Pick<PathDetail, 'line' | 'elements' | 'points' | 'path'>): PathSnapshotInput {
+	return {
+		line: detail.line,
+		elements: detail.elements.map(elementFromRow),
+		points: detail.points.map(pointFromRow),
+		nohdExposureDuration: detail.path.nohdExposureDuration
+	};
+}
+
+export type SaveOutcome = { ok: true; id: string; verdict: AssessmentResult['verdict']; version: number } | Failure;
+
+/** Create (pathId null, version 0) or replace a path, and snapshot its assessment in the same transaction. */
+export async function save(scope: Scope, laserId: string, pathId: string | null, form: PathForm): Promise<SaveOutcome> {
+	if (!isUuid(laserId)) return notFound('laser');
+	const [laserRow] = await db.select().from(table.laser).where(eq(table.laser.id, laserId));
+	if (!laserRow) return notFound('laser');
+	if (!canRead(scope, laserRow.labId)) return notYours('laser');
+	if (!canEdit(scope, laserRow.labId) || laserRow.status === 'retired') return notYours('laser');
+	const [line] = await db.select().from(table.emissionLine).where(and(eq(table.emissionLine.id, form.lineId), eq(table.emissionLine.laserId, laserId)));
+	if (!line) return fieldsNeedAttention({ lineId: 'Choose one of this laser’s emission lines.' });
+	const si = pathToSI(form);
+	if (!si.ok) return fieldsNeedAttention(si.errors);
+
+	return db.transaction(async (tx) => {
+		const limits = await currentLimits(tx);
+		const { input, outcome } = evaluate({ line, ...si.value }, limits);
+		if (!outcome.ok) {
+			const fields: Record<string, string[]> = {};
+			for (const e of outcome.errors) (fields[e.field] ??= []).push(e.reason);
+			return failure(400, 'The assessment cannot be computed from these values.', fields);
+		}
+		const result = outcome.result;
+		const now = new Date();
+		let before: unknown = null;
+		let id: string;
+		let version: number;
+		const status = { verdict: result.verdict, flagged: needsReview(result.verdict), stale: false, updatedBy: scope.userId, updatedAt: now };
+		const common = { lineId: line.id, name: form.name, purpose: form.purpose, nohdExposureDuration: si.value.nohdExposureDuration, ...status };
+		if (pathId === null) {
+			const [created] = await tx.insert(table.beamPath).values({ laserId, createdBy: scope.userId, ...common }).returning();
+			id = created.id;
+			version = created.version;
+		} else {
+			if (!isUuid(pathId)) return notFound('beam path');
+			const old = await loadPath(pathId, tx);
+			if (!old || old.path.laserId !== laserId) return notFound('beam path');
+			before = { path: old.path, elements: old.elements.map(elementFromRow), points: old.points.map(pointFromRow) };
+			const [updated] = await tx
+				.update(table.beamPath)
+				.set({ ...common, version: form.version + 1 })
+				.where(and(eq(table.beamPath.id, pathId), eq(table.beamPath.version, form.version)))
+				.returning();
+			if (!updated) return changedMeanwhile('beam path');
+			id = pathId;
+			version = updated.version;
+			await tx.delete(table.pathElement).where(eq(table.pathElement.pathId, id));
+			await tx.delete(table.pointOfConcern).where(eq(table.pointOfConcern.pathId, id));
+		}
+		if (si.value.elements.length)
+			await tx.insert(table.pathElement).values(si.value.elements.map((e, i) => ({ pathId: id, sequence: i, ...e, label: e.label })));
+		const keptIds = si.value.points.map((p) => (isUuid(p.key) ? p.key : null));
+		const pointRows = await tx
+			.insert(table.pointOfConcern)
+			.values(si.value.points.map((p, i) => ({ ...(keptIds[i] && pathId ? { id: keptIds[i]! } : {}), pathId: id, sequence: i, label: p.label, kind: p.kind, tissue: p.tissue, position: p.position!, exposureDuration: p.exposureDuration, reflectance: p.reflectance, viewingAngle: p.viewingAngle, viewingDistance: p.viewingDistance })))
+			.returning({ id: table.pointOfConcern.id });
+		await tx.insert(table.assessment).values({
+			pathId: id,
+			pathVersion: version,
+			engineVersion: ENGINE_VERSION,
+			inputs: { ...input, points: input.points.map((p, i) => ({ ...p, id: pointRows[i].id })) },
+			result: remapPointIds(result, si.value.points.map((p) => p.key), pointRows.map((r) => r.id)),
+			verdict: result.verdict,
+			worstRatio: result.worstRatio,
+			requiredOd: result.requiredOpticalDensity?.value ?? null,
+			limitVersions: result.limitsConsidered,
+			cause: 'save',
+			createdBy: scope.userId
+		});
+		await audit.record(tx, {
+			actorId: scope.userId,
+			action: pathId === null ? 'path.create' : 'path.update',
+			entity: 'beam_path',
+			entityId: id,
+			before,
+			after: { name: form.name, lineId: line.id, elements: si.value.elements, points: si.value.points, verdict: result.verdict }
+		});
+		return { ok: true, id, verdict: result.verdict, version } as const;
+	});
+}
+
+/** The engine saw the form's point keys; the snapshot keeps the stored points' ids. */
+function remapPointIds(result: AssessmentResult, keys: string[], ids: string[]): AssessmentResult {
+	const map = new Map(keys.map((k, i) => [k, ids[i]]));
+	return {
+		...result,
+		worstPointId: result.worstPointId ? map.get(result.worstPointId) ?? result.worstPointId : null,
+		points: result.points.map((p) => ({ ...p, id: map.get(p.id) ?? p.id }))
+	};
+}
+
+/** Re-evaluate stale paths against the limits in force now; each in its own transaction. */
+export async function reassessStale(batch = 200): Promise<{ reassessed: number }> {
+	const stale = await db
+		.select({ id: table.beamPath.id })
+		.from(table.beamPath)
+		.where(and(eq(table.beamPath.stale, true), eq(table.beamPath.retired, false)))
+		.orderBy(asc(table.beamPath.updatedAt))
+		.limit(batch);
+	let reassessed = 0;
+	for (const { id } of stale) {
+		const done = await db.transaction(async (tx) => {
+			// Lock the row: two workers never snapshot the same path twice, and a concurrent save wins.
+			const [locked] = await tx.execute<{ id: string }>(sql`SELECT id FROM beam_path WHERE id = ${id} AND stale FOR UPDATE SKIP LOCKED`);
+			if (!locked) return false;
+			const detail = await loadPath(id, tx);
+			if (!detail) return false;
+			const limits = await currentLimits(tx);
+			const { input, outcome } = evaluate(snapshotInput(detail), limits);
+			const result = outcome.ok ? outcome.result : null;
+			const verdict = result ? result.verdict : 'incomplete';
+			await tx.insert(table.assessment).values({
+				pathId: id,
+				pathVersion: detail.path.version,
+				engineVersion: ENGINE_VERSION,
+				inputs: input,
+				result: result ?? { errors: outcome.ok ? [] : outcome.errors },
+				verdict,
+				worstRatio: result?.worstRatio ?? null,
+				requiredOd: result?.requiredOpticalDensity?.value ?? null,
+				limitVersions: result?.limitsConsidered ?? limits.map((l) => ({ id: l.limitId, version: String(l.version) })),
+				cause: 'reassess'
+			});
+			await tx.update(table.beamPath).set({ verdict, flagged: needsReview(verdict), stale: false }).where(eq(table.beamPath.id, id));
+			await audit.record(tx, { actorId: null, action: 'path.reassess', entity: 'beam_path', entityId: id, before: { verdict: detail.path.verdict }, after: { verdict } });
+			return true;
+		});
+		if (done) reassessed++;
+	}
+	return { reassessed };
+}
+
+export async function countStale(): Promise<number> {
+	return db.$count(table.beamPath, and(eq(table.beamPath.stale, true), eq(table.beamPath.retired, false)));
+}

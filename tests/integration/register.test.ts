@@ -1,0 +1,141 @@
+import { eq, sql } from 'drizzle-orm';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { db } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as paths from '$lib/server/paths';
+import * as lasers from '$lib/server/lasers';
+import * as limits from '$lib/server/limits';
+import type { Scope } from '$lib/server/auth/scope';
+import { laserForm, limitForm, makeLab, makeUser, pathForm, scopeFor } from './factories';
+
+let labA: { id: string };
+let labB: { id: string };
+let researcher: Scope;
+let officer: Scope;
+let officerId: string;
+
+beforeAll(async () => {
+	// Limits are global: start this file from an empty library so verdicts are predictable.
+	await db.execute(sql`UPDATE exposure_limit SET retired = true`);
+	labA = await makeLab();
+	labB = await makeLab();
+	const r = await makeUser('researcher', [labA.id]);
+	const o = await makeUser('officer');
+	officerId = o.id;
+	researcher = await scopeFor(r);
+	officer = await scopeFor(o);
+});
+
+async function newLaser(scope: Scope, labId: string) {
+	const created = await lasers.create(scope, laserForm(labId));
+	if (!created.ok) throw new Error(JSON.stringify(created));
+	const found = await lasers.find(scope, created.id);
+	if (!found.ok) throw new Error('not found');
+	return found.detail;
+}
+
+describe('lasers', () => {
+	it('a researcher registers a laser in their own lab, not in another', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		expect(laser.lines).toHaveLength(1);
+		expect(Number(laser.lines[0].power)).toBe(5); // "5 W" stored in SI
+		expect(Number(laser.lines[0].wavelength)).toBe(5.32e-7);
+		expect(Number(laser.laser.wavelengthMin)).toBe(5.32e-7);
+		expect(await lasers.create(researcher, laserForm(labB.id))).toMatchObject({ ok: false, status: 403 });
+		expect(await lasers.find(researcher, (await newLaser(officer, labB.id)).laser.id)).toMatchObject({ ok: false, status: 403 });
+	});
+
+	it('names the field of a value that does not parse, and saves nothing', async () => {
+		const before = await db.$count(table.laser);
+		const bad = await lasers.create(researcher, laserForm(labA.id, { power: '5 parsecs' }));
+		expect(bad).toMatchObject({ ok: false, status: 400 });
+		expect(Object.keys((bad as { fields: object }).fields)).toEqual(['line.power']);
+		expect(await db.$count(table.laser)).toBe(before);
+	});
+
+	it('lists one page with filters, within the researcher’s labs', async () => {
+		const page = await lasers.inventory(researcher, { sort: 'model', dir: 'asc', page: 1, pageSize: 50, band: 'visible' });
+		expect(page.items.length).toBeGreaterThan(0);
+		expect(page.items.every((i) => i.labCode === page.items[0].labCode)).toBe(true);
+		const ir = await lasers.inventory(researcher, { sort: 'model', dir: 'asc', page: 1, pageSize: 50, band: 'ir' });
+		expect(ir.total).toBe(0);
+		const all = await lasers.inventory(officer, { sort: 'model', dir: 'asc', page: 1, pageSize: 1 });
+		expect(all.items).toHaveLength(1);
+		expect(all.total).toBeGreaterThanOrEqual(2);
+	});
+});
+
+describe('beam paths and their assessment snapshots', () => {
+	it('saves a path with a splitter and a lens; with no applicable limit it is flagged, never within limit', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const saved = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));
+		expect(saved).toMatchObject({ ok: true, verdict: 'no_applicable_limit' });
+		const found = await paths.find(researcher, (saved as { id: string }).id);
+		if (!found.ok) throw new Error('not found');
+		expect(found.detail.path.flagged).toBe(true);
+		expect(found.detail.elements.map((e) => e.kind)).toEqual(['propagate', 'transmission', 'propagate', 'lens', 'propagate']);
+		expect(found.detail.latest?.verdict).toBe('no_applicable_limit');
+		const [entry] = await db.select().from(table.auditLog).where(eq(table.auditLog.entityId, found.detail.path.id));
+		expect(entry.action).toBe('path.create');
+	});
+
+	it('refuses values the engine cannot use, naming the field, and writes nothing', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const form = pathForm(laser.lines[0].id);
+		form.elements[1].transmission = '1.5';
+		const before = await db.$count(table.beamPath);
+		const r = await paths.save(researcher, laser.laser.id, null, form);
+		expect(r).toMatchObject({ ok: false, status: 400 });
+		expect(Object.keys((r as { fields: object }).fields)).toContain('elements.1.transmission');
+		expect(await db.$count(table.beamPath)).toBe(before);
+	});
+
+	it('refuses a stale save with 409 and keeps the first', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const first = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));
+		if (!first.ok) throw new Error('save');
+		const a = await paths.save(researcher, laser.laser.id, first.id, pathForm(laser.lines[0].id, { name: 'Renamed once', version: first.version }));
+		expect(a.ok).toBe(true);
+		const b = await paths.save(researcher, laser.laser.id, first.id, pathForm(laser.lines[0].id, { name: 'Renamed twice', version: first.version }));
+		expect(b).toMatchObject({ ok: false, status: 409 });
+		const found = await paths.find(researcher, first.id);
+		expect(found.ok && found.detail.path.name).toBe('Renamed once');
+	});
+
+	it('a new limit makes covered paths stale; the re-evaluation snapshots them against it', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const saved = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));
+		if (!saved.ok) throw new Error('save');
+		const created = await limits.create(officerId, limitForm());
+		expect(created.staleMarked).toBeGreaterThanOrEqual(1);
+		let found = await paths.find(officer, saved.id);
+		expect(found.ok && found.detail.path.stale).toBe(true);
+		expect(found.ok && found.detail.latest?.stale).toBe(true);
+
+		const { reassessed } = await paths.reassessStale();
+		expect(reassessed).toBeGreaterThanOrEqual(1);
+		found = await paths.find(officer, saved.id);
+		if (!found.ok) throw new Error('not found');
+		expect(found.detail.path.stale).toBe(false);
+		// 5 W at 532 nm through a 10 % splitter is still far above any visible-band eye limit
+		expect(found.detail.latest?.verdict).toBe('exceeds_limit');
+		expect(found.detail.latest?.cause).toBe('reassess');
+		expect(found.detail.latest?.limitVersions).toContainEqual({ id: created.id, version: '1' });
+
+		// a revision: the officer must be looking at the current version
+		expect(await limits.revise(officerId, created.id, limitForm({ version: 0 }))).toMatchObject({ ok: false, status: 409 });
+		const revised = await limits.revise(officerId, created.id, limitForm({ version: 1, k: '10 J/m²' }));
+		expect(revised).toMatchObject({ ok: true, version: 2 });
+		found = await paths.find(officer, saved.id);
+		expect(found.ok && found.detail.path.stale).toBe(true);
+		await paths.reassessStale();
+		found = await paths.find(officer, saved.id);
+		expect(found.ok && found.detail.latest?.limitVersions).toContainEqual({ id: created.id, version: '2' });
+	});
+
+	it('an infrared limit leaves a green path alone', async () => {
+		await paths.reassessStale();
+		const r = await limits.create(officerId, limitForm({ label: 'Test fixture: far infrared', wavelengthMin: '1.4 µm', wavelengthMax: '1 mm' }));
+		expect(r.staleMarked).toBe(0);
+	});
+});
