@@ -186,7 +186,9 @@ export function chooseUnit(valueSI: Decimal.Value, kind: QuantityKind): string {
 export function formatQuantity(valueSI: Decimal.Value, kind: QuantityKind, opts: { unit?: string; significantDigits?: number } = {}): string {
 	const si = new UnitDecimal(valueSI);
 	if (!si.isFinite()) return '—';
-	const def = requireUnit(opts.unit ?? chooseUnit(si, kind), kind);
-	const n = si.div(def.factor).toSignificantDigits(opts.significantDigits ?? 4).toString();
+	const sd = opts.significantDigits ?? 4;
+	// Choose the unit on the rounded value, so that 999.95 GW is written 1 TW rather than 1000 GW.
+	const def = requireUnit(opts.unit ?? chooseUnit(si.toSignificantDigits(sd), kind), kind);
+	const n = si.div(def.factor).toSignificantDigits(sd).toString();
 	return def.symbol === '°' ? `${n}°` : `${n} ${def.symbol}`;
 }

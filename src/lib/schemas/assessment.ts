@@ -99,7 +99,8 @@ export const assessmentPreviewSchema = z
 		line: lineSchema,
 		elements: z.array(elementSchema).max(200, 'At most 200 path elements.').default([]),
 		points: z.array(pointSchema).max(200, 'At most 200 points of concern.'),
-		limits: z.array(limitSchema).max(500, 'At most 500 limits.'),
+		/** Omitted: the route uses the limits in force in the library. */
+		limits: z.array(limitSchema).max(500, 'At most 500 limits.').optional(),
 		nohd: z.object({ exposureDuration: optionalNumber }).strict().nullish(),
 		options: z.object({ breakdown: z.boolean().optional() }).strict().nullish()
 	})
@@ -114,7 +115,7 @@ export function toAssessmentInput(body: AssessmentPreviewBody): AssessmentInput 
 	const line: LineInput = { ...body.line };
 	const elements: ElementInput[] = body.elements.map((e) => ({ ...e }) as ElementInput);
 	const points: PointInput[] = body.points.map((p) => ({ ...p }));
-	const limits: LimitInput[] = body.limits.map((l) => ({ ...l }));
+	const limits: LimitInput[] = (body.limits ?? []).map((l) => ({ ...l }));
 	return {
 		line,
 		elements,

@@ -37,13 +37,16 @@ export async function readJson<S extends z.ZodType>(
 		return { ok: false, response: apiError(400, 'The request body must be JSON.') };
 	}
 	const parsed = schema.safeParse(body);
-	if (!parsed.success) {
-		const fields: Record<string, string[]> = {};
-		for (const issue of parsed.error.issues) {
-			const key = issue.path.join('.') || '(body)';
-			(fields[key] ??= []).push(issue.message);
-		}
-		return { ok: false, response: apiError(400, 'Some fields need attention.', fields) };
-	}
+	if (!parsed.success) return { ok: false, response: apiError(400, 'Some fields need attention.', fieldMessages(parsed.error)) };
 	return { ok: true, data: parsed.data };
+}
+
+/** zod issues as messages per dotted field path. */
+export function fieldMessages(error: z.ZodError): Record<string, string[]> {
+	const fields: Record<string, string[]> = {};
+	for (const issue of error.issues) {
+		const key = issue.path.join('.') || '(body)';
+		(fields[key] ??= []).push(issue.message);
+	}
+	return fields;
 }

@@ -1,10 +1,12 @@
-import { fail } from '@sveltejs/kit';
 import { setError, message, type SuperValidated } from 'sveltekit-superforms';
 import type { Failure } from './failure';
 
 /** Turn a data module's failure into the form's per-field errors, with its 4xx status. */
 export function failForm<T extends Record<string, unknown>>(form: SuperValidated<T>, failure: Failure) {
-	for (const [field, messages] of Object.entries(failure.fields ?? {}))
-		for (const m of messages) setError(form, field as never, m, { status: failure.status });
-	return failure.fields ? fail(failure.status, { form }) : message(form, failure.message, { status: failure.status });
+	for (const [field, messages] of Object.entries(failure.fields ?? {})) {
+		// 'elements.2.length' (ours) → 'elements[2].length' (superforms' path syntax)
+		const path = field.replace(/\.(\d+)(?=\.|$)/g, '[$1]');
+		for (const m of messages) setError(form, path as never, m, { status: failure.status });
+	}
+	return message(form, failure.message, { status: failure.status });
 }

@@ -95,8 +95,15 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		const { input, outcome } = evaluate({ line, ...si.value }, limits);
 		if (!outcome.ok) {
 			const fields: Record<string, string[]> = {};
-			for (const e of outcome.errors) (fields[e.field] ??= []).push(e.reason);
-			return failure(400, 'The assessment cannot be computed from these values.', fields);
+			const lineProblems: string[] = [];
+			for (const e of outcome.errors) {
+				if (e.field === '' || e.field.startsWith('line')) lineProblems.push(e.reason);
+				else (fields[e.field] ??= []).push(e.reason);
+			}
+			const message = lineProblems.length
+				? `The emission line cannot be assessed: ${lineProblems.join(' ')} Correct it on the laser’s page.`
+				: 'The assessment cannot be computed from these values.';
+			return failure(400, message, Object.keys(fields).length ? fields : undefined);
 		}
 		const result = outcome.result;
 		const now = new Date();

@@ -11,6 +11,9 @@ export type RouteRule = { read: Access; write: Access };
 const everyone: Access = 'signed-in';
 const nobody: readonly Role[] = [];
 const admin: readonly Role[] = ['admin'];
+/** Lab members change their own labs' register; officers every lab's (finer rules in auth/scope.ts). */
+const registerWriters: readonly Role[] = ['researcher', 'officer'];
+const officers: readonly Role[] = ['officer'];
 
 export const routePolicy: Record<string, RouteRule> = {
 	'/': { read: 'public', write: nobody },
@@ -18,6 +21,13 @@ export const routePolicy: Record<string, RouteRule> = {
 	'/(auth)/signout': { read: everyone, write: everyone },
 	'/(app)/overview': { read: everyone, write: nobody },
 	'/(app)/lasers': { read: everyone, write: nobody },
+	'/(app)/lasers/new': { read: registerWriters, write: registerWriters },
+	'/(app)/lasers/[laserId]': { read: everyone, write: nobody },
+	'/(app)/lasers/[laserId]/edit': { read: registerWriters, write: registerWriters },
+	'/(app)/lasers/[laserId]/lines/new': { read: registerWriters, write: registerWriters },
+	'/(app)/lasers/[laserId]/lines/[lineId]': { read: registerWriters, write: registerWriters },
+	'/(app)/lasers/[laserId]/paths/new': { read: registerWriters, write: registerWriters },
+	'/(app)/paths/[pathId]': { read: everyone, write: registerWriters },
 	'/(app)/reviews': { read: everyone, write: nobody },
 	'/(app)/inspections': { read: everyone, write: nobody },
 	'/(app)/eyewear': { read: everyone, write: nobody },
@@ -26,6 +36,9 @@ export const routePolicy: Record<string, RouteRule> = {
 	'/(app)/admin/users/new': { read: admin, write: admin },
 	'/(app)/admin/users/[userId]': { read: admin, write: admin },
 	'/api/me': { read: everyone, write: nobody },
+	'/api/assessments/preview': { read: nobody, write: everyone },
+	'/api/lasers': { read: everyone, write: registerWriters },
+	'/api/lasers/[laserId]': { read: everyone, write: registerWriters },
 	'/api/admin/users': { read: admin, write: admin },
 	'/api/admin/users/[userId]': { read: admin, write: admin },
 	'/api/health': { read: 'public', write: nobody }

@@ -41,8 +41,8 @@ function compute(input: NormInput): AssessmentResult {
 	// Line quantities.
 	const ePh = photonEnergy(line.wavelength);
 	const eV = joulesToElectronvolts(ePh);
-	w.add('photon-energy', 'Photon energy', 'E_ph = h·c / λ', [['h', PLANCK_CONSTANT, 'J·s'], ['c', SPEED_OF_LIGHT, 'm/s'], ['λ', line.wavelength, 'm']], ePh, 'J', 'Exact SI 2019 constants.');
-	w.add('photon-energy-ev', 'Photon energy in electronvolts', 'E_ph[eV] = E_ph / e', [['E_ph', ePh, 'J'], ['e', ELEMENTARY_CHARGE, 'C']], eV, 'eV');
+	if (w.enabled) w.add('photon-energy', 'Photon energy', 'E_ph = h·c / λ', [['h', PLANCK_CONSTANT, 'J·s'], ['c', SPEED_OF_LIGHT, 'm/s'], ['λ', line.wavelength, 'm']], ePh, 'J', 'Exact SI 2019 constants.');
+	if (w.enabled) w.add('photon-energy-ev', 'Photon energy in electronvolts', 'E_ph[eV] = E_ph / e', [['E_ph', ePh, 'J'], ['e', ELEMENTARY_CHARGE, 'C']], eV, 'eV');
 	if (line.beamDiameterDefinition !== '1/e') w.add('beam-diameter', 'Beam diameter at the aperture on the 1/e basis', line.beamDiameterDefinition === '1/e2' ? 'D₀ = D₀(1/e²) / √2' : 'D₀ = D₀(FWHM) / √(ln 2)', [[line.beamDiameterDefinition === '1/e2' ? 'D₀(1/e²)' : 'D₀(FWHM)', line.beamDiameterEntered, 'm']], line.d0, 'm', 'Exact for a Gaussian beam.');
 	if (line.divergenceDefinition !== '1/e') w.add('divergence', 'Divergence on the 1/e basis', line.divergenceDefinition === '1/e2' ? 'φ = φ(1/e²) / √2' : 'φ = φ(FWHM) / √(ln 2)', [[line.divergenceDefinition === '1/e2' ? 'φ(1/e²)' : 'φ(FWHM)', line.divergenceEntered, 'rad']], line.divergence, 'rad', 'Exact for a Gaussian beam.');
 	let photonFlux: Decimal | null = null;
@@ -52,12 +52,12 @@ function compute(input: NormInput): AssessmentResult {
 	if (line.peakPower) w.add('peak-power', 'Peak power', 'P_peak = Q / τ', [['Q', line.pulseEnergy!, 'J'], ['τ', line.pulseDuration!, 's']], line.peakPower, 'W');
 	if (line.averagePower) {
 		photonFlux = line.averagePower.div(ePh);
-		w.add('photon-flux', 'Photon flux', 'Φ = P / E_ph', [['P', line.averagePower, 'W'], ['E_ph', ePh, 'J']], photonFlux, 's⁻¹');
+		if (w.enabled) w.add('photon-flux', 'Photon flux', 'Φ = P / E_ph', [['P', line.averagePower, 'W'], ['E_ph', ePh, 'J']], photonFlux, 's⁻¹');
 	}
 	if (line.pulseEnergy) {
 		photonsPerPulse = line.pulseEnergy.div(ePh);
 		peakPhotonFlux = line.peakPower!.div(ePh);
-		w.add('photons-per-pulse', 'Photons per pulse', 'N_ph = Q / E_ph', [['Q', line.pulseEnergy, 'J'], ['E_ph', ePh, 'J']], photonsPerPulse, '');
+		if (w.enabled) w.add('photons-per-pulse', 'Photons per pulse', 'N_ph = Q / E_ph', [['Q', line.pulseEnergy, 'J'], ['E_ph', ePh, 'J']], photonsPerPulse, '');
 	}
 
 	// Path.
@@ -70,8 +70,8 @@ function compute(input: NormInput): AssessmentResult {
 	const lensNohd: LensNohdResult[] = path.lenses.map((lens) => {
 		const out = hazardDistance(line, index, input.nohdExposureDuration, { waist: lens.focalSpot, waistSymbol: 'd₀', divergence: lens.divergenceAfter, transmission: lens.transmission }, w, `lens${lens.index}.nohd`, used, `after the lens (element ${lens.index})`);
 		if (w.enabled) {
-			w.add(`lens${lens.index}.focal-spot`, `Focal spot of the lens (element ${lens.index}), 1/e`, 'd₀ = 2·M²·λ·f / (π·D_lens)', [['M²', line.beamQuality, ''], ['λ', line.wavelength, 'm'], ['f', lens.focalLength, 'm'], ['D_lens', lens.lensDiameter, 'm']], lens.focalSpot, 'm', 'Gaussian 1/e² waist 4·M²·λ·f/(π·D_lens,1/e²) rewritten on the 1/e basis.');
-			w.add(`lens${lens.index}.divergence`, `Divergence after the focus (element ${lens.index})`, 'φ = D_lens / f', [['D_lens', lens.lensDiameter, 'm'], ['f', lens.focalLength, 'm']], lens.divergenceAfter, 'rad');
+			if (w.enabled) w.add(`lens${lens.index}.focal-spot`, `Focal spot of the lens (element ${lens.index}), 1/e`, 'd₀ = 2·M²·λ·f / (π·D_lens)', [['M²', line.beamQuality, ''], ['λ', line.wavelength, 'm'], ['f', lens.focalLength, 'm'], ['D_lens', lens.lensDiameter, 'm']], lens.focalSpot, 'm', 'Gaussian 1/e² waist 4·M²·λ·f/(π·D_lens,1/e²) rewritten on the 1/e basis.');
+			if (w.enabled) w.add(`lens${lens.index}.divergence`, `Divergence after the focus (element ${lens.index})`, 'φ = D_lens / f', [['D_lens', lens.lensDiameter, 'm'], ['f', lens.focalLength, 'm']], lens.divergenceAfter, 'rad');
 		}
 		const handbook = out.deciding && !out.deciding.unbounded ? lens.focalLength.div(lens.lensDiameter).times(out.deciding.criticalDiameter) : null;
 		return {
@@ -85,7 +85,7 @@ function compute(input: NormInput): AssessmentResult {
 	});
 
 	// Points.
-	const ctx = { line, limits: index, photonEnergy: ePh, perPhoton: ONE.div(ePh), breakdown: input.breakdown, used };
+	const ctx = { line, limits: index, photonEnergy: ePh, perPhoton: ONE.div(ePh), plans: new Map(), breakdown: input.breakdown, used };
 	const points: PointResult[] = [];
 	const ratios: (Decimal | null)[] = [];
 	for (const p of input.points) {

@@ -4,7 +4,9 @@
  * a whole number (common practice: eyewear is specified by the next whole OD).
  */
 import Decimal from 'decimal.js';
-import { ONE, TEN, ZERO } from './constants';
+import { Dec, ONE, TEN, ZERO } from './constants';
+
+const ONE_TENTH = new Dec('0.1');
 import { log10 } from './fastmath';
 import { fmt } from './format';
 import type { OpticalDensity } from './types';
@@ -23,7 +25,7 @@ export function requiredOpticalDensity(ratio: Decimal): OdValue {
 	const settled = value.toDecimalPlaces(12, Decimal.ROUND_HALF_EVEN);
 	return {
 		value,
-		roundedUpTenth: settled.times(TEN).ceil().div(TEN),
+		roundedUpTenth: settled.times(TEN).ceil().times(ONE_TENTH),
 		roundedUpWhole: settled.ceil()
 	};
 }

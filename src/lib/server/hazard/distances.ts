@@ -61,7 +61,7 @@ export function criticalDiameter(x: Decimal, el: Decimal): Decimal {
 }
 
 export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, used: Set<NormLimit>, place: string): DistanceOutcome {
-	const plans = planChecks(line, exposureDuration, 'nohd.exposureDuration');
+	const plans = planChecks(line, exposureDuration);
 	const candidates: Candidate[] = [];
 	const withoutLimit: CheckKind[] = [];
 	const missing = new Set<string>();
@@ -70,7 +70,7 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 	for (const plan of plans) {
 		const t = plan.duration;
 		if (t === null) {
-			for (const m of plan.missing) missing.add(m);
+			missing.add('nohd.exposureDuration');
 			continue;
 		}
 		const applicable = limits.find('eye', plan.basis, t, plan.needsTrainExponent);
@@ -78,8 +78,8 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 			if (!plan.optional) withoutLimit.push(plan.kind);
 			continue;
 		}
-		if (plan.missing.length > 0) {
-			for (const m of plan.missing) missing.add(m);
+		if (plan.missingT) {
+			missing.add('nohd.exposureDuration');
 			continue;
 		}
 		const x = beam.transmission.times(plan.source);
@@ -146,9 +146,9 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 		limitForPlan(deciding.limit, deciding.plan, deciding.plan.duration!, w, `${prefix}.limit`);
 		if (deciding.plan.measure !== deciding.limit.quantity) {
 			const t = deciding.plan.duration!;
-			w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', limitForPlan(deciding.limit, deciding.plan, t, null, '').value, MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, t, 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
+			if (w.enabled) w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', limitForPlan(deciding.limit, deciding.plan, t, null, '').value, MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, t, 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
 		}
-		w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, deciding.criticalDiameter, 'm');
+		if (w.enabled) w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, deciding.criticalDiameter, 'm');
 	}
 	if (deciding.unbounded) {
 		return {
@@ -159,9 +159,9 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 	if (w.enabled) {
 		const dc = deciding.criticalDiameter;
 		if (deciding.distance!.isZero()) {
-			w.add(`${prefix}.distance`, 'Hazard distance', `0 when D_c ≤ max(${beam.waistSymbol}, D_f)`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['D_f', deciding.limit.limitingAperture, 'm']], ZERO, 'm');
+			if (w.enabled) w.add(`${prefix}.distance`, 'Hazard distance', `0 when D_c ≤ max(${beam.waistSymbol}, D_f)`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['D_f', deciding.limit.limitingAperture, 'm']], ZERO, 'm');
 		} else {
-			w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], deciding.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${fmt(deciding.linear!)} m.`);
+			if (w.enabled) w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], deciding.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${fmt(deciding.linear!)} m.`);
 		}
 	}
 	return {

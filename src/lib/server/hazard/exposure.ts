@@ -28,7 +28,7 @@ import { cosAcute, sqrt } from './fastmath';
 import { Working, type StepInput } from './breakdown';
 import { requiredOpticalDensity, writeOd } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
-import { fmt, fmtOrNull } from './format';
+import { fmt, fmtOrNull, toSignificantString } from './format';
 import { limitReciprocal, limitRef, limitValueAt, memoPow, type LimitIndex } from './limits';
 import type { NormLimit, NormLine, NormPoint } from './validate';
 import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Verdict } from './types';
@@ -63,17 +63,18 @@ export interface CheckPlan {
 	needsTrainExponent: boolean;
 	/** Optional checks are only reported when a limit for them exists. */
 	optional: boolean;
-	missing: string[];
+	/** The check needs the exposure duration T and it is missing. */
+	missingT: boolean;
 }
 
-export function planChecks(line: NormLine, T: Decimal | null, durationField: string): CheckPlan[] {
-	const missingT = T === null ? [durationField] : [];
+export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
+	const missingT = T === null;
 	if (line.mode === 'continuous') {
 		return [
-			{ kind: 'continuous', label: 'Continuous exposure', basis: 'continuous', duration: T, durationSymbol: 'T', measure: 'irradiance', source: line.power!, sourceSymbol: 'P₀', pointSymbol: 'P', sourceUnit: 'W', pulseCount: null, needsTrainExponent: false, optional: false, missing: missingT }
+			{ kind: 'continuous', label: 'Continuous exposure', basis: 'continuous', duration: T, durationSymbol: 'T', measure: 'irradiance', source: line.power!, sourceSymbol: 'P₀', pointSymbol: 'P', sourceUnit: 'W', pulseCount: null, needsTrainExponent: false, optional: false, missingT }
 		];
 	}
-	const single: CheckPlan = { kind: 'single_pulse', label: 'Single pulse', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount: null, needsTrainExponent: false, optional: false, missing: [] };
+	const single: CheckPlan = { kind: 'single_pulse', label: 'Single pulse', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount: null, needsTrainExponent: false, optional: false, missingT: false };
 	if (line.mode === 'single_pulse') return [single];
 	let pulseCount: Decimal | null = null;
 	if (T !== null) {
@@ -82,8 +83,8 @@ export function planChecks(line: NormLine, T: Decimal | null, durationField: str
 	}
 	return [
 		single,
-		{ kind: 'average_power', label: 'Average power over T', basis: 'continuous', duration: T, durationSymbol: 'T', measure: 'irradiance', source: line.averagePower!, sourceSymbol: 'P_avg,0', pointSymbol: 'P_avg', sourceUnit: 'W', pulseCount: null, needsTrainExponent: false, optional: false, missing: missingT },
-		{ kind: 'pulse_train', label: 'Pulse train', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount, needsTrainExponent: true, optional: true, missing: missingT }
+		{ kind: 'average_power', label: 'Average power over T', basis: 'continuous', duration: T, durationSymbol: 'T', measure: 'irradiance', source: line.averagePower!, sourceSymbol: 'P_avg,0', pointSymbol: 'P_avg', sourceUnit: 'W', pulseCount: null, needsTrainExponent: false, optional: false, missingT },
+		{ kind: 'pulse_train', label: 'Pulse train', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount, needsTrainExponent: true, optional: true, missingT }
 	];
 }
 
@@ -121,6 +122,8 @@ export interface PointContext {
 	photonEnergy: Decimal;
 	/** 1/E_ph, so that photon counts are products. */
 	perPhoton: Decimal;
+	/** Check plans by exposure duration (interned), shared by the points of the assessment. */
+	plans: Map<Decimal | null, CheckPlan[]>;
 	breakdown: boolean;
 	used: Set<NormLimit>;
 }
@@ -162,18 +165,18 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	// Beam at the point.
 	const tPath = beam.transmission;
 	if (beam.factors.length > 0) {
-		w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPath, '');
+		if (w.enabled) w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPath, '');
 	} else {
-		w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPath, '');
+		if (w.enabled) w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPath, '');
 	}
 	const s = beam.state;
 	const D = diameterAt(s, z);
-	w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', s.divergence, 'rad'], ['z', z, 'm'], ['z_w', s.waistPosition, 'm']], D, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
+	if (w.enabled) w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', s.divergence, 'rad'], ['z', z, 'm'], ['z_w', s.waistPosition, 'm']], D, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
 
 	const powerAtPoint = line.averagePower ? tPath.times(line.averagePower) : null;
 	const energyAtPoint = line.pulseEnergy ? tPath.times(line.pulseEnergy) : null;
-	if (powerAtPoint) w.add('power', line.mode === 'continuous' ? 'Power at the point' : 'Average power at the point', line.mode === 'continuous' ? 'P = T_path·P₀' : 'P_avg = T_path·P_avg,0', [['T_path', tPath, ''], [line.mode === 'continuous' ? 'P₀' : 'P_avg,0', line.averagePower!, 'W']], powerAtPoint, 'W');
-	if (energyAtPoint) w.add('energy', 'Pulse energy at the point', 'Q = T_path·Q₀', [['T_path', tPath, ''], ['Q₀', line.pulseEnergy!, 'J']], energyAtPoint, 'J');
+	if (powerAtPoint && w.enabled) w.add('power', line.mode === 'continuous' ? 'Power at the point' : 'Average power at the point', line.mode === 'continuous' ? 'P = T_path·P₀' : 'P_avg = T_path·P_avg,0', [['T_path', tPath, ''], [line.mode === 'continuous' ? 'P₀' : 'P_avg,0', line.averagePower!, 'W']], powerAtPoint, 'W');
+	if (energyAtPoint && w.enabled) w.add('energy', 'Pulse energy at the point', 'Q = T_path·Q₀', [['T_path', tPath, ''], ['Q₀', line.pulseEnergy!, 'J']], energyAtPoint, 'J');
 
 	// Diffuse geometry factor G = ρ·cosθ/(π·r²), m⁻².
 	let geometry: Decimal | null = null;
@@ -191,32 +194,32 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	if (!diffuse) {
 		if (powerAtPoint) {
 			irradiance = powerAtPoint.times(perArea);
-			w.add('irradiance', 'Irradiance of the beam at the point (1/e, no aperture averaging)', 'E_beam = P / (π·D²/4)', [['P', powerAtPoint, 'W'], ['D', D, 'm']], irradiance, 'W/m²');
+			if (w.enabled) w.add('irradiance', 'Irradiance of the beam at the point (1/e, no aperture averaging)', 'E_beam = P / (π·D²/4)', [['P', powerAtPoint, 'W'], ['D', D, 'm']], irradiance, 'W/m²');
 		}
 		if (energyAtPoint) {
 			pulseH = energyAtPoint.times(perArea);
-			w.add('pulse-exposure', 'Radiant exposure of one pulse at the point (1/e, no aperture averaging)', 'H_beam = Q / (π·D²/4)', [['Q', energyAtPoint, 'J'], ['D', D, 'm']], pulseH, 'J/m²');
+			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse at the point (1/e, no aperture averaging)', 'H_beam = Q / (π·D²/4)', [['Q', energyAtPoint, 'J'], ['D', D, 'm']], pulseH, 'J/m²');
 		}
 	} else if (geometry) {
 		const diffuseInputs = (sym: string, v: Decimal, u: string): StepInput[] => [['ρ', point.reflectance!, ''], [sym, v, u], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']];
 		if (powerAtPoint) {
 			irradiance = geometry.times(powerAtPoint);
-			w.add('irradiance', 'Irradiance of the diffuse reflection at the viewer', 'E = ρ·P·cosθ / (π·r²)', diffuseInputs('P', powerAtPoint, 'W'), irradiance, 'W/m²', 'Lambertian surface.');
+			if (w.enabled) w.add('irradiance', 'Irradiance of the diffuse reflection at the viewer', 'E = ρ·P·cosθ / (π·r²)', diffuseInputs('P', powerAtPoint, 'W'), irradiance, 'W/m²', 'Lambertian surface.');
 		}
 		if (energyAtPoint) {
 			pulseH = geometry.times(energyAtPoint);
-			w.add('pulse-exposure', 'Radiant exposure of one pulse of the diffuse reflection at the viewer', 'H = ρ·Q·cosθ / (π·r²)', diffuseInputs('Q', energyAtPoint, 'J'), pulseH, 'J/m²', 'Lambertian surface.');
+			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse of the diffuse reflection at the viewer', 'H = ρ·Q·cosθ / (π·r²)', diffuseInputs('Q', energyAtPoint, 'J'), pulseH, 'J/m²', 'Lambertian surface.');
 		}
 	}
 	let photonFluxDensity: Decimal | null = null;
 	let photonFluence: Decimal | null = null;
 	if (irradiance) {
 		photonFluxDensity = irradiance.times(ctx.perPhoton);
-		w.add('photon-flux-density', 'Photon flux density at the point', 'Φ_A = E / E_ph', [['E', irradiance, 'W/m²'], ['E_ph', photonEnergy, 'J']], photonFluxDensity, 's⁻¹·m⁻²');
+		if (w.enabled) w.add('photon-flux-density', 'Photon flux density at the point', 'Φ_A = E / E_ph', [['E', irradiance, 'W/m²'], ['E_ph', photonEnergy, 'J']], photonFluxDensity, 's⁻¹·m⁻²');
 	}
 	if (pulseH) {
 		photonFluence = pulseH.times(ctx.perPhoton);
-		w.add('photon-fluence', 'Photons per pulse per area at the point', 'N_A = H / E_ph', [['H', pulseH, 'J/m²'], ['E_ph', photonEnergy, 'J']], photonFluence, 'm⁻²');
+		if (w.enabled) w.add('photon-fluence', 'Photons per pulse per area at the point', 'N_A = H / E_ph', [['H', pulseH, 'J/m²'], ['E_ph', photonEnergy, 'J']], photonFluence, 'm⁻²');
 	}
 
 	// Checks.
@@ -227,10 +230,15 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	const allMissing = new Set<string>(missingPoint);
 	const used: NormLimit[] = [];
 
-	for (const plan of planChecks(line, T, `${at}.exposureDuration`)) {
+	let plans = ctx.plans.get(T);
+	if (!plans) {
+		plans = planChecks(line, T);
+		ctx.plans.set(T, plans);
+	}
+	for (const plan of plans) {
 		const t = plan.duration;
 		const limits = t === null ? [] : ctx.limits.find(point.tissue, plan.basis, t, plan.needsTrainExponent);
-		const missing = [...plan.missing, ...missingPoint];
+		const missing = plan.missingT ? [`${at}.exposureDuration`, ...missingPoint] : missingPoint;
 		// The optional pulse-train check is made only where a limit asks for it (τ is always known).
 		if (plan.optional && limits.length === 0) continue;
 		if (missing.length > 0 || t === null) {
@@ -261,29 +269,29 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			let averaging: Decimal | null = null;
 			if (diffuseExposure) {
 				exposureNat = diffuseExposure;
-				w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']], exposureNat, natUnit, 'Lambertian surface; no aperture averaging.');
+				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']], exposureNat, natUnit, 'Lambertian surface; no aperture averaging.');
 			} else {
 				const df = limit.limitingAperture;
 				averaging = D.gte(df) ? D : df;
-				w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', df, 'm']], averaging, 'm');
+				if (w.enabled) w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', df, 'm']], averaging, 'm');
 				if (averaging === D) exposureNat = atBeam ??= x.times(perArea);
 				else exposureNat = x.div(PI_OVER_4.times(averaging).times(averaging));
-				w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, x, plan.sourceUnit], ['D_avg', averaging, 'm']], exposureNat, natUnit);
+				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, x, plan.sourceUnit], ['D_avg', averaging, 'm']], exposureNat, natUnit);
 			}
 			let exposure = exposureNat;
 			if (limit.quantity !== plan.measure) {
 				if (plan.measure === 'irradiance') {
 					exposure = exposureNat.times(t);
-					w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNat, 'W/m²'], [plan.durationSymbol, t, 's']], exposure, 'J/m²');
+					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNat, 'W/m²'], [plan.durationSymbol, t, 's']], exposure, 'J/m²');
 				} else {
 					exposure = exposureNat.div(t);
-					w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
+					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
 				}
 			}
 			const lim = limitForPlan(limit, plan, t, w.enabled ? w : null, `${sid}.limit`);
 			const ratio = lim.trainFactor ? exposure.div(lim.value) : exposure.times(limitReciprocal(limit, t, lim.value));
 			const q = MEASURE_SYMBOL[limit.quantity];
-			w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, MEASURE_UNIT[limit.quantity]], ['EL', lim.value, MEASURE_UNIT[limit.quantity]]], ratio, '');
+			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, MEASURE_UNIT[limit.quantity]], ['EL', lim.value, MEASURE_UNIT[limit.quantity]]], ratio, '');
 
 			const cmp: Comparison = {
 				limit: { id: limit.id, version: limit.version, label: limit.label, citation: limit.citation },
@@ -325,7 +333,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			label: plan.label,
 			duration: fmt(t),
 			verdict: checkVerdict,
-			reason: `${checkVerdict === 'exceeds_limit' ? 'Exceeds' : 'Within'} “${b.limit.label}”: exposure is ${fmt(b.ratio.toSignificantDigits(4))} × the limit.`,
+			reason: `${checkVerdict === 'exceeds_limit' ? 'Exceeds' : 'Within'} “${b.limit.label}”: exposure is ${toSignificantString(b.ratio, 4)} × the limit.`,
 			ratio: fmt(b.ratio),
 			decidingLimit: limitRef(b.limit),
 			comparisons,
@@ -335,11 +343,11 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 	if (checks.length === 0) verdict = 'no_applicable_limit';
 	const od = worstRatio ? requiredOpticalDensity(worstRatio) : null;
-	if (od && worstRatio) w.add('optical-density', 'Optical density needed', 'OD = log₁₀(ratio) (0 when ratio ≤ 1)', [['ratio', worstRatio, '']], od.value, '', `Rounded up: ${fmt(od.roundedUpTenth)} (one decimal), ${fmt(od.roundedUpWhole)} (whole).`);
+	if (od && worstRatio && w.enabled) w.add('optical-density', 'Optical density needed', 'OD = log₁₀(ratio) (0 when ratio ≤ 1)', [['ratio', worstRatio, '']], od.value, '', `Rounded up: ${fmt(od.roundedUpTenth)} (one decimal), ${fmt(od.roundedUpWhole)} (whole).`);
 
 	let diffuseHazardDistance: DiffuseDistance | null = null;
 	if (diffuseDistance) {
-		w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', diffuseDistance.inputs, diffuseDistance.r, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
+		if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', diffuseDistance.inputs, diffuseDistance.r, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
 		diffuseHazardDistance = { distance: fmt(diffuseDistance.r), decidingLimit: limitRef(diffuseDistance.limit), check: diffuseDistance.check };
 	}
 

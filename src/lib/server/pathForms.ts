@@ -1,0 +1,131 @@
+// Loading and saving the beam-path editor, shared by the "new path" and "edit path" pages.
+import { error, redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { desc, eq } from 'drizzle-orm';
+import { pathFormSchema, type PathForm } from '$lib/schemas/register';
+import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import { db } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import { failForm } from '$lib/server/forms';
+import * as lasers from '$lib/server/lasers';
+import * as paths from '$lib/server/paths';
+import { orError } from '$lib/server/pages';
+import type { AssessmentResult } from '$lib/server/hazard';
+import { formatQuantity, type QuantityKind } from '$lib/units';
+
+const shown = (v: string | null, kind: QuantityKind | null) => (v === null ? '' : kind ? formatQuantity(v, kind, { significantDigits: 12 }) : String(Number(v)));
+
+function editorLines(detail: NonNullable<lasers.LaserDetail>) {
+	return detail.lines.map((l) => ({
+		id: l.id,
+		label: l.label,
+		mode: l.mode,
+		wavelength: l.wavelength,
+		power: l.power,
+		pulseEnergy: l.pulseEnergy,
+		pulseDuration: l.pulseDuration,
+		repetitionRate: l.repetitionRate,
+		beamDiameter: l.beamDiameter,
+		beamDiameterDefinition: l.beamDiameterDefinition,
+		divergence: l.divergence,
+		divergenceDefinition: l.divergenceDefinition,
+		beamQuality: l.beamQuality
+	}));
+}
+export type EditorLine = ReturnType<typeof editorLines>[number];
+
+export async function loadNewPath(locals: App.Locals, laserId: string) {
+	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const { detail, editable } = orError(await lasers.find(scope, laserId));
+	if (!editable || detail.laser.status === 'retired') error(403, { message: 'Only members of this laser’s lab and laser safety officers can add beam paths to it.' });
+	const visible = detail.lines[0]?.wavelength && Number(detail.lines[0].wavelength) >= 400e-9 && Number(detail.lines[0].wavelength) <= 700e-9;
+	const start: PathForm = {
+		lineId: detail.lines[0]?.id ?? '',
+		name: '',
+		purpose: '',
+		// Common practice: 0.25 s (aversion response) for visible beams, 10 s for invisible ones.
+		nohdExposureDuration: visible ? '0.25 s' : '10 s',
+		elements: [{ kind: 'propagate', label: '', length: '1 m', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '' }],
+		points: [{ key: 'new-1', label: 'End of the path', kind: 'intrabeam', tissue: 'eye', position: '1 m', exposureDuration: visible ? '0.25 s' : '10 s', reflectance: '', viewingAngle: '', viewingDistance: '' }],
+		version: 0
+	};
+	return {
+		laser: { id: detail.laser.id, name: `${detail.laser.maker} ${detail.laser.model}`, labCode: detail.lab.code },
+		lines: editorLines(detail),
+		form: await superValidate(start, zod4(pathFormSchema), { errors: false }),
+		pathId: null,
+		editable: true,
+		latest: null,
+		history: []
+	};
+}
+
+export async function loadPath(locals: App.Locals, pathId: string) {
+	const scope = await scopeOf(requireUser(locals));
+	const { detail, editable } = orError(await paths.find(scope, pathId));
+	const laser = orError(await lasers.find(scope, detail.laser.id));
+	const p = detail.path;
+	const values: PathForm = {
+		lineId: p.lineId,
+		name: p.name,
+		purpose: p.purpose,
+		nohdExposureDuration: shown(p.nohdExposureDuration, 'time'),
+		elements: detail.elements.map((e) => ({
+			kind: e.kind,
+			label: e.label,
+			length: shown(e.length, 'length'),
+			transmission: shown(e.transmission, null),
+			reflectance: shown(e.reflectance, null),
+			magnification: shown(e.magnification, null),
+			focalLength: shown(e.focalLength, 'length'),
+			coreDiameter: shown(e.coreDiameter, 'length'),
+			numericalAperture: shown(e.numericalAperture, null),
+			couplingTransmission: shown(e.couplingTransmission, null)
+		})),
+		points: detail.points.map((pt) => ({
+			key: pt.id,
+			label: pt.label,
+			kind: pt.kind,
+			tissue: pt.tissue,
+			position: shown(pt.position, 'length'),
+			exposureDuration: shown(pt.exposureDuration, 'time'),
+			reflectance: shown(pt.reflectance, null),
+			viewingAngle: shown(pt.viewingAngle, 'angle'),
+			viewingDistance: shown(pt.viewingDistance, 'length')
+		})),
+		version: p.version
+	};
+	const history = await db
+		.select({ id: table.assessment.id, createdAt: table.assessment.createdAt, verdict: table.assessment.verdict, cause: table.assessment.cause, worstRatio: table.assessment.worstRatio, stale: table.assessment.stale })
+		.from(table.assessment)
+		.where(eq(table.assessment.pathId, pathId))
+		.orderBy(desc(table.assessment.createdAt))
+		.limit(20);
+	return {
+		laser: { id: detail.laser.id, name: `${detail.laser.maker} ${detail.laser.model}`, labCode: detail.lab.code },
+		lines: editorLines(laser.detail),
+		form: await superValidate(values, zod4(pathFormSchema), { errors: false }),
+		pathId,
+		editable,
+		path: { stale: p.stale, flagged: p.flagged, verdict: p.verdict, staleReason: detail.latest?.staleReason ?? null },
+		latest: detail.latest ? { createdAt: detail.latest.createdAt.toISOString(), result: detail.latest.result as AssessmentResult | { errors: unknown[] }, cause: detail.latest.cause } : null,
+		history: history.map((h) => ({ ...h, createdAt: h.createdAt.toISOString() }))
+	};
+}
+
+export async function savePath(locals: App.Locals, request: Request, laserId: string | null, pathId: string | null) {
+	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const form = await superValidate(request, zod4(pathFormSchema));
+	if (!form.valid) return fail(400, { form });
+	let forLaser = laserId;
+	if (pathId) {
+		const found = await paths.find(scope, pathId);
+		if (!found.ok) return failForm(form, found);
+		forLaser = found.detail.laser.id;
+	}
+	const result = await paths.save(scope, forLaser!, pathId, form.data);
+	if (!result.ok) return failForm(form, result);
+	redirect(303, `/paths/${result.id}?saved=${result.verdict}`);
+}

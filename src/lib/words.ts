@@ -1,0 +1,35 @@
+// Beamwarden's words for states, shared by every screen. Status is always a word plus an icon.
+import type { IconName } from '$lib/components/Icon.svelte';
+
+export type Tone = 'alert' | 'caution' | 'calm' | 'quiet';
+export type StateWord = { word: string; icon: IconName; tone: Tone; hint: string };
+
+export const verdictWords: Record<string, StateWord> = {
+	within_limit: { word: 'within limit', icon: 'ok', tone: 'calm', hint: 'Every accessible point is below every applicable limit, as computed from the entered data.' },
+	exceeds_limit: { word: 'exceeds limit', icon: 'alert', tone: 'alert', hint: 'At least one accessible point exceeds an applicable limit.' },
+	no_applicable_limit: {
+		word: 'no applicable limit',
+		icon: 'blank',
+		tone: 'caution',
+		hint: 'No limit in the library covers this wavelength, tissue and duration. This is not a sign of safety.'
+	},
+	incomplete: { word: 'incomplete', icon: 'half', tone: 'caution', hint: 'Some input needed for the assessment is missing.' },
+	stale: { word: 'stale', icon: 'clock', tone: 'caution', hint: 'The path, its laser line or a limit changed since this assessment; it is being re-evaluated.' },
+	unassessed: { word: 'not yet assessed', icon: 'blank', tone: 'quiet', hint: 'No assessment has been saved for this path.' }
+};
+
+export const laserStatusWords: Record<string, string> = { active: 'in use', in_storage: 'in storage', retired: 'retired' };
+export const modeWords: Record<string, string> = { continuous: 'continuous', single_pulse: 'single pulse', repetitive: 'repetitively pulsed' };
+export const elementWords: Record<string, string> = {
+	propagate: 'Free space',
+	transmission: 'Window, filter or splitter branch',
+	mirror: 'Mirror',
+	expander: 'Beam expander or reducer',
+	lens: 'Focusing lens',
+	fibre: 'Fibre output',
+	enclosure: 'Enclosed section'
+};
+export const definitionWords: Record<string, string> = { '1/e': '1/e', '1/e2': '1/e²', fwhm: 'FWHM' };
+
+export const caution =
+	'Computed from the data entered here. It does not replace measurement; the laser safety officer and the applicable local code decide.';

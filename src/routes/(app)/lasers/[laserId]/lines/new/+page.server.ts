@@ -1,0 +1,10 @@
+import { loadLineForm, saveLineForm } from '../lineForm.server';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = ({ locals, params }) => loadLineForm(locals, params.laserId, null);
+
+export const actions: Actions = {
+	default: async function addLine({ locals, request, params }) {
+		return saveLineForm(locals, request, params.laserId, null);
+	}
+};

@@ -1,0 +1,39 @@
+import { json } from '@sveltejs/kit';
+import { newLaserSchema } from '$lib/schemas/register';
+import { inventoryQuerySchema } from '$lib/schemas/inventory';
+import { apiError, endpoint, fieldMessages, readJson } from '$lib/server/api';
+import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import * as lasers from '$lib/server/lasers';
+import type { RequestHandler } from './$types';
+
+export type InventoryResponse = lasers.InventoryPage;
+
+export const GET: RequestHandler = endpoint(async ({ locals, url }) => {
+	const user = requireUser(locals);
+	const raw = Object.fromEntries([...url.searchParams].filter(([, v]) => v !== ''));
+	const parsed = inventoryQuerySchema.safeParse(raw);
+	if (!parsed.success) return apiError(400, 'Some query parameters need attention.', fieldMessages(parsed.error));
+	const q = parsed.data;
+	const page = await lasers.inventory(await scopeOf(user), {
+		q: q.q,
+		labId: q.lab,
+		laserClass: q.class,
+		status: q.status,
+		band: q.band,
+		sort: q.sort,
+		dir: q.dir,
+		page: q.page,
+		pageSize: q.pageSize
+	});
+	return json(page satisfies InventoryResponse);
+});
+
+export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
+	const user = requireRole(locals, 'researcher', 'officer');
+	const body = await readJson(request, newLaserSchema);
+	if (!body.ok) return body.response;
+	const result = await lasers.create(await scopeOf(user), body.data);
+	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	return json({ id: result.id }, { status: 201 });
+});
