@@ -8,6 +8,7 @@
  * `assess`, and times it against a plain float64 (Number) implementation of the same per-point
  * arithmetic run on the same data in the same process. Also cross-checks that both agree.
  */
+import os from 'node:os';
 import { assess } from '../src/lib/server/hazard/index';
 import type { AssessmentInput, ElementInput, LimitInput, PointInput } from '../src/lib/server/hazard/index';
 
@@ -224,10 +225,16 @@ function f64(input: AssessmentInput): { points: F64Point[]; nohd: number } {
 }
 
 // ------------------------------------------------------------------ run
-function time<T>(fn: () => T): [T, number] {
+/** Wall time, and the CPU time of this process (steadier than wall time on a shared machine). */
+const cpuMs: Record<string, number> = {};
+function time<T>(fn: () => T, label: string): [T, number] {
+	const c0 = process.cpuUsage();
 	const t0 = process.hrtime.bigint();
 	const out = fn();
-	return [out, Number(process.hrtime.bigint() - t0) / 1e6];
+	const wall = Number(process.hrtime.bigint() - t0) / 1e6;
+	const c = process.cpuUsage(c0);
+	cpuMs[label] = (c.user + c.system) / 1000;
+	return [out, wall];
 }
 
 const register = Array.from({ length: PATHS }, (_, i) => makePath(i));
@@ -238,7 +245,7 @@ for (const p of register.slice(0, 300)) {
 }
 
 // Float64 first, on its own, so it does not pay for the engine's garbage.
-const [baseline, f64Ms] = time(() => register.map((p) => f64(p)));
+const [baseline, f64Ms] = time(() => register.map((p) => f64(p)), 'f64');
 
 interface Summary {
 	ok: boolean;
@@ -257,8 +264,8 @@ function runEngine(breakdown: boolean, measureJson: boolean): Summary[] {
 	}
 	return out;
 }
-const [results, engineMs] = time(() => runEngine(true, false));
-const [, engineLeanMs] = time(() => runEngine(false, false));
+const [results, engineMs] = time(() => runEngine(true, false), 'engine');
+const [, engineLeanMs] = time(() => runEngine(false, false), 'lean');
 const sized = runEngine(true, true).slice(0, 1000);
 
 // Cross-check: every worst ratio per point agrees with the float64 baseline.
@@ -290,10 +297,12 @@ const rssMB = process.resourceUsage().maxRSS / 1024;
 const avgKB = sized.reduce((a, s) => a + s.bytes, 0) / sized.length / 1024;
 console.log(`register: ${PATHS} paths, ${points} points, 3 limits per path; input errors: ${failures}`);
 console.log(`verdicts: ${JSON.stringify(counts)}`);
-console.log(`decimal engine (with breakdown):    ${engineMs.toFixed(0)} ms  (${((engineMs * 1000) / points).toFixed(1)} µs/point)`);
-console.log(`decimal engine (breakdown off):     ${engineLeanMs.toFixed(0)} ms`);
-console.log(`float64 baseline (same arithmetic): ${f64Ms.toFixed(1)} ms`);
-console.log(`ratio engine/baseline: ${(engineMs / f64Ms).toFixed(1)}× (with breakdown), ${(engineLeanMs / f64Ms).toFixed(1)}× (breakdown off)`);
+const cpus = os.cpus();
+console.log(`machine: ${cpus.length} × ${cpus[0]?.model ?? '?'}, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}; node ${process.version}`);
+console.log(`decimal engine (with breakdown):    ${engineMs.toFixed(0)} ms wall, ${cpuMs.engine.toFixed(0)} ms CPU  (${((engineMs * 1000) / points).toFixed(1)} µs/point wall)`);
+console.log(`decimal engine (breakdown off):     ${engineLeanMs.toFixed(0)} ms wall, ${cpuMs.lean.toFixed(0)} ms CPU`);
+console.log(`float64 baseline (same arithmetic): ${f64Ms.toFixed(1)} ms wall, ${cpuMs.f64.toFixed(0)} ms CPU`);
+console.log(`ratio engine/baseline (wall): ${(engineMs / f64Ms).toFixed(1)}× with breakdown, ${(engineLeanMs / f64Ms).toFixed(1)}× breakdown off`);
 console.log(`worst ratios vs float64: max relative difference ${maxRel.toExponential(2)}, null mismatches ${nullMismatch}`);
 console.log(`result JSON per path (with breakdown): ${avgKB.toFixed(1)} kB; peak RSS: ${rssMB.toFixed(0)} MB`);
 console.log(`target < 2000 ms for the register: ${engineMs < 2000 ? 'met' : 'NOT met'}; within 10× of float64: ${engineMs / f64Ms <= 10 ? 'met' : 'NOT met'}`);

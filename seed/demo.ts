@@ -18,3 +18,171 @@ export const demoUsers: DemoUser[] = [
 	{ email: 'marcus.oyel@northgate.example', name: 'Marcus Oyel', role: 'manager', password: 'amber-circuit-willow-28', labs: [] },
 	{ email: 'sam.lind@northgate.example', name: 'Sam Lind', role: 'admin', password: 'granite-orbit-pepper-91', labs: [] }
 ];
+
+import type { LimitForm } from '../src/lib/schemas/limits';
+import type { NewLaserForm, PathForm } from '../src/lib/schemas/register';
+
+const src =
+	'Demonstration value recalled from memory of the ICNIRP 2013 guidelines on limits of exposure to laser radiation (Health Physics 105(3):271–295); not checked against the text. Replace with the local code’s value.';
+
+/** A demonstration limit set: plausible values for the demo, never a substitute for the local code. */
+export const demoLimits: Omit<LimitForm, 'version' | 'validFrom' | 'validUntil' | 'demonstration'>[] = [
+	{ label: 'Eye, 400–700 nm, single pulse 100 fs – 5 µs', tissue: 'eye', wavelengthMin: '400 nm', wavelengthMax: '700 nm', durationMin: '1e-13 s', durationMax: '5 µs', quantity: 'radiant_exposure', k: '2e-3 J/m²', n: '0', limitingAperture: '7 mm', pulseBasis: 'single_pulse', pulseTrainExponent: '-0.25', citation: src },
+	{ label: 'Eye, 400–700 nm, 5 µs – 10 s', tissue: 'eye', wavelengthMin: '400 nm', wavelengthMax: '700 nm', durationMin: '5 µs', durationMax: '10 s', quantity: 'radiant_exposure', k: '18 J/m²', n: '0.75', limitingAperture: '7 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Eye, 400–700 nm, 10 s – 8 h', tissue: 'eye', wavelengthMin: '400 nm', wavelengthMax: '700 nm', durationMin: '10 s', durationMax: '30000 s', quantity: 'irradiance', k: '10 W/m²', n: '0', limitingAperture: '7 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Eye, 780–820 nm (CA ≈ 1.6), single pulse 100 fs – 5 µs', tissue: 'eye', wavelengthMin: '780 nm', wavelengthMax: '820 nm', durationMin: '1e-13 s', durationMax: '5 µs', quantity: 'radiant_exposure', k: '3.2e-3 J/m²', n: '0', limitingAperture: '7 mm', pulseBasis: 'single_pulse', pulseTrainExponent: '-0.25', citation: src },
+	{ label: 'Eye, 780–820 nm (CA ≈ 1.6), 5 µs – 10 s', tissue: 'eye', wavelengthMin: '780 nm', wavelengthMax: '820 nm', durationMin: '5 µs', durationMax: '10 s', quantity: 'radiant_exposure', k: '28.5 J/m²', n: '0.75', limitingAperture: '7 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Eye, 1050–1150 nm, single pulse 1 ns – 50 µs', tissue: 'eye', wavelengthMin: '1050 nm', wavelengthMax: '1150 nm', durationMin: '1 ns', durationMax: '50 µs', quantity: 'radiant_exposure', k: '2e-2 J/m²', n: '0', limitingAperture: '7 mm', pulseBasis: 'single_pulse', pulseTrainExponent: '-0.25', citation: src },
+	{ label: 'Eye, 1050–1150 nm, 50 µs – 10 s', tissue: 'eye', wavelengthMin: '1050 nm', wavelengthMax: '1150 nm', durationMin: '50 µs', durationMax: '10 s', quantity: 'radiant_exposure', k: '90 J/m²', n: '0.75', limitingAperture: '7 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Eye, 1500–1800 nm, 1 ns – 10 s', tissue: 'eye', wavelengthMin: '1500 nm', wavelengthMax: '1800 nm', durationMin: '1 ns', durationMax: '10 s', quantity: 'radiant_exposure', k: '1e4 J/m²', n: '0', limitingAperture: '3.5 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Eye, 1500–1800 nm, 10 s – 8 h', tissue: 'eye', wavelengthMin: '1500 nm', wavelengthMax: '1800 nm', durationMin: '10 s', durationMax: '30000 s', quantity: 'irradiance', k: '1000 W/m²', n: '0', limitingAperture: '3.5 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Eye, 2.6 µm – 1 mm, 100 ns – 10 s', tissue: 'eye', wavelengthMin: '2.6 µm', wavelengthMax: '1 mm', durationMin: '100 ns', durationMax: '10 s', quantity: 'radiant_exposure', k: '5600 J/m²', n: '0.25', limitingAperture: '3.5 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Eye, 2.6 µm – 1 mm, 10 s – 8 h', tissue: 'eye', wavelengthMin: '2.6 µm', wavelengthMax: '1 mm', durationMin: '10 s', durationMax: '30000 s', quantity: 'irradiance', k: '1000 W/m²', n: '0', limitingAperture: '3.5 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Skin, 400–1400 nm, 100 ns – 10 s', tissue: 'skin', wavelengthMin: '400 nm', wavelengthMax: '1400 nm', durationMin: '100 ns', durationMax: '10 s', quantity: 'radiant_exposure', k: '11000 J/m²', n: '0.25', limitingAperture: '3.5 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
+	{ label: 'Skin, 1.4 µm – 1 mm, 10 s – 8 h', tissue: 'skin', wavelengthMin: '1.4 µm', wavelengthMax: '1 mm', durationMin: '10 s', durationMax: '30000 s', quantity: 'irradiance', k: '1000 W/m²', n: '0', limitingAperture: '3.5 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src }
+];
+
+export const demoAreas = [
+	{ lab: 'UFL', name: 'Ultrafast LCA M2.14', building: 'Meridian Building', room: 'M2.14', interlockNotes: 'Door interlock on both entrances; beam shutter drops when opened.', signageNotes: 'Illuminated warning sign at each door.' },
+	{ lab: 'SPX', name: 'Spectroscopy LCA M1.07', building: 'Meridian Building', room: 'M1.07', interlockNotes: 'Key switch on the 532 nm laser; no door interlock.', signageNotes: 'Door sign; curtain at the entrance.' },
+	{ lab: 'HEL', name: 'Pulse Hall K0.02', building: 'Kestrel Annexe', room: 'K0.02', interlockNotes: 'Two-stage entry with interlocked inner door.', signageNotes: 'Illuminated sign linked to the flashlamp supply.' },
+	{ lab: 'MPC', name: 'Processing bay K0.11', building: 'Kestrel Annexe', room: 'K0.11', interlockNotes: 'Cell doors interlocked to the laser emission.', signageNotes: 'Signs on the cell and the bay door.' }
+] as const;
+
+type DemoLaser = { lab: string; area: string; owner: string; laser: Omit<NewLaserForm, 'labId'>; paths: Omit<PathForm, 'lineId' | 'version'>[] };
+
+const line = (l: Partial<NewLaserForm['line']>): NewLaserForm['line'] => ({
+	label: '',
+	mode: 'continuous',
+	wavelength: '',
+	wavelengthMax: '',
+	power: '',
+	pulseEnergy: '',
+	pulseDuration: '',
+	repetitionRate: '',
+	beamDiameter: '',
+	beamDiameterDefinition: '1/e2',
+	divergence: '',
+	divergenceDefinition: '1/e2',
+	beamQuality: '',
+	...l
+});
+const el = (kind: PathForm['elements'][number]['kind'], v: Partial<PathForm['elements'][number]> = {}): PathForm['elements'][number] => ({
+	kind,
+	label: '',
+	length: '',
+	transmission: '',
+	reflectance: '',
+	magnification: '',
+	focalLength: '',
+	coreDiameter: '',
+	numericalAperture: '',
+	couplingTransmission: '',
+	...v
+});
+let pointNo = 0;
+const pt = (label: string, position: string, v: Partial<PathForm['points'][number]> = {}): PathForm['points'][number] => ({
+	key: `demo-${++pointNo}`,
+	label,
+	kind: 'intrabeam',
+	tissue: 'eye',
+	position,
+	exposureDuration: '0.25 s',
+	reflectance: '',
+	viewingAngle: '',
+	viewingDistance: '',
+	...v
+});
+
+export const demoLasers: DemoLaser[] = [
+	{
+		lab: 'SPX',
+		area: 'Spectroscopy LCA M1.07',
+		owner: 'priya.raman@northgate.example',
+		laser: { maker: 'Verdant Photonics', model: 'Solace 5G', serial: 'VS5-20931', laserClass: '4', status: 'active', notes: 'Raman excitation source on table 2.', line: line({ label: '532 nm CW', wavelength: '532 nm', power: '5 W', beamDiameter: '2.25 mm', divergence: '0.5 mrad' }) },
+		paths: [
+			{
+				name: 'Raman excitation, table 2',
+				purpose: 'Excitation of samples in the Raman cell; a 10 % pick-off feeds the power monitor.',
+				nohdExposureDuration: '0.25 s',
+				elements: [el('propagate', { length: '0.4 m' }), el('mirror', { label: 'M1, dielectric' }), el('propagate', { length: '0.6 m' }), el('transmission', { label: 'pick-off to monitor, 90 % through', transmission: '0.9' }), el('propagate', { length: '0.3 m' }), el('lens', { label: 'f = 50 mm into the cell', focalLength: '50 mm' }), el('enclosure', { label: 'sample cell housing', length: '0.2 m' })],
+				points: [pt('Operator leaning over table 2', '0.5 m'), pt('Stray reflection off the cell window', '1.2 m', { kind: 'diffuse', reflectance: '0.04', viewingAngle: '20°', viewingDistance: '0.6 m' })]
+			}
+		]
+	},
+	{
+		lab: 'UFL',
+		area: 'Ultrafast LCA M2.14',
+		owner: 'priya.raman@northgate.example',
+		laser: { maker: 'Coldfront Lasers', model: 'Aurora 1K amplifier', serial: 'CA1K-0412', laserClass: '4', status: 'active', notes: 'Ti:sapphire regenerative amplifier.', line: line({ label: 'compressed output', mode: 'repetitive', wavelength: '800 nm', pulseEnergy: '4 mJ', pulseDuration: '35 fs', repetitionRate: '1 kHz', beamDiameter: '10 mm', divergence: '0.3 mrad', beamQuality: '1.3' }) },
+		paths: [
+			{
+				name: 'Compressor to the pump–probe table',
+				purpose: 'Pump arm of the pump–probe experiment.',
+				nohdExposureDuration: '10 s',
+				elements: [el('propagate', { length: '1.5 m' }), el('transmission', { label: '50:50 splitter, pump arm', transmission: '0.5' }), el('propagate', { length: '2 m' })],
+				points: [pt('Alignment at the periscope', '1 m', { exposureDuration: '10 s' }), pt('Pump arm at the delay stage', '3 m', { exposureDuration: '10 s' })]
+			}
+		]
+	},
+	{
+		lab: 'HEL',
+		area: 'Pulse Hall K0.02',
+		owner: 'tomas.weir@northgate.example',
+		laser: { maker: 'Kestrel Dynamics', model: 'QS-850 Nd:YAG', serial: 'KQ850-77', laserClass: '4', status: 'active', notes: 'Flashlamp-pumped, Q-switched.', line: line({ label: '1064 nm fundamental', mode: 'repetitive', wavelength: '1064 nm', pulseEnergy: '850 mJ', pulseDuration: '8 ns', repetitionRate: '10 Hz', beamDiameter: '9 mm', divergence: '0.5 mrad', beamQuality: '2' }) },
+		paths: [
+			{
+				name: 'Feed to target chamber B',
+				purpose: 'Expanded beam into the vacuum chamber; the last 2 m run in a tube.',
+				nohdExposureDuration: '10 s',
+				elements: [el('expander', { label: '2× Galilean expander', magnification: '2' }), el('propagate', { length: '3 m' }), el('enclosure', { label: 'beam tube to the chamber', length: '2 m' })],
+				points: [pt('Open stretch beside the expander', '1.5 m', { exposureDuration: '10 s' }), pt('Inside the tube', '4 m', { exposureDuration: '10 s' })]
+			}
+		]
+	},
+	{
+		lab: 'MPC',
+		area: 'Processing bay K0.11',
+		owner: 'tomas.weir@northgate.example',
+		laser: { maker: 'Fennwick Industrial', model: 'FL-20 fibre laser', serial: 'FW20-3310', laserClass: '4', status: 'active', notes: 'Welding head in cell 1.', line: line({ label: '1550 nm CW', wavelength: '1550 nm', power: '20 W', beamDiameter: '5 mm', divergence: '1 mrad' }) },
+		paths: [
+			{
+				name: 'Welding head in cell 1',
+				purpose: 'Collimated output focused by the welding head; the cell is closed in operation.',
+				nohdExposureDuration: '10 s',
+				elements: [el('enclosure', { label: 'cell 1 (closed)', length: '1 m' }), el('lens', { label: 'welding head, f = 150 mm', focalLength: '150 mm' }), el('propagate', { length: '0.6 m' })],
+				points: [pt('Inside the closed cell', '0.5 m', { exposureDuration: '10 s' }), pt('Service door open, 45 cm past the focus', '1.6 m', { exposureDuration: '10 s' })]
+			}
+		]
+	},
+	{
+		lab: 'SPX',
+		area: 'Spectroscopy LCA M1.07',
+		owner: 'priya.raman@northgate.example',
+		laser: { maker: 'Lumenara', model: 'BlueMark 405', serial: 'LB405-118', laserClass: '3B', status: 'active', notes: 'Fibre-coupled into the fluorescence microscope.', line: line({ label: '405 nm CW', wavelength: '405 nm', power: '100 mW', beamDiameter: '1.5 mm', divergence: '1.5 mrad' }) },
+		paths: [
+			{
+				name: 'Microscope coupling through ND 4',
+				purpose: 'Attenuated beam for alignment of the coupling optics.',
+				nohdExposureDuration: '0.25 s',
+				elements: [el('transmission', { label: 'ND 4 filter', transmission: '1e-4' }), el('propagate', { length: '2 m' })],
+				points: [pt('Alignment, after the ND 4 filter', '2 m')]
+			}
+		]
+	},
+	{
+		lab: 'MPC',
+		area: 'Processing bay K0.11',
+		owner: 'tomas.weir@northgate.example',
+		laser: { maker: 'Fennwick Industrial', model: 'CX-60 CO₂ cutter', serial: 'FWC60-051', laserClass: '4', status: 'active', notes: 'Flat-bed cutter with a hinged lid.', line: line({ label: '10.6 µm CW', wavelength: '10.6 µm', power: '60 W', beamDiameter: '6 mm', divergence: '2 mrad' }) },
+		paths: [
+			{
+				name: 'Cutting head over the bed',
+				purpose: 'Beam delivery to the cutting head; lid open during set-up.',
+				nohdExposureDuration: '10 s',
+				elements: [el('propagate', { length: '1 m' }), el('mirror', { label: 'gantry mirror' }), el('propagate', { length: '0.5 m' }), el('lens', { label: 'cutting lens, f = 127 mm', focalLength: '127 mm' }), el('propagate', { length: '0.3 m' })],
+				points: [pt('Hand under the head during set-up', '1.75 m', { tissue: 'skin', exposureDuration: '10 s' }), pt('Reflection off sheet metal', '1.8 m', { kind: 'diffuse', reflectance: '0.6', viewingAngle: '30°', viewingDistance: '1 m', exposureDuration: '10 s' })]
+			}
+		]
+	}
+];

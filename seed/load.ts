@@ -1,11 +1,17 @@
-// Loads the demo scenario. Safe to run twice: rows are keyed by lab code and e-mail.
-import { inArray, sql } from 'drizzle-orm';
-import { db, client } from '../src/lib/server/db';
-import * as table from '../src/lib/server/db/schema';
-import { hashPassword } from '../src/lib/server/auth/password';
-import { demoLabs, demoUsers } from './demo';
+// Loads the demo scenario through the app's own data modules, so demo rows are validated,
+// assessed and audited like any other. Safe to run twice: rows are keyed by lab code, e-mail,
+// area name, laser serial and limit label.
+import { eq, inArray, sql } from 'drizzle-orm';
+import { db, client } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import { hashPassword } from '$lib/server/auth/password';
+import { scopeOf } from '$lib/server/auth/scope';
+import * as lasers from '$lib/server/lasers';
+import * as limits from '$lib/server/limits';
+import * as paths from '$lib/server/paths';
+import { demoAreas, demoLabs, demoLasers, demoLimits, demoUsers } from './demo';
 
-export async function loadDemo(): Promise<{ labs: number; users: number }> {
+async function loadPeople() {
 	const hashes = await Promise.all(demoUsers.map((u) => hashPassword(u.password)));
 	return db.transaction(async (tx) => {
 		const labs = await tx.insert(table.lab).values([...demoLabs]).onConflictDoNothing({ target: table.lab.code }).returning();
@@ -25,6 +31,68 @@ export async function loadDemo(): Promise<{ labs: number; users: number }> {
 	});
 }
 
+async function userByEmail(email: string) {
+	const [u] = await db.select().from(table.user).where(eq(table.user.email, email));
+	return u;
+}
+
+async function loadLimits(officerId: string) {
+	const existing = new Set((await limits.list()).map((l) => l.label));
+	let added = 0;
+	for (const l of demoLimits) {
+		if (existing.has(l.label)) continue;
+		await limits.create(officerId, { ...l, demonstration: true, validFrom: '', validUntil: '', version: 0 });
+		added++;
+	}
+	return added;
+}
+
+async function loadRegister() {
+	const labRows = await db.select().from(table.lab);
+	const labId = new Map(labRows.map((l) => [l.code, l.id]));
+	const areaId = new Map<string, string>();
+	for (const a of demoAreas) {
+		const [found] = await db.select().from(table.area).where(eq(table.area.name, a.name));
+		if (found) {
+			areaId.set(a.name, found.id);
+			continue;
+		}
+		const [created] = await db.transaction(async (tx) => {
+			const rows = await tx.insert(table.area).values({ labId: labId.get(a.lab)!, name: a.name, building: a.building, room: a.room, interlockNotes: a.interlockNotes, signageNotes: a.signageNotes }).returning();
+			await tx.insert(table.auditLog).values({ actorId: null, action: 'seed.area', entity: 'area', entityId: rows[0].id, after: rows[0] });
+			return rows;
+		});
+		areaId.set(a.name, created.id);
+	}
+	let added = 0;
+	for (const d of demoLasers) {
+		const [exists] = await db.select({ id: table.laser.id }).from(table.laser).where(eq(table.laser.serial, d.laser.serial));
+		if (exists) continue;
+		const owner = await userByEmail(d.owner);
+		const scope = await scopeOf({ id: owner.id, email: owner.email, name: owner.name, role: owner.role, disabled: false });
+		const created = await lasers.create(scope, { ...d.laser, labId: labId.get(d.lab)! });
+		if (!created.ok) throw new Error(`demo laser ${d.laser.model}: ${JSON.stringify(created)}`);
+		await db.update(table.laser).set({ areaId: areaId.get(d.area)! }).where(eq(table.laser.id, created.id));
+		const [line] = await db.select().from(table.emissionLine).where(eq(table.emissionLine.laserId, created.id));
+		for (const p of d.paths) {
+			const saved = await paths.save(scope, created.id, null, { ...p, lineId: line.id, version: 0 });
+			if (!saved.ok) throw new Error(`demo path ${p.name}: ${JSON.stringify(saved)}`);
+		}
+		added++;
+	}
+	return added;
+}
+
+export async function loadDemo(): Promise<{ labs: number; users: number; limits: number; lasers: number }> {
+	const people = await loadPeople();
+	const officer = await userByEmail(demoUsers.find((u) => u.role === 'officer')!.email);
+	const limitCount = await loadLimits(officer.id);
+	const laserCount = await loadRegister();
+	// Demo paths were saved after the limits: nothing is left stale.
+	await paths.reassessStale(1000);
+	return { ...people, limits: limitCount, lasers: laserCount };
+}
+
 export async function isEmpty(): Promise<boolean> {
 	const [{ n }] = await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM "user"`);
 	return n === 0;
@@ -34,7 +102,7 @@ if (import.meta.url === `file://${process.argv[1]}`) {
 	const onlyIfEmpty = process.argv.includes('--if-empty');
 	if (!onlyIfEmpty || (await isEmpty())) {
 		const added = await loadDemo();
-		console.log(`Demo data: ${added.labs} labs and ${added.users} people added.`);
+		console.log(`Demo data: ${added.labs} labs, ${added.users} people, ${added.limits} limits, ${added.lasers} lasers added.`);
 	} else console.log('Database already holds data: demo data not loaded.');
 	await client.end();
 }

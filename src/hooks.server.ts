@@ -4,6 +4,7 @@ import { sequence } from '@sveltejs/kit/hooks';
 import { client } from '$lib/server/db';
 import { isDatabaseUnavailable } from '$lib/server/db/errors';
 import { readConfig } from '$lib/server/config';
+import { startJobs, stopJobs } from '$lib/server/jobs';
 import * as auth from '$lib/server/auth/session';
 import { allows, ruleFor } from '$lib/server/auth/policy';
 import { forbidden } from '$lib/server/auth/guard';
@@ -16,8 +17,20 @@ export const init: ServerInit = async () => {
 		console.error((e as Error).message);
 		process.exit(2);
 	}
-	process.on('sveltekit:shutdown', () => void client.end({ timeout: 5 }));
+	if (process.env.BEAMWARDEN_JOBS !== 'off') startJobsWhenReady();
+	process.on('sveltekit:shutdown', async () => {
+		await stopJobs();
+		await client.end({ timeout: 5 });
+	});
 };
+
+/** Start the queue workers; if the database is not up yet, keep trying without blocking requests. */
+function startJobsWhenReady(delay = 1000) {
+	startJobs(process.env.DATABASE_URL!).catch((e) => {
+		console.error(`job queue not started (${(e as Error).message}); retrying`);
+		setTimeout(() => startJobsWhenReady(Math.min(delay * 2, 30_000)), delay);
+	});
+}
 
 const isApi = (path: string) => path.startsWith('/api/');
 const unavailable = () =>

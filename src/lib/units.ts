@@ -97,7 +97,8 @@ function normaliseUnitText(text: string): string {
 		.trim()
 		.replace(/\u03bc/g, '\u00b5')
 		.replace(/\s*\/\s*/g, '/')
-		.replace(/\^2|(?<=[a-zA-Z])2$/g, '²');
+		.replace(/\^2/g, '²')
+		.replace(/([a-zA-Z])2$/, '$1²'); // 'cm2' → 'cm²' (no lookbehind: older browsers lack it)
 }
 
 function findUnit(kind: QuantityKind, text: string): UnitDef | 'ambiguous' | undefined {

@@ -38,17 +38,27 @@ function discover(dir = 'src/routes'): Endpoint[] {
 
 const endpoints = discover();
 let clients: Record<Role | 'anonymous' | 'disabled', APIRequestContext>;
-let sampleUserId: string;
+let sample: Record<string, string>;
 
 function urlOf(routeId: string, action?: string) {
-	const path = routeId.replace(/\/\([^)]+\)/g, '').replace('[userId]', sampleUserId) || '/';
+	const path = routeId.replace(/\/\([^)]+\)/g, '').replace(/\[(\w+)\]/g, (_, name: string) => sample[name]) || '/';
 	return action && action !== 'default' ? `${path}?/${action}` : path;
 }
 
 test.beforeAll(async () => {
 	const admin = await signedInClient(demo('admin'));
 	const list = (await (await admin.get('/api/admin/users')).json()) as { users: { id: string; email: string }[] };
-	sampleUserId = list.users.find((u) => u.email === demo('researcher').email)!.id;
+	// Records the demo researcher may see: a laser of their lab, its line and path, and a limit.
+	const inventory = await (await admin.get('/api/lasers?q=Solace')).json();
+	const laser = await (await admin.get(`/api/lasers/${inventory.items[0].id}`)).json();
+	const { limits } = await (await admin.get('/api/limits')).json();
+	sample = {
+		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
+		laserId: laser.laser.id,
+		lineId: laser.lines[0].id,
+		pathId: laser.paths[0].id,
+		limitId: limits[0].limitId
+	};
 	// A disabled person whose session was live before the disable
 	const person = { email: `disabled-${Date.now()}@test.example`, password: 'a long enough test passphrase' };
 	const created = await admin.post('/api/admin/users', { data: { name: 'Soon Disabled', email: person.email, role: 'officer', labIds: [], password: person.password } });
@@ -132,7 +142,7 @@ test('the session cookie is HttpOnly, SameSite=Lax, Secure, Path=/ and has no Do
 });
 
 test('no page data or API answer carries a hash or a token', async () => {
-	for (const url of ['/api/me', '/api/admin/users', `/api/admin/users/${sampleUserId}`, '/admin/users/__data.json', '/overview/__data.json']) {
+	for (const url of ['/api/me', '/api/admin/users', `/api/admin/users/${sample.userId}`, '/admin/users/__data.json', '/overview/__data.json']) {
 		const body = await (await clients.admin.get(url)).text();
 		expect(body, url).not.toMatch(/argon2|password_?hash|passwordHash/i);
 	}

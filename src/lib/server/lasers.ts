@@ -85,48 +85,14 @@ export async function inventory(scope: Scope, q: InventoryQuery): Promise<Invent
 		);
 	}
 	const condition = where.length ? and(...where) : undefined;
-	const counts = db
-		.select({
-			laserId: table.beamPath.laserId,
-			pathCount: sql<number>`count(*)::int`.as('path_count'),
-			flaggedCount: sql<number>`count(*) FILTER (WHERE ${table.beamPath.flagged})::int`.as('flagged_count'),
-			staleCount: sql<number>`count(*) FILTER (WHERE ${table.beamPath.stale})::int`.as('stale_count')
-		})
-		.from(table.beamPath)
-		.where(eq(table.beamPath.retired, false))
-		.groupBy(table.beamPath.laserId)
-		.as('counts');
-	const lines = db
-		.select({ laserId: table.emissionLine.laserId, lineCount: sql<number>`count(*)::int`.as('line_count') })
-		.from(table.emissionLine)
-		.groupBy(table.emissionLine.laserId)
-		.as('lines');
 	const order = sortColumns[q.sort];
-	const [items, [{ total }]] = await Promise.all([
+	// 1) the page of ids (filtered, sorted, limited) and the total, in parallel;
+	// 2) the rows of that page with their line and path counts, aggregated for those ids only.
+	const [pageIds, [{ total }]] = await Promise.all([
 		db
-			.select({
-				id: table.laser.id,
-				maker: table.laser.maker,
-				model: table.laser.model,
-				serial: table.laser.serial,
-				laserClass: table.laser.laserClass,
-				status: table.laser.status,
-				labCode: table.lab.code,
-				labName: table.lab.name,
-				areaName: table.area.name,
-				wavelengthMin: table.laser.wavelengthMin,
-				wavelengthMax: table.laser.wavelengthMax,
-				lineCount: sql<number>`coalesce(${lines.lineCount}, 0)`,
-				pathCount: sql<number>`coalesce(${counts.pathCount}, 0)`,
-				flaggedCount: sql<number>`coalesce(${counts.flaggedCount}, 0)`,
-				staleCount: sql<number>`coalesce(${counts.staleCount}, 0)`,
-				updatedAt: table.laser.updatedAt
-			})
+			.select({ id: table.laser.id })
 			.from(table.laser)
 			.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
-			.leftJoin(table.area, eq(table.area.id, table.laser.areaId))
-			.leftJoin(counts, eq(counts.laserId, table.laser.id))
-			.leftJoin(lines, eq(lines.laserId, table.laser.id))
 			.where(condition)
 			.orderBy(q.dir === 'asc' ? asc(order) : desc(order), asc(table.laser.id))
 			.limit(q.pageSize)
@@ -137,7 +103,53 @@ export async function inventory(scope: Scope, q: InventoryQuery): Promise<Invent
 			.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
 			.where(condition)
 	]);
-	return { items: items.map((r) => ({ ...r, updatedAt: r.updatedAt.toISOString() })), total, page: q.page, pageSize: q.pageSize };
+	if (pageIds.length === 0) return { items: [], total, page: q.page, pageSize: q.pageSize };
+	const ids = pageIds.map((r) => r.id);
+	const counts = db
+		.select({
+			laserId: table.beamPath.laserId,
+			pathCount: sql<number>`count(*)::int`.as('path_count'),
+			flaggedCount: sql<number>`count(*) FILTER (WHERE ${table.beamPath.flagged})::int`.as('flagged_count'),
+			staleCount: sql<number>`count(*) FILTER (WHERE ${table.beamPath.stale})::int`.as('stale_count')
+		})
+		.from(table.beamPath)
+		.where(and(inArray(table.beamPath.laserId, ids), eq(table.beamPath.retired, false)))
+		.groupBy(table.beamPath.laserId)
+		.as('counts');
+	const lines = db
+		.select({ laserId: table.emissionLine.laserId, lineCount: sql<number>`count(*)::int`.as('line_count') })
+		.from(table.emissionLine)
+		.where(inArray(table.emissionLine.laserId, ids))
+		.groupBy(table.emissionLine.laserId)
+		.as('lines');
+	const rows = await db
+		.select({
+			id: table.laser.id,
+			maker: table.laser.maker,
+			model: table.laser.model,
+			serial: table.laser.serial,
+			laserClass: table.laser.laserClass,
+			status: table.laser.status,
+			labCode: table.lab.code,
+			labName: table.lab.name,
+			areaName: table.area.name,
+			wavelengthMin: table.laser.wavelengthMin,
+			wavelengthMax: table.laser.wavelengthMax,
+			lineCount: sql<number>`coalesce(${lines.lineCount}, 0)`,
+			pathCount: sql<number>`coalesce(${counts.pathCount}, 0)`,
+			flaggedCount: sql<number>`coalesce(${counts.flaggedCount}, 0)`,
+			staleCount: sql<number>`coalesce(${counts.staleCount}, 0)`,
+			updatedAt: table.laser.updatedAt
+		})
+		.from(table.laser)
+		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
+		.leftJoin(table.area, eq(table.area.id, table.laser.areaId))
+		.leftJoin(counts, eq(counts.laserId, table.laser.id))
+		.leftJoin(lines, eq(lines.laserId, table.laser.id))
+		.where(inArray(table.laser.id, ids));
+	const byId = new Map(rows.map((r) => [r.id, r]));
+	const items = ids.map((id) => byId.get(id)!).map((r) => ({ ...r, updatedAt: r.updatedAt.toISOString() }));
+	return { items, total, page: q.page, pageSize: q.pageSize };
 }
 
 export type LaserDetail = Awaited<ReturnType<typeof loadDetail>>;

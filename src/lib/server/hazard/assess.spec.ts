@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { assess } from './assess';
 import { Dec, ENGINE_VERSION } from './constants';
 import { requiredOpticalDensity } from './density';
-import { DEMO_LIMITS, EYE_1064_PULSE, EYE_VISIBLE, EYE_VISIBLE_LONG, EYE_VISIBLE_PULSE, SKIN_LONG, cwLine, eyePoint, scenario } from './fixtures';
+import { DEMO_LIMITS, EYE_1064_PULSE, EYE_VISIBLE, EYE_VISIBLE_PULSE, SKIN_LONG, cwLine, eyePoint, scenario } from './fixtures';
 import type { AssessmentInput, AssessmentResult, LimitInput } from './types';
 
 function run(input: AssessmentInput): AssessmentResult {
@@ -45,10 +45,12 @@ describe('irradiance and averaging', () => {
 
 describe('NOHD', () => {
 	it('follows the closed form √(4P/(π·EL) − D₀²)/φ; the linear handbook form is also given', () => {
-		// Hand arithmetic with the formula (OSHA Technical Manual Sec. III Ch. 6 gives the linear form
-		// NOHD = (1/φ)·[(4P/(π·MPE))^½ − a]; from memory). 100 mW, 1 mm, 1 mrad as in the argon-ion CW
-		// example of a university guide to calculating NOHD (power and beam from that guide; the
-		// divergence of 1 mrad is assumed here), EL at 0.25 s.
+		// Formula: OSHA Technical Manual Sec. III Ch. 6 gives the linear form NOHD = (1/φ)·[(4P/(π·MPE))^½ − a]
+		// (from memory). Beam: 100 mW argon-ion, 1 mm at the aperture, as in Example 1 of the UK university
+		// guidance "Guide to calculating nominal optical hazard distance (NOHD)"; that guide's divergence and
+		// result were not retrieved, so φ = 1 mrad is assumed here and the figures are hand arithmetic.
+		// EL at 0.25 s (aversion response, common practice). The example is near-field enough for the two
+		// forms to differ by 1.4 %: closed form 70.72 m, linear form 69.72 m.
 		const r = run(scenario());
 		const dc = Math.sqrt((4 * 0.1) / (Math.PI * EL_VIS_025));
 		expect(rel(Number(r.nohd.distance), Math.sqrt(dc * dc - 1e-6) / 1e-3)).toBeLessThan(1e-9); // ≈ 70.72 m
@@ -59,8 +61,8 @@ describe('NOHD', () => {
 	});
 
 	it('is about 225 m for 1 W at 1 mrad in the visible (published figure)', () => {
-		// Source: a public laser-display safety text ("Nominal Ocular Hazard Distance – NOHD") states
-		// ≈ 225 m for a 1 W laser with 1 mrad divergence. Its MPE is not given there; with the 0.25 s
+		// Source: a public laser-display safety handbook page, "Nominal Ocular Hazard Distance – NOHD"
+		// (online flipbook), states ≈ 225 m for a 1 W laser with 1 mrad divergence. Its MPE is not given there; with the 0.25 s
 		// visible limit of 25.46 W/m² the closed form gives 223.6 m, and with 2.5 mW/cm² (common
 		// practice rounding) 225.7 m. The published figure is rounded: tolerance 1 %.
 		// The text gives no aperture diameter. With D₀ = 1 mm the closed form gives 223.6 m (−0.6 %) and

@@ -40,6 +40,7 @@ function compute(input: NormInput): AssessmentResult {
 
 	// Line quantities.
 	const ePh = photonEnergy(line.wavelength);
+	const perPhoton = ONE.div(ePh);
 	const eV = joulesToElectronvolts(ePh);
 	if (w.enabled) w.add('photon-energy', 'Photon energy', 'E_ph = h·c / λ', [['h', PLANCK_CONSTANT, 'J·s'], ['c', SPEED_OF_LIGHT, 'm/s'], ['λ', line.wavelength, 'm']], ePh, 'J', 'Exact SI 2019 constants.');
 	if (w.enabled) w.add('photon-energy-ev', 'Photon energy in electronvolts', 'E_ph[eV] = E_ph / e', [['E_ph', ePh, 'J'], ['e', ELEMENTARY_CHARGE, 'C']], eV, 'eV');
@@ -51,12 +52,12 @@ function compute(input: NormInput): AssessmentResult {
 	if (line.mode === 'repetitive') w.add('average-power', 'Average power', 'P_avg = Q·f', [['Q', line.pulseEnergy!, 'J'], ['f', line.repetitionRate!, 'Hz']], line.averagePower!, 'W');
 	if (line.peakPower) w.add('peak-power', 'Peak power', 'P_peak = Q / τ', [['Q', line.pulseEnergy!, 'J'], ['τ', line.pulseDuration!, 's']], line.peakPower, 'W');
 	if (line.averagePower) {
-		photonFlux = line.averagePower.div(ePh);
+		photonFlux = line.averagePower.times(perPhoton);
 		if (w.enabled) w.add('photon-flux', 'Photon flux', 'Φ = P / E_ph', [['P', line.averagePower, 'W'], ['E_ph', ePh, 'J']], photonFlux, 's⁻¹');
 	}
 	if (line.pulseEnergy) {
-		photonsPerPulse = line.pulseEnergy.div(ePh);
-		peakPhotonFlux = line.peakPower!.div(ePh);
+		photonsPerPulse = line.pulseEnergy.times(perPhoton);
+		peakPhotonFlux = line.peakPower!.times(perPhoton);
 		if (w.enabled) w.add('photons-per-pulse', 'Photons per pulse', 'N_ph = Q / E_ph', [['Q', line.pulseEnergy, 'J'], ['E_ph', ePh, 'J']], photonsPerPulse, '');
 	}
 
@@ -85,7 +86,7 @@ function compute(input: NormInput): AssessmentResult {
 	});
 
 	// Points.
-	const ctx = { line, limits: index, photonEnergy: ePh, perPhoton: ONE.div(ePh), plans: new Map(), breakdown: input.breakdown, used };
+	const ctx = { line, limits: index, photonEnergy: ePh, perPhoton, plans: new Map(), breakdown: input.breakdown, used };
 	const points: PointResult[] = [];
 	const ratios: (Decimal | null)[] = [];
 	for (const p of input.points) {

@@ -18,7 +18,7 @@
  * which is what a limiting aperture small against the beam would see (common practice).
  */
 import type Decimal from 'decimal.js';
-import { SQRT2, SQRT_LN2 } from './constants';
+import { INV_SQRT2, INV_SQRT_LN2, SQRT2, SQRT_LN2 } from './constants';
 import { sqrt } from './fastmath';
 import type { BeamDefinition } from './types';
 
@@ -28,9 +28,9 @@ export function toOneOverE(value: Decimal, definition: BeamDefinition): Decimal 
 		case '1/e':
 			return value;
 		case '1/e2':
-			return value.div(SQRT2);
+			return value.times(INV_SQRT2);
 		case 'fwhm':
-			return value.div(SQRT_LN2);
+			return value.times(INV_SQRT_LN2);
 	}
 }
 

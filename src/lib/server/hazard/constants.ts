@@ -1,8 +1,11 @@
 /**
  * Numeric context and physical constants for the hazard engine.
  *
- * All hazard arithmetic runs on one decimal.js clone (`Dec`) so that results do not depend on
- * binary floating point and so that a saved snapshot can be recomputed digit for digit.
+ * All hazard arithmetic runs on one decimal.js clone (`Dec`, 40 significant digits) so that results
+ * do not depend on binary floating point and a saved snapshot recomputes digit for digit.
+ * Precision policy (see fastmath.ts): + − × ÷ at 40 digits; square roots ≥ 30 digits; the few
+ * transcendental values (log₁₀ for the optical density, cos of a viewing angle, asin of a fibre NA)
+ * from float64 on the exact decimal argument, ≥ 14 digits. Results are written with 12.
  */
 import Decimal from 'decimal.js';
 
@@ -45,6 +48,10 @@ export const HALF_PI = PI.div(2);
 export const SQRT2 = TWO.sqrt();
 export const LN2 = Dec.ln(2);
 export const SQRT_LN2 = LN2.sqrt();
+/** Reciprocals, so that conversions by constants are multiplications (decimal division is slow). */
+export const INV_SQRT2 = ONE.div(SQRT2);
+export const INV_SQRT_LN2 = ONE.div(SQRT_LN2);
+export const INV_ELEMENTARY_CHARGE = ONE.div(ELEMENTARY_CHARGE);
 
 /** Emission wavelength range accepted by the engine, m (inclusive). */
 export const WAVELENGTH_MIN = new Dec('180e-9');

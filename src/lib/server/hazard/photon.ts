@@ -2,7 +2,7 @@
  * Photon quantities from the exact SI 2019 constants.
  */
 import type Decimal from 'decimal.js';
-import { ELEMENTARY_CHARGE, PLANCK_TIMES_C } from './constants';
+import { INV_ELEMENTARY_CHARGE, PLANCK_TIMES_C } from './constants';
 
 /** Photon energy E = h·c/λ, J (λ in m). */
 export function photonEnergy(wavelength: Decimal): Decimal {
@@ -11,7 +11,7 @@ export function photonEnergy(wavelength: Decimal): Decimal {
 
 /** Converts an energy in J to eV: E[eV] = E[J] / e. */
 export function joulesToElectronvolts(energy: Decimal): Decimal {
-	return energy.div(ELEMENTARY_CHARGE);
+	return energy.times(INV_ELEMENTARY_CHARGE);
 }
 
 /** Photons per second carried by a power P (W): Φ = P/E. Also photons per pulse Q/E, photon flux density E_irr/E. */

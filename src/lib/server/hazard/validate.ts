@@ -3,7 +3,7 @@
  * problem as a HazardInputError that names the field.
  */
 import type Decimal from 'decimal.js';
-import { Dec, HALF_PI, ONE, WAVELENGTH_MAX, WAVELENGTH_MIN, ZERO } from './constants';
+import { HALF_PI, ONE, WAVELENGTH_MAX, WAVELENGTH_MIN, ZERO } from './constants';
 import { ErrorList } from './errors';
 import { toOneOverE } from './beam';
 import { isMissing, optionalNumber, optionalText, requireEnum, requireNumber, requireText, type RangeRule } from './numbers';

@@ -1,0 +1,22 @@
+import { redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { limitFormSchema } from '$lib/schemas/limits';
+import { requireRole } from '$lib/server/auth/guard';
+import * as limits from '$lib/server/limits';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals }) => {
+	requireRole(locals, 'officer');
+	return { form: await superValidate(zod4(limitFormSchema)) };
+};
+
+export const actions: Actions = {
+	default: async function addLimit({ locals, request }) {
+		const officer = requireRole(locals, 'officer');
+		const form = await superValidate(request, zod4(limitFormSchema));
+		if (!form.valid) return fail(400, { form });
+		const { id } = await limits.create(officer.id, form.data);
+		redirect(303, `/limits/${id}`);
+	}
+};

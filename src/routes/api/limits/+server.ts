@@ -1,0 +1,18 @@
+import { json } from '@sveltejs/kit';
+import { limitFormSchema } from '$lib/schemas/limits';
+import { endpoint, readJson } from '$lib/server/api';
+import { requireRole, requireUser } from '$lib/server/auth/guard';
+import * as limits from '$lib/server/limits';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = endpoint(async ({ locals }) => {
+	requireUser(locals);
+	return json({ limits: await limits.list() });
+});
+
+export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
+	const officer = requireRole(locals, 'officer');
+	const body = await readJson(request, limitFormSchema);
+	if (!body.ok) return body.response;
+	return json(await limits.create(officer.id, body.data), { status: 201 });
+});

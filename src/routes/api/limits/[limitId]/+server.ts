@@ -1,0 +1,22 @@
+import { json } from '@sveltejs/kit';
+import { limitFormSchema } from '$lib/schemas/limits';
+import { apiError, endpoint, readJson } from '$lib/server/api';
+import { requireRole, requireUser } from '$lib/server/auth/guard';
+import * as limits from '$lib/server/limits';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
+	requireUser(locals);
+	const found = await limits.find(params.limitId);
+	return found ? json(found) : apiError(404, 'No such limit.');
+});
+
+/** A revision: a new version; `version` must be the current one. */
+export const PUT: RequestHandler = endpoint(async ({ locals, request, params }) => {
+	const officer = requireRole(locals, 'officer');
+	const body = await readJson(request, limitFormSchema);
+	if (!body.ok) return body.response;
+	const result = await limits.revise(officer.id, params.limitId, body.data);
+	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	return json(result);
+});

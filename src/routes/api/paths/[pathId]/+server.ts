@@ -1,0 +1,26 @@
+import { json } from '@sveltejs/kit';
+import { pathFormSchema } from '$lib/schemas/register';
+import { apiError, endpoint, readJson } from '$lib/server/api';
+import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import * as paths from '$lib/server/paths';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
+	const found = await paths.find(await scopeOf(requireUser(locals)), params.pathId);
+	if (!found.ok) return apiError(found.status, found.message);
+	const { path, elements, points, latest, line, lab } = found.detail;
+	return json({ path, lab, line, elements, points, latest, editable: found.editable });
+});
+
+/** Replace the path (values with units, as in the editor); `version` must be the one read. */
+export const PUT: RequestHandler = endpoint(async ({ locals, request, params }) => {
+	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const body = await readJson(request, pathFormSchema);
+	if (!body.ok) return body.response;
+	const found = await paths.find(scope, params.pathId);
+	if (!found.ok) return apiError(found.status, found.message);
+	const saved = await paths.save(scope, found.detail.laser.id, params.pathId, body.data);
+	if (!saved.ok) return apiError(saved.status, saved.message, saved.fields);
+	return json(saved);
+});
