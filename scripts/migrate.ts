@@ -22,7 +22,9 @@ export async function migrateDatabase(ownerUrl: string, appRole = 'beamwarden_ap
 			await sql`GRANT USAGE ON SCHEMA public TO ${role}`;
 			await sql`GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${role}`;
 			await sql`GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA public TO ${role}`;
-			await sql`REVOKE UPDATE, DELETE, TRUNCATE ON audit_log FROM ${role}`;
+			// Records a regulator may ask for are append-only for the app.
+			for (const t of ['audit_log', 'review_decision', 'required_control', 'review_reply'])
+				await sql`REVOKE UPDATE, DELETE, TRUNCATE ON ${sql(t)} FROM ${role}`;
 		}
 		await sql`SELECT pg_advisory_unlock(74201)`;
 	} finally {

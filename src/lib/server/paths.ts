@@ -8,6 +8,7 @@ import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { currentLimits, evaluate, latestFor, needsReview, type PathSnapshotInput } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
+import * as reviews from '$lib/server/reviews';
 import { ENGINE_VERSION, type AssessmentResult } from '$lib/server/hazard';
 import { pathToSI, type ElementSI, type PathForm, type PointSI } from '$lib/schemas/register';
 
@@ -110,12 +111,14 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		let before: unknown = null;
 		let id: string;
 		let version: number;
+		let previous: table.BeamPath;
 		const status = { verdict: result.verdict, flagged: needsReview(result.verdict), stale: false, updatedBy: scope.userId, updatedAt: now };
 		const common = { lineId: line.id, name: form.name, purpose: form.purpose, nohdExposureDuration: si.value.nohdExposureDuration, ...status };
 		if (pathId === null) {
 			const [created] = await tx.insert(table.beamPath).values({ laserId, createdBy: scope.userId, ...common }).returning();
 			id = created.id;
 			version = created.version;
+			previous = created;
 		} else {
 			if (!isUuid(pathId)) return notFound('beam path');
 			const old = await loadPath(pathId, tx);
@@ -127,6 +130,7 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 				.where(and(eq(table.beamPath.id, pathId), eq(table.beamPath.version, form.version)))
 				.returning();
 			if (!updated) return changedMeanwhile('beam path');
+			previous = { ...old.path, name: form.name };
 			id = pathId;
 			version = updated.version;
 			await tx.delete(table.pathElement).where(eq(table.pathElement.pathId, id));
@@ -152,6 +156,8 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			cause: 'save',
 			createdBy: scope.userId
 		});
+		const review = await reviews.afterSnapshot(tx, previous, result.verdict, 'save');
+		if (Object.keys(review).length) await tx.update(table.beamPath).set(review).where(eq(table.beamPath.id, id));
 		await audit.record(tx, {
 			actorId: scope.userId,
 			action: pathId === null ? 'path.create' : 'path.update',
@@ -206,7 +212,8 @@ export async function reassessStale(batch = 200): Promise<{ reassessed: number }
 				limitVersions: result?.limitsConsidered ?? limits.map((l) => ({ id: l.limitId, version: String(l.version) })),
 				cause: 'reassess'
 			});
-			await tx.update(table.beamPath).set({ verdict, flagged: needsReview(verdict), stale: false }).where(eq(table.beamPath.id, id));
+			const review = await reviews.afterSnapshot(tx, detail.path, verdict, 'reassess');
+			await tx.update(table.beamPath).set({ verdict, flagged: needsReview(verdict), stale: false, ...review }).where(eq(table.beamPath.id, id));
 			await audit.record(tx, { actorId: null, action: 'path.reassess', entity: 'beam_path', entityId: id, before: { verdict: detail.path.verdict }, after: { verdict } });
 			return true;
 		});

@@ -3,3 +3,4 @@ export * from './labs';
 export * from './audit';
 export * from './register';
 export * from './limits';
+export * from './reviews';

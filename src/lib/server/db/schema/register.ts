@@ -117,13 +117,19 @@ export const beamPath = pgTable(
 		/** The latest snapshot no longer reflects the path, its line or the limits it used. */
 		stale: boolean('stale').notNull().default(false),
 		retired: boolean('retired').notNull().default(false),
+		/** Where the path stands with the officer: derived from its snapshots and decisions, kept here for the queue. */
+		reviewState: text('review_state', { enum: ['not_needed', 'awaiting_review', 'cleared', 'returned'] }).notNull().default('not_needed'),
+		/** When it waits for review: since when (the queue is oldest first). */
+		awaitingSince: timestamp('awaiting_since', { withTimezone: true }),
+		/** The snapshot of the latest clearance, if any: the diff is shown against it. */
+		clearedAssessmentId: uuid('cleared_assessment_id'),
 		createdBy: text('created_by').references(() => user.id),
 		updatedBy: text('updated_by').references(() => user.id),
 		version: integer('version').notNull().default(1),
 		createdAt: created(),
 		updatedAt: updated()
 	},
-	(t) => [index('beam_path_laser_idx').on(t.laserId), index('beam_path_line_idx').on(t.lineId), index('beam_path_flagged_idx').on(t.flagged, t.stale)]
+	(t) => [index('beam_path_laser_idx').on(t.laserId), index('beam_path_line_idx').on(t.lineId), index('beam_path_flagged_idx').on(t.flagged, t.stale), index('beam_path_review_idx').on(t.reviewState, t.awaitingSince)]
 );
 
 export const pathElement = pgTable(

@@ -1,0 +1,120 @@
+// The eyewear store: items with their optical density per wavelength band, and whether a lab
+// holds eyewear that meets the controls of its cleared beam paths.
+import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { db } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as audit from '$lib/server/audit';
+import { canEdit, type Scope } from '$lib/server/auth/scope';
+import { changedMeanwhile, notFound, notYours, type Failure } from '$lib/server/failure';
+import { isUuid } from '$lib/server/lasers';
+import { adequacy, type AdequacyResult, type BandOnRecord } from '$lib/server/eyewearAdequacy';
+import type { EyewearForm } from '$lib/schemas/eyewear';
+import { parseQuantity } from '$lib/units';
+
+const si = (t: string) => {
+	const p = parseQuantity(t, 'wavelength');
+	if (!p.ok) throw new Error('eyewear band on an unchecked form');
+	return p.value.toString();
+};
+
+export async function list(scope: Scope) {
+	const items = await db
+		.select({ item: table.eyewear, labCode: table.lab.code })
+		.from(table.eyewear)
+		.innerJoin(table.lab, eq(table.lab.id, table.eyewear.labId))
+		.where(scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.eyewear.labId, scope.labIds) : sql`false`)
+		.orderBy(asc(table.lab.code), asc(table.eyewear.label));
+	const ids = items.map((i) => i.item.id);
+	const bands = ids.length ? await db.select().from(table.eyewearBand).where(inArray(table.eyewearBand.eyewearId, ids)).orderBy(asc(table.eyewearBand.wavelengthMin)) : [];
+	return items.map((i) => ({ ...i.item, labCode: i.labCode, bands: bands.filter((b) => b.eyewearId === i.item.id) }));
+}
+
+export async function find(scope: Scope, eyewearId: string) {
+	if (!isUuid(eyewearId)) return null;
+	const all = await list(scope);
+	return all.find((e) => e.id === eyewearId) ?? null;
+}
+
+export async function save(scope: Scope, eyewearId: string | null, form: EyewearForm): Promise<{ ok: true; id: string } | Failure> {
+	if (scope.role !== 'officer' || !canEdit(scope, form.labId)) return notYours('eyewear');
+	const values = {
+		labId: form.labId,
+		label: form.label,
+		location: form.location,
+		frame: form.frame,
+		condition: form.condition,
+		lastCheckedAt: form.lastCheckedAt ? new Date(form.lastCheckedAt + 'T00:00:00Z') : null
+	};
+	const bands = form.bands.map((b) => ({ wavelengthMin: si(b.wavelengthMin), wavelengthMax: si(b.wavelengthMax), od: b.od }));
+	return db.transaction(async (tx) => {
+		let id: string;
+		let before: unknown = null;
+		if (eyewearId === null) {
+			const [created] = await tx.insert(table.eyewear).values(values).returning();
+			id = created.id;
+		} else {
+			if (!isUuid(eyewearId)) return notFound('eyewear');
+			const [old] = await tx.select().from(table.eyewear).where(eq(table.eyewear.id, eyewearId));
+			if (!old) return notFound('eyewear');
+			before = { ...old, bands: await tx.select().from(table.eyewearBand).where(eq(table.eyewearBand.eyewearId, eyewearId)) };
+			const [updated] = await tx
+				.update(table.eyewear)
+				.set({ ...values, version: form.version + 1 })
+				.where(and(eq(table.eyewear.id, eyewearId), eq(table.eyewear.version, form.version)))
+				.returning();
+			if (!updated) return changedMeanwhile('eyewear');
+			id = eyewearId;
+			await tx.delete(table.eyewearBand).where(eq(table.eyewearBand.eyewearId, id));
+		}
+		await tx.insert(table.eyewearBand).values(bands.map((b) => ({ eyewearId: id, ...b })));
+		await audit.record(tx, { actorId: scope.userId, action: eyewearId ? 'eyewear.update' : 'eyewear.create', entity: 'eyewear', entityId: id, before, after: { ...values, bands } });
+		return { ok: true, id } as const;
+	});
+}
+
+/** Bands of a lab's usable eyewear (not retired, not damaged). */
+async function usableBands(labIds: string[]): Promise<Map<string, BandOnRecord[]>> {
+	const byLab = new Map<string, BandOnRecord[]>();
+	if (labIds.length === 0) return byLab;
+	const rows = await db
+		.select({ labId: table.eyewear.labId, eyewearId: table.eyewear.id, label: table.eyewear.label, wavelengthMin: table.eyewearBand.wavelengthMin, wavelengthMax: table.eyewearBand.wavelengthMax, od: table.eyewearBand.od })
+		.from(table.eyewearBand)
+		.innerJoin(table.eyewear, eq(table.eyewear.id, table.eyewearBand.eyewearId))
+		.where(and(inArray(table.eyewear.labId, labIds), eq(table.eyewear.retired, false), ne(table.eyewear.condition, 'damaged')));
+	for (const r of rows) byLab.set(r.labId, [...(byLab.get(r.labId) ?? []), r]);
+	return byLab;
+}
+
+export type EyewearCheck = { controlId: string; wavelength: string; minOd: string; result: AdequacyResult };
+
+/** For each cleared path (by id): the eyewear controls of its latest clearance against its lab's eyewear. */
+export async function checksForPaths(pathIds: string[]): Promise<Map<string, EyewearCheck[]>> {
+	const out = new Map<string, EyewearCheck[]>();
+	if (pathIds.length === 0) return out;
+	const rows = await db
+		.select({ pathId: table.beamPath.id, labId: table.laser.labId, control: table.requiredControl })
+		.from(table.beamPath)
+		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
+		.innerJoin(
+			table.reviewDecision,
+			sql`${table.reviewDecision.id} = (SELECT d.id FROM review_decision d WHERE d.path_id = ${table.beamPath.id} ORDER BY d.decided_at DESC LIMIT 1)`
+		)
+		.innerJoin(table.requiredControl, and(eq(table.requiredControl.decisionId, table.reviewDecision.id), eq(table.requiredControl.kind, 'eyewear')))
+		.where(and(inArray(table.beamPath.id, pathIds), eq(table.reviewDecision.decision, 'cleared')));
+	const bands = await usableBands([...new Set(rows.map((r) => r.labId))]);
+	for (const r of rows) {
+		const c = r.control;
+		if (c.wavelength === null || c.minOd === null) continue;
+		const check = { controlId: c.id, wavelength: c.wavelength, minOd: c.minOd, result: adequacy(bands.get(r.labId) ?? [], c.wavelength, c.minOd) };
+		out.set(r.pathId, [...(out.get(r.pathId) ?? []), check]);
+	}
+	return out;
+}
+
+/** The overall eyewear word for a path: the worst of its checks. */
+export function worstOf(checks: EyewearCheck[] | undefined): AdequacyResult['status'] | null {
+	if (!checks || checks.length === 0) return null;
+	if (checks.some((c) => c.result.status === 'none_on_record')) return 'none_on_record';
+	if (checks.some((c) => c.result.status === 'inadequate')) return 'inadequate';
+	return 'adequate';
+}

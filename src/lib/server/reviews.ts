@@ -1,0 +1,227 @@
+// The officer's review of flagged beam paths. A decision is an immutable record of who decided
+// what, when, on which assessment snapshot; a later decision supersedes it, nothing edits it.
+import { and, asc, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
+import { db, type Tx } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as audit from '$lib/server/audit';
+import { canRead, type Scope } from '$lib/server/auth/scope';
+import { failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { isUuid } from '$lib/server/lasers';
+import { needsReview } from '$lib/server/assessments';
+import { notify, officerIds } from '$lib/server/notifications';
+import type { DecisionForm } from '$lib/schemas/reviews';
+import { parseQuantity } from '$lib/units';
+
+type PathRow = typeof table.beamPath.$inferSelect;
+
+/**
+ * After a new snapshot of a path: where it stands with the officer. A path that is not shown to be
+ * within limit waits for review — again after a clearance, whose snapshot no longer matches. A
+ * returned path waits for its researcher, unless the researcher saved a change (cause 'save').
+ */
+export async function afterSnapshot(tx: Tx, path: PathRow, verdict: table.Assessment['verdict'], cause: 'save' | 'reassess'): Promise<Partial<PathRow>> {
+	if (!needsReview(verdict)) return { reviewState: 'not_needed', awaitingSince: null };
+	if (path.reviewState === 'returned' && cause === 'reassess') return {};
+	if (path.reviewState === 'awaiting_review') return {};
+	const again = path.reviewState === 'cleared';
+	await notify(tx, {
+		userIds: await officerIds(tx),
+		kind: 'path.flagged',
+		pathId: path.id,
+		title: again ? `Clearance of “${path.name}” is stale` : `“${path.name}” awaits review`,
+		body: again
+			? 'The path, its laser line or a limit it used changed after it was cleared. It is back on the review desk.'
+			: 'Its latest assessment is not within limit. Review the working and decide on the controls.'
+	});
+	return { reviewState: 'awaiting_review', awaitingSince: new Date() };
+}
+
+export type QueueFilter = { labId?: string; state?: 'awaiting_review' | 'returned' | 'cleared' | 'all' };
+
+/** Paths waiting for review (or as filtered), oldest first; one query for the page. */
+export async function queue(scope: Scope, filter: QueueFilter = {}) {
+	const where: SQL[] = [eq(table.beamPath.retired, false)];
+	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
+	if (filter.labId) where.push(eq(table.laser.labId, filter.labId));
+	const state = filter.state ?? 'awaiting_review';
+	if (state === 'all') where.push(sql`${table.beamPath.reviewState} <> 'not_needed'`);
+	else where.push(eq(table.beamPath.reviewState, state));
+	const latest = db
+		.selectDistinctOn([table.assessment.pathId], {
+			pathId: table.assessment.pathId,
+			worstRatio: table.assessment.worstRatio,
+			requiredOd: table.assessment.requiredOd,
+			verdict: table.assessment.verdict,
+			createdAt: table.assessment.createdAt
+		})
+		.from(table.assessment)
+		.orderBy(table.assessment.pathId, desc(table.assessment.createdAt))
+		.as('latest');
+	return db
+		.select({
+			pathId: table.beamPath.id,
+			pathName: table.beamPath.name,
+			reviewState: table.beamPath.reviewState,
+			stale: table.beamPath.stale,
+			cleared: sql<boolean>`${table.beamPath.clearedAssessmentId} IS NOT NULL`,
+			awaitingSince: table.beamPath.awaitingSince,
+			updatedAt: table.beamPath.updatedAt,
+			laserId: table.laser.id,
+			laserName: sql<string>`${table.laser.maker} || ' ' || ${table.laser.model}`,
+			labCode: table.lab.code,
+			wavelength: table.emissionLine.wavelength,
+			verdict: latest.verdict,
+			worstRatio: latest.worstRatio,
+			requiredOd: latest.requiredOd
+		})
+		.from(table.beamPath)
+		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
+		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
+		.innerJoin(table.emissionLine, eq(table.emissionLine.id, table.beamPath.lineId))
+		.leftJoin(latest, eq(latest.pathId, table.beamPath.id))
+		.where(and(...where))
+		.orderBy(asc(sql`coalesce(${table.beamPath.awaitingSince}, ${table.beamPath.updatedAt})`))
+		.limit(500);
+}
+
+export type QueueRow = Awaited<ReturnType<typeof queue>>[number];
+
+/** Counts for the overview: what waits for whom. */
+export async function counts(scope: Scope) {
+	const where: SQL[] = [eq(table.beamPath.retired, false)];
+	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
+	const [row] = await db
+		.select({
+			awaiting: sql<number>`count(*) FILTER (WHERE ${table.beamPath.reviewState} = 'awaiting_review')::int`,
+			returned: sql<number>`count(*) FILTER (WHERE ${table.beamPath.reviewState} = 'returned')::int`,
+			cleared: sql<number>`count(*) FILTER (WHERE ${table.beamPath.reviewState} = 'cleared')::int`,
+			stale: sql<number>`count(*) FILTER (WHERE ${table.beamPath.stale})::int`,
+			total: sql<number>`count(*)::int`
+		})
+		.from(table.beamPath)
+		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
+		.where(and(...where));
+	return row;
+}
+
+/** Every decision on a path, newest first, with its controls and the researcher's replies. */
+export async function history(pathId: string) {
+	const decisions = await db
+		.select({ d: table.reviewDecision, by: table.user.name })
+		.from(table.reviewDecision)
+		.innerJoin(table.user, eq(table.user.id, table.reviewDecision.decidedBy))
+		.where(eq(table.reviewDecision.pathId, pathId))
+		.orderBy(desc(table.reviewDecision.decidedAt));
+	const ids = decisions.map((r) => r.d.id);
+	const [controls, replies] = ids.length
+		? await Promise.all([
+				db.select().from(table.requiredControl).where(inArray(table.requiredControl.decisionId, ids)),
+				db
+					.select({ r: table.reviewReply, by: table.user.name })
+					.from(table.reviewReply)
+					.innerJoin(table.user, eq(table.user.id, table.reviewReply.authorId))
+					.where(inArray(table.reviewReply.decisionId, ids))
+					.orderBy(asc(table.reviewReply.createdAt))
+			])
+		: [[], []];
+	return decisions.map(({ d, by }) => ({
+		...d,
+		decidedByName: by,
+		controls: controls.filter((c) => c.decisionId === d.id),
+		replies: replies.filter((r) => r.r.decisionId === d.id).map((r) => ({ ...r.r, authorName: r.by }))
+	}));
+}
+
+export type Decision = Awaited<ReturnType<typeof history>>[number];
+
+/** Nobody clears a path they registered or last changed, whatever their role. */
+export function selfReviewReason(path: PathRow, officerId: string, latestBy: string | null): string | null {
+	if (path.createdBy === officerId) return 'You registered this beam path: another officer must review it.';
+	if (path.updatedBy === officerId || latestBy === officerId) return 'You made the latest change to this beam path: another officer must review it.';
+	return null;
+}
+
+export async function decide(officer: Scope, pathId: string, form: DecisionForm): Promise<{ ok: true; decisionId: string } | Failure> {
+	if (officer.role !== 'officer') return failure(403, 'Only a laser safety officer decides on reviews.');
+	if (!isUuid(pathId)) return notFound('beam path');
+	const controls = form.decision === 'cleared' ? form.controls : [];
+	const fields: Record<string, string> = {};
+	const wavelengths: (string | null)[] = controls.map((c, i) => {
+		if (c.kind !== 'eyewear') return null;
+		const p = parseQuantity(c.wavelength, 'wavelength');
+		if (!p.ok) fields[`controls.${i}.wavelength`] = p.reason;
+		return p.ok ? p.value.toString() : null;
+	});
+	if (Object.keys(fields).length) return fieldsNeedAttention(fields);
+	return db.transaction(async (tx) => {
+		const [path] = await tx.select().from(table.beamPath).where(eq(table.beamPath.id, pathId)).for('update');
+		if (!path) return notFound('beam path');
+		const [latest] = await tx.select().from(table.assessment).where(eq(table.assessment.pathId, pathId)).orderBy(desc(table.assessment.createdAt)).limit(1);
+		if (!latest) return failure(409, 'This path has no saved assessment to review yet.');
+		if (latest.id !== form.assessmentId)
+			return failure(409, 'The assessment changed while you were reviewing it. Nothing was saved; read the new working and decide again.');
+		if (path.stale) return failure(409, 'This assessment is stale and is being re-evaluated. Decide once the new result is in.');
+		const self = selfReviewReason(path, officer.userId, latest.createdBy);
+		if (self) return failure(403, self);
+		const [decision] = await tx
+			.insert(table.reviewDecision)
+			.values({
+				pathId,
+				assessmentId: latest.id,
+				decision: form.decision,
+				comments: form.comments,
+				reviewBy: form.reviewBy ? new Date(form.reviewBy + 'T00:00:00Z') : null,
+				decidedBy: officer.userId
+			})
+			.returning();
+		if (controls.length)
+			await tx.insert(table.requiredControl).values(
+				controls.map((c, i) => ({ decisionId: decision.id, kind: c.kind, minOd: c.kind === 'eyewear' ? c.minOd : null, wavelength: wavelengths[i], details: c.details }))
+			);
+		await tx
+			.update(table.beamPath)
+			.set({
+				reviewState: form.decision,
+				awaitingSince: null,
+				...(form.decision === 'cleared' ? { clearedAssessmentId: latest.id, flagged: false } : {})
+			})
+			.where(eq(table.beamPath.id, pathId));
+		const researchers = [path.createdBy, path.updatedBy].filter((x): x is string => !!x && x !== officer.userId);
+		await notify(tx, {
+			userIds: researchers,
+			kind: `review.${form.decision}`,
+			pathId,
+			title: form.decision === 'cleared' ? `“${path.name}” cleared with controls` : `“${path.name}” returned with comments`,
+			body: form.decision === 'cleared' ? `${controls.length} required control${controls.length === 1 ? '' : 's'}. ${form.comments}` : form.comments
+		});
+		await audit.record(tx, {
+			actorId: officer.userId,
+			action: `review.${form.decision}`,
+			entity: 'beam_path',
+			entityId: pathId,
+			before: { reviewState: path.reviewState },
+			after: { reviewState: form.decision, decisionId: decision.id, assessmentId: latest.id, controls }
+		});
+		return { ok: true, decisionId: decision.id } as const;
+	});
+}
+
+/** The researcher answers a returned review (they then change the path and save it). */
+export async function reply(scope: Scope, pathId: string, body: string): Promise<{ ok: true } | Failure> {
+	if (!isUuid(pathId)) return notFound('beam path');
+	const [row] = await db
+		.select({ path: table.beamPath, labId: table.laser.labId })
+		.from(table.beamPath)
+		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
+		.where(eq(table.beamPath.id, pathId));
+	if (!row) return notFound('beam path');
+	if (!canRead(scope, row.labId) || (scope.role !== 'researcher' && scope.role !== 'officer')) return notYours('beam path');
+	const [last] = await db.select().from(table.reviewDecision).where(eq(table.reviewDecision.pathId, pathId)).orderBy(desc(table.reviewDecision.decidedAt)).limit(1);
+	if (!last || last.decision !== 'returned') return failure(409, 'There is no returned review to answer.');
+	await db.transaction(async (tx) => {
+		const [r] = await tx.insert(table.reviewReply).values({ decisionId: last.id, authorId: scope.userId, body }).returning();
+		await notify(tx, { userIds: [last.decidedBy], kind: 'review.replied', pathId, title: `Reply on “${row.path.name}”`, body });
+		await audit.record(tx, { actorId: scope.userId, action: 'review.reply', entity: 'beam_path', entityId: pathId, after: r });
+	});
+	return { ok: true };
+}

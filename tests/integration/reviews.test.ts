@@ -1,0 +1,147 @@
+import { desc, eq, sql } from 'drizzle-orm';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { db } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as eyewear from '$lib/server/eyewear';
+import * as paths from '$lib/server/paths';
+import * as reviews from '$lib/server/reviews';
+import type { Scope } from '$lib/server/auth/scope';
+import type { DecisionForm } from '$lib/schemas/reviews';
+import { lasers, laserForm, limitForm, limits, makeLab, makeUser, pathForm, scopeFor } from './factories';
+
+let lab: { id: string };
+let researcher: Scope;
+let officer: Scope;
+let secondOfficer: Scope;
+
+beforeAll(async () => {
+	lab = await makeLab();
+	researcher = await scopeFor(await makeUser('researcher', [lab.id]));
+	officer = await scopeFor(await makeUser('officer'));
+	secondOfficer = await scopeFor(await makeUser('officer'));
+	await limits.create(officer.userId, limitForm({ label: `Review tests visible ${Date.now()}` }));
+	await paths.reassessStale(1000);
+});
+
+async function flaggedPath(by: Scope = researcher) {
+	const created = await lasers.create(by, laserForm(lab.id));
+	if (!created.ok) throw new Error('laser');
+	const found = await lasers.find(by, created.id);
+	if (!found.ok) throw new Error('laser');
+	const saved = await paths.save(by, created.id, null, pathForm(found.detail.lines[0].id));
+	if (!saved.ok) throw new Error(JSON.stringify(saved));
+	const p = await paths.find(by, saved.id);
+	if (!p.ok) throw new Error('path');
+	return { laserId: created.id, lineId: found.detail.lines[0].id, pathId: saved.id, detail: p.detail };
+}
+
+const clearance = (assessmentId: string): DecisionForm => ({
+	assessmentId,
+	decision: 'cleared',
+	comments: 'Enclose above bench height.',
+	reviewBy: '',
+	controls: [
+		{ kind: 'eyewear', minOd: '5', wavelength: '532 nm', details: '' },
+		{ kind: 'enclosure', minOd: '', wavelength: '', details: 'Tube from the splitter to the lens.' }
+	]
+});
+
+describe('review decisions', () => {
+	it('a flagged path waits for review and the officers are told', async () => {
+		const { pathId, detail } = await flaggedPath();
+		expect(detail.path.reviewState).toBe('awaiting_review');
+		const queue = await reviews.queue(officer);
+		expect(queue.map((q) => q.pathId)).toContain(pathId);
+		const told = await db.select().from(table.notification).where(eq(table.notification.pathId, pathId));
+		expect(told.map((n) => n.userId)).toEqual(expect.arrayContaining([officer.userId, secondOfficer.userId]));
+		expect(told.every((n) => n.kind === 'path.flagged')).toBe(true);
+	});
+
+	it('clears with controls, tells the researcher, and the eyewear check follows the lab’s store', async () => {
+		const { pathId, detail } = await flaggedPath();
+		const r = await reviews.decide(officer, pathId, clearance(detail.latest!.id));
+		expect(r.ok).toBe(true);
+		const after = await paths.find(officer, pathId);
+		expect(after.ok && after.detail.path.reviewState).toBe('cleared');
+		const [note] = await db.select().from(table.notification).where(eq(table.notification.kind, 'review.cleared')).orderBy(desc(table.notification.createdAt)).limit(1);
+		expect(note.userId).toBe(researcher.userId);
+
+		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('none_on_record');
+		const form = { labId: lab.id, label: 'G-1', location: 'door', frame: 'goggle', condition: 'good' as const, lastCheckedAt: '', version: 0 };
+		await eyewear.save(officer, null, { ...form, bands: [{ wavelengthMin: '520 nm', wavelengthMax: '540 nm', od: '4' }] });
+		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('inadequate');
+		await eyewear.save(officer, null, { ...form, label: 'G-2', bands: [{ wavelengthMin: '190 nm', wavelengthMax: '532 nm', od: '6' }] });
+		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('adequate');
+	});
+
+	it('refuses self-clearance: the officer who registered or last changed the path', async () => {
+		const mine = await flaggedPath(officer);
+		expect(await reviews.decide(officer, mine.pathId, clearance(mine.detail.latest!.id))).toMatchObject({ ok: false, status: 403 });
+		const theirs = await flaggedPath();
+		const form = pathForm(theirs.lineId, { version: theirs.detail.path.version, name: 'touched by the officer' });
+		const saved = await paths.save(secondOfficer, theirs.laserId, theirs.pathId, form);
+		if (!saved.ok) throw new Error('save');
+		const latest = await paths.find(secondOfficer, theirs.pathId);
+		if (!latest.ok) throw new Error('path');
+		expect(await reviews.decide(secondOfficer, theirs.pathId, clearance(latest.detail.latest!.id))).toMatchObject({ ok: false, status: 403 });
+		expect((await reviews.decide(officer, theirs.pathId, clearance(latest.detail.latest!.id))).ok).toBe(true);
+	});
+
+	it('refuses a decision on a snapshot that is no longer the latest', async () => {
+		const p = await flaggedPath();
+		const again = await paths.save(researcher, p.laserId, p.pathId, pathForm(p.lineId, { version: p.detail.path.version, name: 'changed' }));
+		expect(again.ok).toBe(true);
+		expect(await reviews.decide(officer, p.pathId, clearance(p.detail.latest!.id))).toMatchObject({ ok: false, status: 409 });
+	});
+
+	it('only officers decide', async () => {
+		const p = await flaggedPath();
+		expect(await reviews.decide(researcher, p.pathId, clearance(p.detail.latest!.id))).toMatchObject({ ok: false, status: 403 });
+	});
+
+	it('a change after clearance puts the path back in the queue, and the diff names it', async () => {
+		const p = await flaggedPath();
+		await reviews.decide(officer, p.pathId, clearance(p.detail.latest!.id));
+		const cleared = await paths.find(researcher, p.pathId);
+		if (!cleared.ok) throw new Error('path');
+		const form = pathForm(p.lineId, { version: cleared.detail.path.version });
+		form.elements[1].transmission = '0.2';
+		await paths.save(researcher, p.laserId, p.pathId, form);
+		const now = await paths.find(officer, p.pathId);
+		if (!now.ok) throw new Error('path');
+		expect(now.detail.path.reviewState).toBe('awaiting_review');
+		expect(now.detail.path.clearedAssessmentId).toBe(p.detail.latest!.id);
+		const { diffInputs } = await import('$lib/server/snapshotDiff');
+		const [old] = await db.select().from(table.assessment).where(eq(table.assessment.id, p.detail.latest!.id));
+		const changes = diffInputs(old.inputs as Record<string, unknown>, now.detail.latest!.inputs as Record<string, unknown>);
+		expect(changes).toContainEqual({ where: 'Element 2 (transmission, splitter, 10 % branch): Transmission', before: '0.1', after: '0.2' });
+	});
+
+	it('a returned path waits for its researcher, who answers and changes it', async () => {
+		const p = await flaggedPath();
+		const r = await reviews.decide(officer, p.pathId, { assessmentId: p.detail.latest!.id, decision: 'returned', comments: 'Add a beam stop after the lens.', reviewBy: '', controls: [] });
+		expect(r.ok).toBe(true);
+		expect((await reviews.reply(researcher, p.pathId, 'Beam stop added at 1.9 m.')).ok).toBe(true);
+		await paths.reassessStale();
+		let now = await paths.find(researcher, p.pathId);
+		expect(now.ok && now.detail.path.reviewState).toBe('returned');
+		if (!now.ok) throw new Error('path');
+		await paths.save(researcher, p.laserId, p.pathId, pathForm(p.lineId, { version: now.detail.path.version }));
+		now = await paths.find(researcher, p.pathId);
+		expect(now.ok && now.detail.path.reviewState).toBe('awaiting_review');
+		const h = await reviews.history(p.pathId);
+		expect(h[0].replies.map((x) => x.body)).toEqual(['Beam stop added at 1.9 m.']);
+	});
+
+	it('a decision cannot be altered after the fact, only superseded', async () => {
+		const p = await flaggedPath();
+		const r = await reviews.decide(officer, p.pathId, clearance(p.detail.latest!.id));
+		if (!r.ok) throw new Error('decide');
+		const code = (q: Promise<unknown>) => q.then(() => 'allowed', (e: { cause?: { code?: string } }) => e.cause?.code);
+		expect(await code(db.execute(sql`UPDATE review_decision SET decision = 'returned' WHERE id = ${r.decisionId}`))).toBe('42501');
+		expect(await code(db.execute(sql`DELETE FROM review_decision WHERE id = ${r.decisionId}`))).toBe('42501');
+		expect(await code(db.execute(sql`UPDATE required_control SET min_od = 1 WHERE decision_id = ${r.decisionId}`))).toBe('42501');
+		const h = await reviews.history(p.pathId);
+		expect(h[0].controls.map((c) => [c.kind, c.minOd])).toContainEqual(['eyewear', '5']);
+	});
+});
