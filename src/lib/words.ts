@@ -18,6 +18,19 @@ export const verdictWords: Record<string, StateWord> = {
 	unassessed: { word: 'not yet assessed', icon: 'blank', tone: 'quiet', hint: 'No assessment has been saved for this path.' }
 };
 
+export const reviewWords: Record<string, StateWord> = {
+	awaiting_review: { word: 'awaiting review', icon: 'clock', tone: 'caution', hint: 'Waiting for the laser safety officer.' },
+	cleared: { word: 'cleared with controls', icon: 'ok', tone: 'calm', hint: 'The laser safety officer cleared it with the required controls.' },
+	returned: { word: 'returned', icon: 'out', tone: 'alert', hint: 'The laser safety officer returned it with comments for the researcher.' },
+	not_needed: { word: 'no review needed', icon: 'blank', tone: 'quiet', hint: 'The latest assessment is within limit.' }
+};
+
+export const eyewearWords: Record<string, StateWord> = {
+	adequate: { word: 'adequate', icon: 'ok', tone: 'calm', hint: 'The lab holds usable eyewear of at least the required OD at this wavelength.' },
+	inadequate: { word: 'inadequate', icon: 'alert', tone: 'alert', hint: 'The lab’s eyewear covers this wavelength only below the required OD.' },
+	none_on_record: { word: 'none on record', icon: 'blank', tone: 'alert', hint: 'No usable eyewear of the lab has a band covering this wavelength.' }
+};
+
 export const laserStatusWords: Record<string, string> = { active: 'in use', in_storage: 'in storage', retired: 'retired' };
 export const modeWords: Record<string, string> = { continuous: 'continuous', single_pulse: 'single pulse', repetitive: 'repetitively pulsed' };
 export const elementWords: Record<string, string> = {

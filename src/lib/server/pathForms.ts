@@ -62,12 +62,10 @@ export async function loadNewPath(locals: App.Locals, laserId: string) {
 	};
 }
 
-export async function loadPath(locals: App.Locals, pathId: string) {
-	const scope = await scopeOf(requireUser(locals));
-	const { detail, editable } = orError(await paths.find(scope, pathId));
-	const laser = orError(await lasers.find(scope, detail.laser.id));
+/** A stored path as the editor's form values: SI numbers written back with their units. */
+export function formValues(detail: paths.PathDetail): PathForm {
 	const p = detail.path;
-	const values: PathForm = {
+	return {
 		lineId: p.lineId,
 		name: p.name,
 		purpose: p.purpose,
@@ -97,6 +95,14 @@ export async function loadPath(locals: App.Locals, pathId: string) {
 		})),
 		version: p.version
 	};
+}
+
+export async function loadPath(locals: App.Locals, pathId: string) {
+	const scope = await scopeOf(requireUser(locals));
+	const { detail, editable } = orError(await paths.find(scope, pathId));
+	const laser = orError(await lasers.find(scope, detail.laser.id));
+	const p = detail.path;
+	const values = formValues(detail);
 	const history = await db
 		.select({ id: table.assessment.id, createdAt: table.assessment.createdAt, verdict: table.assessment.verdict, cause: table.assessment.cause, worstRatio: table.assessment.worstRatio, stale: table.assessment.stale })
 		.from(table.assessment)

@@ -29,6 +29,7 @@ export const routePolicy: Record<string, RouteRule> = {
 	'/(app)/lasers/[laserId]/paths/new': { read: registerWriters, write: registerWriters },
 	'/(app)/paths/[pathId]': { read: everyone, write: registerWriters },
 	'/(app)/reviews': { read: everyone, write: nobody },
+	'/(app)/reviews/[pathId]': { read: everyone, write: registerWriters },
 	'/(app)/inspections': { read: everyone, write: nobody },
 	'/(app)/eyewear': { read: everyone, write: nobody },
 	'/(app)/limits': { read: everyone, write: nobody },

@@ -18,7 +18,7 @@
  * which is what a limiting aperture small against the beam would see (common practice).
  */
 import type Decimal from 'decimal.js';
-import { INV_SQRT2, INV_SQRT_LN2, SQRT2, SQRT_LN2 } from './constants';
+import { numbersOf } from './constants';
 import { sqrt } from './fastmath';
 import type { BeamDefinition } from './types';
 
@@ -28,9 +28,9 @@ export function toOneOverE(value: Decimal, definition: BeamDefinition): Decimal 
 		case '1/e':
 			return value;
 		case '1/e2':
-			return value.times(INV_SQRT2);
+			return value.times(numbersOf(value).INV_SQRT2);
 		case 'fwhm':
-			return value.times(INV_SQRT_LN2);
+			return value.times(numbersOf(value).INV_SQRT_LN2);
 	}
 }
 
@@ -40,9 +40,9 @@ export function fromOneOverE(value: Decimal, definition: BeamDefinition): Decima
 		case '1/e':
 			return value;
 		case '1/e2':
-			return value.times(SQRT2);
+			return value.times(numbersOf(value).SQRT2);
 		case 'fwhm':
-			return value.times(SQRT_LN2);
+			return value.times(numbersOf(value).SQRT_LN2);
 	}
 }
 
@@ -57,11 +57,26 @@ export interface BeamState {
 	waistDiameter: Decimal;
 	waistPosition: Decimal;
 	divergence: Decimal;
+	/** D_w², when already known (the path walk stores it once per stretch). */
+	waistSquared?: Decimal;
+}
+
+/** D(z)² = D_w² + (φ·(z − z_w))². */
+export function diameterSquaredAt(state: BeamState, z: Decimal): Decimal {
+	const w2 = state.waistSquared ?? state.waistDiameter.times(state.waistDiameter);
+	if (state.divergence.isZero() || z.eq(state.waistPosition)) return w2;
+	const spread = state.divergence.times(z.minus(state.waistPosition));
+	return w2.plus(spread.times(spread));
 }
 
 export function diameterAt(state: BeamState, z: Decimal): Decimal {
-	const spread = state.divergence.times(z.minus(state.waistPosition));
-	return sqrt(state.waistDiameter.times(state.waistDiameter).plus(spread.times(spread)));
+	return diameterFromSquare(state, z, diameterSquaredAt(state, z));
+}
+
+/** D(z) from D(z)²: the waist diameter itself where the beam has not spread, else the square root. */
+export function diameterFromSquare(state: BeamState, z: Decimal, d2: Decimal): Decimal {
+	if (state.divergence.isZero() || z.eq(state.waistPosition)) return state.waistDiameter;
+	return sqrt(d2);
 }
 
 /** D(r) = √(D₀² + (r·φ)²). */

@@ -1,30 +1,55 @@
 /**
  * Numeric context and physical constants for the hazard engine.
  *
- * All hazard arithmetic runs on one decimal.js clone (`Dec`, 40 significant digits) so that results
- * do not depend on binary floating point and a saved snapshot recomputes digit for digit.
- * Precision policy (see fastmath.ts): + − × ÷ at 40 digits; square roots ≥ 30 digits; the few
- * transcendental values (log₁₀ for the optical density, cos of a viewing angle, asin of a fibre NA)
- * from float64 on the exact decimal argument, ≥ 14 digits. Results are written with 12.
+ * All hazard arithmetic runs on decimal.js clones, so that results do not depend on binary floating
+ * point and a saved snapshot recomputes digit for digit. Two clones share one set of settings
+ * (round half to even, exponent notation below 1e-7 and from 1e15):
+ *
+ *  • `AssessmentDec`, ASSESSMENT_PRECISION = 25 significant digits: what assess() works in.
+ *  • `Dec`, WORKING_PRECISION = 40 significant digits: the reference clone. validate() and the
+ *    helper functions use it when called directly, and the engine can be run in it end to end
+ *    (assessAtPrecision in assess.ts) to check the 25-digit results against a 40-digit run.
+ *
+ * Every function works in the clone of the decimals it is given: constants come from `numbersOf(x)`,
+ * which returns them rounded to that clone's precision, so a 25-digit assessment never widens an
+ * operation to 40 digits and a 40-digit one never narrows it.
+ *
+ * Why 25 digits (error budget). Results are written with 12 significant digits. The longest chain
+ * behind a written value (1/e conversion, path walk, D² and its reciprocal, transmission, exposure,
+ * limit and ratio, square roots of hazard distances) takes at most a few dozen correctly rounded
+ * steps, each within half a unit of the 25th digit, so the value is within ~1e-22 relative of the
+ * exact one; a written 12th digit can only change if the exact value lies that close to a rounding
+ * boundary (probability ~1e-10 per written number). Sums and products of the short decimals that are
+ * entered (lengths, transmissions, powers) stay exact, so exact ties round as in a 40-digit run.
+ * precision.spec.ts checks that whole results, every written number included, are identical at 25
+ * and 40 digits over many random assessments. Below ~20 digits the chance of a changed 12th digit
+ * becomes measurable (1e-6 per number at 20 digits), while 25 digits costs little more than 20
+ * (decimal.js holds 7 digits per word: 4–5 words instead of 3–4, against 6–7 at 40).
+ * Square roots: ≥ 30 digits or the clone's precision, whichever is lower; log₁₀ (optical density),
+ * cos of a viewing angle and asin of a fibre NA: float64 on the exact decimal argument, ≥ 14 digits
+ * (see fastmath.ts).
  */
 import Decimal from 'decimal.js';
 
 /** Version of the computation. Bump whenever a formula, a rule or the result shape changes. */
 export const ENGINE_VERSION = 'beamwarden-hazard 1.0.0';
 
-/** Significant digits carried by the arithmetic. */
+/** Significant digits of `Dec`, the reference clone. */
 export const WORKING_PRECISION = 40;
+
+/** Significant digits carried by assess() (see the error budget above). */
+export const ASSESSMENT_PRECISION = 25;
 
 /** Significant digits written into results (decimal strings). */
 export const OUTPUT_SIGNIFICANT_DIGITS = 12;
 
-export const Dec = Decimal.clone({
-	precision: WORKING_PRECISION,
-	rounding: Decimal.ROUND_HALF_EVEN,
-	toExpNeg: -7,
-	toExpPos: 15
-});
+const SETTINGS = { rounding: Decimal.ROUND_HALF_EVEN, toExpNeg: -7, toExpPos: 15 } as const;
+
+export const Dec = Decimal.clone({ precision: WORKING_PRECISION, ...SETTINGS });
 export type Dec = Decimal;
+
+/** The clone assess() works in. */
+export const AssessmentDec = Decimal.clone({ precision: ASSESSMENT_PRECISION, ...SETTINGS });
 
 // Exact defining constants of the SI (2019 redefinition).
 /** Planck constant h, J·s (exact). */
@@ -61,3 +86,88 @@ export const WAVELENGTH_MAX = new Dec('1e-3');
 export const RESULT_CAUTION =
 	'Computed from the entered beam data and the exposure limits entered by the laser safety officer. ' +
 	'It does not replace measurement; the LSO and the applicable local code decide.';
+
+export type DecimalClone = typeof Dec;
+
+/**
+ * The constants of one clone, each rounded to its precision. Exact values (0, 1, h·c, …) are exact
+ * in every clone; the irrational ones come from the 40-digit values (π, √2 and ln 2 to 40 digits
+ * are correctly rounded by decimal.js) or, for clones wider than 40 digits, are computed afresh.
+ */
+export interface Numbers {
+	readonly D: DecimalClone;
+	readonly precision: number;
+	readonly ZERO: Decimal;
+	readonly ONE: Decimal;
+	readonly TWO: Decimal;
+	readonly THREE: Decimal;
+	readonly FOUR: Decimal;
+	readonly TEN: Decimal;
+	readonly HALF: Decimal;
+	readonly ONE_TENTH: Decimal;
+	readonly PI: Decimal;
+	readonly INV_PI: Decimal;
+	readonly PI_OVER_4: Decimal;
+	readonly FOUR_OVER_PI: Decimal;
+	readonly HALF_PI: Decimal;
+	readonly SQRT2: Decimal;
+	readonly SQRT_LN2: Decimal;
+	readonly INV_SQRT2: Decimal;
+	readonly INV_SQRT_LN2: Decimal;
+	readonly PLANCK_TIMES_C: Decimal;
+	readonly INV_ELEMENTARY_CHARGE: Decimal;
+}
+
+function buildNumbers(D: DecimalClone): Numbers {
+	const p = D.precision;
+	// Irrational constants: from a clone with 10 guard digits, then rounded once to p digits.
+	const W = p + 10 <= WORKING_PRECISION ? Dec : Decimal.clone({ precision: p + 10, ...SETTINGS });
+	const round = (x: Decimal) => new D(x).toSignificantDigits(p);
+	const pi = W.acos(-1);
+	const sqrt2 = new W(2).sqrt();
+	const sqrtLn2 = W.ln(2).sqrt();
+	return {
+		D,
+		precision: p,
+		ZERO: new D(0),
+		ONE: new D(1),
+		TWO: new D(2),
+		THREE: new D(3),
+		FOUR: new D(4),
+		TEN: new D(10),
+		HALF: new D('0.5'),
+		ONE_TENTH: new D('0.1'),
+		PI: round(pi),
+		INV_PI: round(new W(1).div(pi)),
+		PI_OVER_4: round(pi.div(4)),
+		FOUR_OVER_PI: round(new W(4).div(pi)),
+		HALF_PI: round(pi.div(2)),
+		SQRT2: round(sqrt2),
+		SQRT_LN2: round(sqrtLn2),
+		INV_SQRT2: round(new W(1).div(sqrt2)),
+		INV_SQRT_LN2: round(new W(1).div(sqrtLn2)),
+		PLANCK_TIMES_C: new D(PLANCK_TIMES_C),
+		INV_ELEMENTARY_CHARGE: round(new W(1).div(ELEMENTARY_CHARGE))
+	};
+}
+
+const byClone = new Map<DecimalClone, Numbers>();
+export function numbersFor(D: DecimalClone): Numbers {
+	let n = byClone.get(D);
+	if (!n) {
+		n = buildNumbers(D);
+		byClone.set(D, n);
+	}
+	return n;
+}
+
+/** Constants of the 25-digit assessment clone. */
+export const FAST: Numbers = numbersFor(AssessmentDec);
+/** Constants of the 40-digit reference clone. */
+export const REFERENCE: Numbers = numbersFor(Dec);
+
+/** The constants matching the clone of `x`. */
+export function numbersOf(x: Decimal): Numbers {
+	const D = (x as unknown as { constructor: DecimalClone }).constructor;
+	return D === AssessmentDec ? FAST : D === Dec ? REFERENCE : numbersFor(D);
+}

@@ -15,7 +15,7 @@ export class NonFiniteResultError extends Error {
 // The same decimal is often written several times within a few lines (a step's value is the next
 // step's input). A small ring of the last written instances, compared by identity, catches those
 // repeats; a WeakMap costs more on a miss than the formatting it saves.
-const RING = 32;
+const RING = 16;
 const ringKeys: (Decimal | null)[] = new Array(RING).fill(null);
 const ringValues: string[] = new Array(RING).fill('');
 let ringNext = 0;
@@ -26,7 +26,7 @@ export function fmt(d: Decimal, what = 'the computation'): string {
 	const s = toSignificantString(d, OUTPUT_SIGNIFICANT_DIGITS);
 	ringKeys[ringNext] = d;
 	ringValues[ringNext] = s;
-	ringNext = (ringNext + 1) % RING;
+	ringNext = (ringNext + 1) & (RING - 1);
 	return s;
 }
 
@@ -34,14 +34,94 @@ export function fmtOrNull(d: Decimal | null | undefined, what?: string): string 
 	return d === null || d === undefined ? null : fmt(d, what);
 }
 
+/** 10^i for i = 0 … 15, exact in float64. */
+const POW10 = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+const ZEROS = '00000000000000000000000000000000000000000000000000';
+
 /**
  * Same text as d.toSignificantDigits(sd).toString() under the engine's settings (round half to even,
  * exponent notation below 1e-7 and from 1e15), written straight from decimal.js's digit words
- * without building an intermediate decimal. Checked against decimal.js by a property test.
+ * (base 1e7) without building an intermediate decimal. Up to 14 digits the leading digits and the
+ * rounding remainder are read as integers below 2^53 (exact in float64); beyond, digit strings.
+ * Checked against decimal.js by a property test.
  */
 export function toSignificantString(d: Decimal, sd: number): string {
 	const words = (d as unknown as { d: number[] }).d;
-	if (words[0] === 0) return '0';
+	const w0 = words[0];
+	if (w0 === 0) return '0';
+	if (sd > 14) return toSignificantStringLong(d, sd);
+	const n = words.length;
+	// k: number of digits of the first word (1 … 7).
+	const k = w0 >= 1e4 ? (w0 >= 1e6 ? 7 : w0 >= 1e5 ? 6 : 5) : w0 >= 100 ? (w0 >= 1e3 ? 4 : 3) : w0 >= 10 ? 2 : 1;
+	const w1 = n > 1 ? words[1] : 0;
+	let q: number; // the leading sd digits, as an integer
+	let r: number; // the digits after them (within the words read), as an integer …
+	let p: number; // … out of p (r/p is the fraction of a unit in the last place)
+	let rest: number; // index of the first word not read
+	if (k + 7 >= sd) {
+		const hi = w0 * 1e7 + w1;
+		const drop = k + 7 - sd;
+		if (drop === 0) {
+			q = hi;
+			r = n > 2 ? words[2] : 0;
+			p = 1e7;
+			rest = 3;
+		} else {
+			p = POW10[drop];
+			q = Math.floor(hi / p);
+			r = hi - q * p;
+			rest = 2;
+		}
+	} else {
+		const ext = sd - k - 7; // 1 … 6 digits taken from the third word
+		const w2 = n > 2 ? words[2] : 0;
+		p = POW10[7 - ext];
+		const head = Math.floor(w2 / p);
+		q = (w0 * 1e7 + w1) * POW10[ext] + head;
+		r = w2 - head * p;
+		rest = 3;
+	}
+	let e = d.e;
+	const twice = 2 * r;
+	let up = twice > p;
+	if (!up && twice === p) {
+		let tail = false;
+		for (let j = rest; !tail && j < n; j++) tail = words[j] !== 0;
+		up = tail || q % 2 === 1;
+	}
+	if (up) {
+		q += 1;
+		if (q === POW10[sd]) {
+			q = POW10[sd - 1];
+			e += 1;
+		}
+	}
+	let digits = String(q);
+	let end = digits.length;
+	while (end > 1 && digits.charCodeAt(end - 1) === 48) end--;
+	if (end < digits.length) digits = digits.slice(0, end);
+	return place(digits, e, d.isNegative());
+}
+
+/** Lays out significant digits with decimal exponent e as decimal.js's toString does. */
+function place(digits: string, e: number, negative: boolean): string {
+	let out: string;
+	const len = digits.length;
+	if (e <= Dec.toExpNeg || e >= Dec.toExpPos) {
+		out = (len > 1 ? `${digits[0]}.${digits.slice(1)}` : digits) + (e < 0 ? 'e' : 'e+') + e;
+	} else if (e < 0) {
+		out = '0.' + ZEROS.slice(0, -e - 1) + digits;
+	} else if (e + 1 >= len) {
+		out = e + 1 === len ? digits : digits + ZEROS.slice(0, e + 1 - len);
+	} else {
+		out = `${digits.slice(0, e + 1)}.${digits.slice(e + 1)}`;
+	}
+	return negative ? `-${out}` : out;
+}
+
+/** The general case (more than 14 significant digits), from digit strings. */
+function toSignificantStringLong(d: Decimal, sd: number): string {
+	const words = (d as unknown as { d: number[] }).d;
 	// Read only as many 7-digit words as rounding needs; the rest only matters for a tie.
 	let digits = String(words[0]);
 	let w = 1;
@@ -67,16 +147,5 @@ export function toSignificantString(d: Decimal, sd: number): string {
 	}
 	let end = digits.length;
 	while (end > 1 && digits.charCodeAt(end - 1) === 48) end--;
-	digits = digits.slice(0, end);
-	let out: string;
-	if (e <= Dec.toExpNeg || e >= Dec.toExpPos) {
-		out = (digits.length > 1 ? `${digits[0]}.${digits.slice(1)}` : digits) + (e < 0 ? 'e' : 'e+') + e;
-	} else if (e < 0) {
-		out = `0.${'0'.repeat(-e - 1)}${digits}`;
-	} else if (e + 1 >= digits.length) {
-		out = digits + '0'.repeat(e + 1 - digits.length);
-	} else {
-		out = `${digits.slice(0, e + 1)}.${digits.slice(e + 1)}`;
-	}
-	return d.isNegative() ? `-${out}` : out;
+	return place(digits.slice(0, end), e, d.isNegative());
 }

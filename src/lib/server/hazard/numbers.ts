@@ -2,7 +2,7 @@
  * Reading numeric input (SI units) into decimals, with range checks that report a named field.
  */
 import type Decimal from 'decimal.js';
-import { Dec } from './constants';
+import { Dec, type DecimalClone } from './constants';
 import type { ErrorList } from './errors';
 
 /** Plain decimal notation, optionally with an exponent: '5', '-0.25', '.5', '1.2e-3'. */
@@ -14,32 +14,60 @@ export function isMissing(value: unknown): boolean {
 	return value === undefined || value === null || (typeof value === 'string' && value.trim() === '');
 }
 
-/** Turns a JSON number, numeric string, bigint or Decimal into a finite Decimal. */
-export function readDecimal(value: unknown): NumberRead {
-	if (isMissing(value)) return { ok: false, reason: 'is required.', missing: true };
-	if (typeof value === 'number') {
-		if (Number.isNaN(value)) return { ok: false, reason: 'is not a number (NaN).', missing: false };
-		if (!Number.isFinite(value)) return { ok: false, reason: 'must be finite, not Infinity.', missing: false };
-		return { ok: true, value: new Dec(value) };
-	}
-	if (typeof value === 'bigint') return { ok: true, value: new Dec(value.toString()) };
+/**
+ * Turns a JSON number, numeric string, bigint or Decimal into a finite Decimal of clone D (no
+ * rounding: every digit given is kept).
+ */
+export function readDecimal(value: unknown, D: DecimalClone = Dec): NumberRead {
 	if (typeof value === 'string') {
 		const text = value.trim();
+		if (DECIMAL_TEXT.test(text)) return { ok: true, value: new D(text) };
+		if (text === '') return { ok: false, reason: 'is required.', missing: true };
 		if (/^[+-]?(?:nan|infinity|inf)$/i.test(text)) {
 			return { ok: false, reason: `must be a finite number, not “${text}”.`, missing: false };
 		}
-		if (!DECIMAL_TEXT.test(text)) {
-			return { ok: false, reason: `“${text.slice(0, 40)}” is not a number in SI units (use digits, '.' and an optional exponent).`, missing: false };
-		}
-		return { ok: true, value: new Dec(text) };
+		return { ok: false, reason: `“${text.slice(0, 40)}” is not a number in SI units (use digits, '.' and an optional exponent).`, missing: false };
 	}
+	if (value === undefined || value === null) return { ok: false, reason: 'is required.', missing: true };
+	if (typeof value === 'number') {
+		if (Number.isNaN(value)) return { ok: false, reason: 'is not a number (NaN).', missing: false };
+		if (!Number.isFinite(value)) return { ok: false, reason: 'must be finite, not Infinity.', missing: false };
+		return { ok: true, value: new D(value) };
+	}
+	if (typeof value === 'bigint') return { ok: true, value: new D(value.toString()) };
 	if (value !== null && typeof value === 'object' && typeof (value as Decimal).isFinite === 'function' && typeof (value as Decimal).toString === 'function') {
 		const d = value as Decimal;
 		if (d.isNaN()) return { ok: false, reason: 'is not a number (NaN).', missing: false };
 		if (!d.isFinite()) return { ok: false, reason: 'must be finite, not Infinity.', missing: false };
-		return { ok: true, value: new Dec(d) };
+		return { ok: true, value: new D(d) };
 	}
 	return { ok: false, reason: 'must be a number.', missing: false };
+}
+
+/**
+ * Decimals read from text or JSON numbers that recur across assessments (wavelengths, exposure
+ * durations, limit fields), kept per clone so that they are parsed once and share one instance;
+ * the memos keyed by instance (limit values, photon energies) then hit across assessments too.
+ * Decimals are immutable, so sharing an instance is safe. Bounded: cleared when full.
+ */
+const READ_CACHE_MAX = 2048;
+const readCaches = new Map<DecimalClone, Map<string | number, Decimal>>();
+
+export function readDecimalCached(value: unknown, D: DecimalClone = Dec): NumberRead {
+	if ((typeof value !== 'string' && typeof value !== 'number') || value === 0) return readDecimal(value, D);
+	let cache = readCaches.get(D);
+	if (!cache) {
+		cache = new Map();
+		readCaches.set(D, cache);
+	}
+	const hit = cache.get(value);
+	if (hit) return { ok: true, value: hit };
+	const read = readDecimal(value, D);
+	if (read.ok) {
+		if (cache.size >= READ_CACHE_MAX) cache.clear();
+		cache.set(value, read.value);
+	}
+	return read;
 }
 
 export interface RangeRule {
@@ -54,9 +82,10 @@ export interface RangeRule {
 
 /**
  * Reads a required number and checks its range; on failure records an error and returns undefined.
+ * `cached`: the value is one that recurs across assessments (see readDecimalCached).
  */
-export function requireNumber(errors: ErrorList, field: string, value: unknown, rule?: RangeRule, label = 'This value'): Decimal | undefined {
-	const read = readDecimal(value);
+export function requireNumber(errors: ErrorList, field: string, value: unknown, rule?: RangeRule, label = 'This value', D: DecimalClone = Dec, cached = false): Decimal | undefined {
+	const read = cached ? readDecimalCached(value, D) : readDecimal(value, D);
 	if (!read.ok) {
 		errors.add(field, `${label} ${read.reason}`);
 		return undefined;
@@ -71,9 +100,9 @@ export function requireNumber(errors: ErrorList, field: string, value: unknown, 
 /**
  * Reads an optional number. Missing → `null` (no error). Present but bad → error, returns undefined.
  */
-export function optionalNumber(errors: ErrorList, field: string, value: unknown, rule?: RangeRule, label = 'This value'): Decimal | null | undefined {
+export function optionalNumber(errors: ErrorList, field: string, value: unknown, rule?: RangeRule, label = 'This value', D: DecimalClone = Dec, cached = false): Decimal | null | undefined {
 	if (isMissing(value)) return null;
-	return requireNumber(errors, field, value, rule, label);
+	return requireNumber(errors, field, value, rule, label, D, cached);
 }
 
 export function inRange(v: Decimal, rule: RangeRule): boolean {

@@ -1,0 +1,97 @@
+import { error, redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { and, eq, or } from 'drizzle-orm';
+import { decisionSchema, replySchema, type DecisionForm } from '$lib/schemas/reviews';
+import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import { db } from '$lib/server/db';
+import * as table from '$lib/server/db/schema';
+import * as eyewear from '$lib/server/eyewear';
+import { failForm } from '$lib/server/forms';
+import type { AssessmentInput, AssessmentResult } from '$lib/server/hazard';
+import { orError } from '$lib/server/pages';
+import { formValues } from '$lib/server/pathForms';
+import * as paths from '$lib/server/paths';
+import { exposureProfile } from '$lib/server/profile';
+import * as reviews from '$lib/server/reviews';
+import { diffInputs } from '$lib/server/snapshotDiff';
+import { formatQuantity } from '$lib/units';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+	const user = requireUser(locals);
+	const scope = await scopeOf(user);
+	const { detail, editable } = orError(await paths.find(scope, params.pathId));
+	const latest = detail.latest;
+	if (!latest) error(404, { message: 'This beam path has no saved assessment yet.' });
+	const result = 'engineVersion' in (latest.result as object) ? (latest.result as AssessmentResult) : null;
+	const inputs = latest.inputs as AssessmentInput;
+	const t = inputs.nohd?.exposureDuration ?? inputs.points.find((p) => p.tissue === 'eye')?.exposureDuration ?? null;
+	const profile = result ? exposureProfile(inputs, Number(result.pathLength), t === null || t === undefined ? null : String(t)) : null;
+
+	const used = result?.limitsUsed ?? [];
+	const limitRows = used.length
+		? await db
+				.select()
+				.from(table.exposureLimitVersion)
+				.where(or(...used.map((u) => and(eq(table.exposureLimitVersion.limitId, u.id), eq(table.exposureLimitVersion.version, Number(u.version))))))
+		: [];
+
+	let changes: ReturnType<typeof diffInputs> | null = null;
+	const clearedId = detail.path.clearedAssessmentId;
+	if (clearedId && clearedId !== latest.id) {
+		const [cleared] = await db.select({ inputs: table.assessment.inputs }).from(table.assessment).where(eq(table.assessment.id, clearedId));
+		if (cleared) changes = diffInputs(cleared.inputs as Record<string, unknown>, inputs as unknown as Record<string, unknown>);
+	}
+	const history = await reviews.history(detail.path.id);
+	const checks = (await eyewear.checksForPaths([detail.path.id])).get(detail.path.id) ?? [];
+	const self = user.role === 'officer' ? reviews.selfReviewReason(detail.path, user.id, latest.createdBy) : null;
+	const worstOd = result?.requiredOpticalDensity?.roundedUpWhole ?? null;
+	const start: DecisionForm = {
+		assessmentId: latest.id,
+		decision: 'cleared',
+		comments: '',
+		reviewBy: '',
+		controls:
+			worstOd && Number(worstOd) > 0
+				? [{ kind: 'eyewear', minOd: String(Number(worstOd)), wavelength: formatQuantity(detail.line.wavelength, 'wavelength', { significantDigits: 8 }), details: '' }]
+				: []
+	};
+	const lastDecision = history[0] ?? null;
+	return {
+		path: { ...detail.path, createdAt: detail.path.createdAt.toISOString(), updatedAt: detail.path.updatedAt.toISOString() },
+		laser: { id: detail.laser.id, name: `${detail.laser.maker} ${detail.laser.model}`, laserClass: detail.laser.laserClass },
+		lab: detail.lab,
+		form: formValues(detail),
+		snapshot: { id: latest.id, createdAt: latest.createdAt.toISOString(), cause: latest.cause, stale: latest.stale, staleReason: latest.staleReason, result, errors: result ? null : (latest.result as { errors: unknown[] }).errors },
+		profile,
+		limits: limitRows.map((l) => ({ id: l.limitId, version: l.version, label: l.label, citation: l.citation, demonstration: l.demonstration, tissue: l.tissue })),
+		changes,
+		history: history.map((h) => ({ ...h, decidedAt: h.decidedAt.toISOString(), reviewBy: h.reviewBy?.toISOString().slice(0, 10) ?? null, replies: h.replies.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() })) })),
+		eyewearChecks: checks,
+		decide: user.role === 'officer' ? { allowed: !self && !detail.path.stale, reason: self ?? (detail.path.stale ? 'The assessment is being re-evaluated; decide once the new result is in.' : null) } : null,
+		decisionForm: await superValidate(start, zod4(decisionSchema), { errors: false, id: 'decision' }),
+		replyForm: await superValidate(zod4(replySchema), { id: 'reply' }),
+		canReply: editable && lastDecision?.decision === 'returned'
+	};
+};
+
+export const actions: Actions = {
+	decide: async function decideReview({ locals, request, params }) {
+		const officer = await scopeOf(requireRole(locals, 'officer'));
+		const form = await superValidate(request, zod4(decisionSchema));
+		if (!form.valid) return fail(400, { decisionForm: form });
+		const result = await reviews.decide(officer, params.pathId, form.data);
+		if (!result.ok) return failForm(form, result);
+		redirect(303, `/reviews/${params.pathId}?decided=${form.data.decision}`);
+	},
+	reply: async function replyToReview({ locals, request, params }) {
+		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const form = await superValidate(request, zod4(replySchema));
+		if (!form.valid) return fail(400, { replyForm: form });
+		const result = await reviews.reply(scope, params.pathId, form.data.body);
+		if (!result.ok) return failForm(form, result);
+		redirect(303, `/reviews/${params.pathId}?replied=1`);
+	}
+};
