@@ -186,3 +186,24 @@ export const demoLasers: DemoLaser[] = [
 		]
 	}
 ];
+
+import type { EyewearForm } from '../src/lib/schemas/eyewear';
+
+export const demoEyewear: (Omit<EyewearForm, 'labId' | 'version'> & { lab: string })[] = [
+	{ lab: 'HEL', label: 'HEL-G1', location: 'hook by the inner door', frame: 'goggle', condition: 'good', lastCheckedAt: '2026-09-14', bands: [{ wavelengthMin: '1000 nm', wavelengthMax: '1100 nm', od: '7' }, { wavelengthMin: '530 nm', wavelengthMax: '535 nm', od: '2' }] },
+	{ lab: 'HEL', label: 'HEL-G2', location: 'hook by the inner door', frame: 'goggle', condition: 'damaged', lastCheckedAt: '2026-09-14', bands: [{ wavelengthMin: '1000 nm', wavelengthMax: '1100 nm', od: '7' }] },
+	{ lab: 'SPX', label: 'SPX-S1', location: 'cabinet at the entrance', frame: 'spectacle', condition: 'good', lastCheckedAt: '2026-06-02', bands: [{ wavelengthMin: '520 nm', wavelengthMax: '540 nm', od: '6' }, { wavelengthMin: '190 nm', wavelengthMax: '420 nm', od: '4' }] },
+	{ lab: 'UFL', label: 'UFL-T3', location: 'shelf by the amplifier', frame: 'goggle', condition: 'worn', lastCheckedAt: '2026-03-20', bands: [{ wavelengthMin: '750 nm', wavelengthMax: '850 nm', od: '5' }] },
+	{ lab: 'MPC', label: 'MPC-P1', location: 'bay door', frame: 'wrap-around spectacle', condition: 'good', lastCheckedAt: '2026-10-05', bands: [{ wavelengthMin: '9 µm', wavelengthMax: '11 µm', od: '6' }, { wavelengthMin: '1500 nm', wavelengthMax: '1600 nm', od: '3' }] }
+];
+
+/** One demo clearance, so the eyewear check has something to show; the rest wait for review. */
+export const demoClearance = {
+	path: 'Cutting head over the bed',
+	comments: 'Lid interlock stays on in production; set-up only with the lid open at reduced power.',
+	controls: [
+		{ kind: 'eyewear' as const, minOd: '4', wavelength: '10.6 µm', details: 'for anyone in the bay during set-up' },
+		{ kind: 'interlock' as const, minOd: '', wavelength: '', details: 'Lid interlock to emission; bypass key held by the LSO.' },
+		{ kind: 'procedure' as const, minOd: '', wavelength: '', details: 'SOP MPC-07, set-up with the lid open.' }
+	]
+};

@@ -1,7 +1,7 @@
 // Loads the demo scenario through the app's own data modules, so demo rows are validated,
 // assessed and audited like any other. Safe to run twice: rows are keyed by lab code, e-mail,
 // area name, laser serial and limit label.
-import { eq, inArray, sql } from 'drizzle-orm';
+import { desc, eq, inArray, sql } from 'drizzle-orm';
 import { db, client } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import { hashPassword } from '$lib/server/auth/password';
@@ -9,7 +9,9 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
-import { demoAreas, demoLabs, demoLasers, demoLimits, demoUsers } from './demo';
+import { demoAreas, demoClearance, demoEyewear, demoLabs, demoLasers, demoLimits, demoUsers } from './demo';
+import * as eyewear from '$lib/server/eyewear';
+import * as reviews from '$lib/server/reviews';
 
 async function loadPeople() {
 	const hashes = await Promise.all(demoUsers.map((u) => hashPassword(u.password)));
@@ -83,6 +85,20 @@ async function loadRegister() {
 	return added;
 }
 
+async function loadEyewearAndClearance(officerId: string) {
+	const scope = await scopeOf({ id: officerId, email: '', name: '', role: 'officer', disabled: false });
+	const labRows = await db.select().from(table.lab);
+	const labId = new Map(labRows.map((l) => [l.code, l.id]));
+	const existing = new Set((await eyewear.list(scope)).map((e) => e.label));
+	for (const { lab, ...e } of demoEyewear) if (!existing.has(e.label)) await eyewear.save(scope, null, { ...e, labId: labId.get(lab)!, version: 0 });
+	const [path] = await db.select().from(table.beamPath).where(eq(table.beamPath.name, demoClearance.path));
+	if (path && path.reviewState === 'awaiting_review') {
+		const [latest] = await db.select().from(table.assessment).where(eq(table.assessment.pathId, path.id)).orderBy(desc(table.assessment.createdAt)).limit(1);
+		const r = await reviews.decide(scope, path.id, { assessmentId: latest.id, decision: 'cleared', comments: demoClearance.comments, reviewBy: '2027-06-30', controls: demoClearance.controls });
+		if (!r.ok) throw new Error(`demo clearance: ${JSON.stringify(r)}`);
+	}
+}
+
 export async function loadDemo(): Promise<{ labs: number; users: number; limits: number; lasers: number }> {
 	const people = await loadPeople();
 	const officer = await userByEmail(demoUsers.find((u) => u.role === 'officer')!.email);
@@ -90,6 +106,7 @@ export async function loadDemo(): Promise<{ labs: number; users: number; limits:
 	const laserCount = await loadRegister();
 	// Demo paths were saved after the limits: nothing is left stale.
 	await paths.reassessStale(1000);
+	await loadEyewearAndClearance(officer.id);
 	return { ...people, limits: limitCount, lasers: laserCount };
 }
 

@@ -32,6 +32,8 @@ export const routePolicy: Record<string, RouteRule> = {
 	'/(app)/reviews/[pathId]': { read: everyone, write: registerWriters },
 	'/(app)/inspections': { read: everyone, write: nobody },
 	'/(app)/eyewear': { read: everyone, write: nobody },
+	'/(app)/eyewear/new': { read: officers, write: officers },
+	'/(app)/eyewear/[eyewearId]': { read: officers, write: officers },
 	'/(app)/limits': { read: everyone, write: nobody },
 	'/(app)/limits/new': { read: officers, write: officers },
 	'/(app)/limits/[limitId]': { read: everyone, write: officers },

@@ -8,12 +8,12 @@
  * computed and reported but take no part in the verdict, the worst point or the optical density.
  */
 import type Decimal from 'decimal.js';
-import { ELEMENTARY_CHARGE, ENGINE_VERSION, ONE, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT } from './constants';
+import { AssessmentDec, ELEMENTARY_CHARGE, ENGINE_VERSION, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT, numbersOf, type DecimalClone } from './constants';
 import { Working } from './breakdown';
-import { requiredOpticalDensity, writeOd } from './density';
+import { requiredOpticalDensity, writeOd, type OdValue } from './density';
 import { hazardDistance } from './distances';
 import { walkPath } from './elements';
-import { evaluatePoint, VERDICT_RANK } from './exposure';
+import { evaluatePoint, VERDICT_RANK, type PointContext } from './exposure';
 import { fmt, fmtOrNull, NonFiniteResultError } from './format';
 import { LimitIndex, limitRef } from './limits';
 import { joulesToElectronvolts, photonEnergy } from './photon';
@@ -21,8 +21,16 @@ import { validate, type NormInput, type NormLimit } from './validate';
 import type { AssessmentInput, AssessmentOutcome, AssessmentResult, LensNohdResult, LineResult, PointResult, Verdict } from './types';
 
 export function assess(input: AssessmentInput): AssessmentOutcome {
+	return assessAtPrecision(input, AssessmentDec);
+}
+
+/**
+ * assess() in the decimal clone D: AssessmentDec (25 digits) is what assess() uses; the 40-digit
+ * reference clone `Dec` gives the run that the 25-digit results are checked against.
+ */
+export function assessAtPrecision(input: AssessmentInput, D: DecimalClone): AssessmentOutcome {
 	try {
-		const v = validate(input);
+		const v = validate(input, D);
 		if (!v.ok) return { ok: false, errors: v.errors.items };
 		return { ok: true, result: compute(v.input) };
 	} catch (err) {
@@ -32,25 +40,44 @@ export function assess(input: AssessmentInput): AssessmentOutcome {
 	}
 }
 
+/** Photon energy, its reciprocal and its value in eV depend on the wavelength only. */
+interface PhotonQuantities {
+	ePh: Decimal;
+	perPhoton: Decimal;
+	eV: Decimal;
+}
+// Keyed by wavelength instance (wavelengths are read through the cache, so a register's few
+// wavelengths share instances); bounded.
+const photonMemo = new Map<Decimal, PhotonQuantities>();
+function photonQuantities(wavelength: Decimal): PhotonQuantities {
+	let q = photonMemo.get(wavelength);
+	if (!q) {
+		const ePh = photonEnergy(wavelength);
+		q = { ePh, perPhoton: numbersOf(ePh).ONE.div(ePh), eV: joulesToElectronvolts(ePh) };
+		if (photonMemo.size >= 256) photonMemo.clear();
+		photonMemo.set(wavelength, q);
+	}
+	return q;
+}
+
 function compute(input: NormInput): AssessmentResult {
 	const { line, limits } = input;
+	const K = numbersOf(line.wavelength);
 	const index = new LimitIndex(limits, line.wavelength);
 	const w = new Working(input.breakdown);
 	const used = new Set<NormLimit>();
 
 	// Line quantities.
-	const ePh = photonEnergy(line.wavelength);
-	const perPhoton = ONE.div(ePh);
-	const eV = joulesToElectronvolts(ePh);
+	const { ePh, perPhoton, eV } = photonQuantities(line.wavelength);
 	if (w.enabled) w.add('photon-energy', 'Photon energy', 'E_ph = h·c / λ', [['h', PLANCK_CONSTANT, 'J·s'], ['c', SPEED_OF_LIGHT, 'm/s'], ['λ', line.wavelength, 'm']], ePh, 'J', 'Exact SI 2019 constants.');
 	if (w.enabled) w.add('photon-energy-ev', 'Photon energy in electronvolts', 'E_ph[eV] = E_ph / e', [['E_ph', ePh, 'J'], ['e', ELEMENTARY_CHARGE, 'C']], eV, 'eV');
-	if (line.beamDiameterDefinition !== '1/e') w.add('beam-diameter', 'Beam diameter at the aperture on the 1/e basis', line.beamDiameterDefinition === '1/e2' ? 'D₀ = D₀(1/e²) / √2' : 'D₀ = D₀(FWHM) / √(ln 2)', [[line.beamDiameterDefinition === '1/e2' ? 'D₀(1/e²)' : 'D₀(FWHM)', line.beamDiameterEntered, 'm']], line.d0, 'm', 'Exact for a Gaussian beam.');
-	if (line.divergenceDefinition !== '1/e') w.add('divergence', 'Divergence on the 1/e basis', line.divergenceDefinition === '1/e2' ? 'φ = φ(1/e²) / √2' : 'φ = φ(FWHM) / √(ln 2)', [[line.divergenceDefinition === '1/e2' ? 'φ(1/e²)' : 'φ(FWHM)', line.divergenceEntered, 'rad']], line.divergence, 'rad', 'Exact for a Gaussian beam.');
+	if (w.enabled && line.beamDiameterDefinition !== '1/e') w.add('beam-diameter', 'Beam diameter at the aperture on the 1/e basis', line.beamDiameterDefinition === '1/e2' ? 'D₀ = D₀(1/e²) / √2' : 'D₀ = D₀(FWHM) / √(ln 2)', [[line.beamDiameterDefinition === '1/e2' ? 'D₀(1/e²)' : 'D₀(FWHM)', line.beamDiameterEntered, 'm']], line.d0, 'm', 'Exact for a Gaussian beam.');
+	if (w.enabled && line.divergenceDefinition !== '1/e') w.add('divergence', 'Divergence on the 1/e basis', line.divergenceDefinition === '1/e2' ? 'φ = φ(1/e²) / √2' : 'φ = φ(FWHM) / √(ln 2)', [[line.divergenceDefinition === '1/e2' ? 'φ(1/e²)' : 'φ(FWHM)', line.divergenceEntered, 'rad']], line.divergence, 'rad', 'Exact for a Gaussian beam.');
 	let photonFlux: Decimal | null = null;
 	let peakPhotonFlux: Decimal | null = null;
 	let photonsPerPulse: Decimal | null = null;
-	if (line.mode === 'repetitive') w.add('average-power', 'Average power', 'P_avg = Q·f', [['Q', line.pulseEnergy!, 'J'], ['f', line.repetitionRate!, 'Hz']], line.averagePower!, 'W');
-	if (line.peakPower) w.add('peak-power', 'Peak power', 'P_peak = Q / τ', [['Q', line.pulseEnergy!, 'J'], ['τ', line.pulseDuration!, 's']], line.peakPower, 'W');
+	if (w.enabled && line.mode === 'repetitive') w.add('average-power', 'Average power', 'P_avg = Q·f', [['Q', line.pulseEnergy!, 'J'], ['f', line.repetitionRate!, 'Hz']], line.averagePower!, 'W');
+	if (w.enabled && line.peakPower) w.add('peak-power', 'Peak power', 'P_peak = Q / τ', [['Q', line.pulseEnergy!, 'J'], ['τ', line.pulseDuration!, 's']], line.peakPower, 'W');
 	if (line.averagePower) {
 		photonFlux = line.averagePower.times(perPhoton);
 		if (w.enabled) w.add('photon-flux', 'Photon flux', 'Φ = P / E_ph', [['P', line.averagePower, 'W'], ['E_ph', ePh, 'J']], photonFlux, 's⁻¹');
@@ -64,12 +91,16 @@ function compute(input: NormInput): AssessmentResult {
 	// Path.
 	const path = walkPath(line, input.elements);
 
+	// Check plans (by exposure duration) and the limits evaluated for them are shared by the hazard
+	// distances and the points of the assessment.
+	const ctx: PointContext = { line, limits: index, photonEnergy: ePh, perPhoton, plans: new Map(), breakdown: input.breakdown, used, K };
+
 	// NOHD at the aperture.
-	const nohd = hazardDistance(line, index, input.nohdExposureDuration, { waist: line.d0, waistSymbol: 'D₀', divergence: line.divergence, transmission: ONE }, w, 'nohd', used, 'at the aperture');
+	const nohd = hazardDistance(ctx, input.nohdExposureDuration, { waist: line.d0, waistSymbol: 'D₀', divergence: line.divergence, transmission: K.ONE }, w, 'nohd', 'at the aperture');
 
 	// NOHD after each lens, from its focus.
 	const lensNohd: LensNohdResult[] = path.lenses.map((lens) => {
-		const out = hazardDistance(line, index, input.nohdExposureDuration, { waist: lens.focalSpot, waistSymbol: 'd₀', divergence: lens.divergenceAfter, transmission: lens.transmission }, w, `lens${lens.index}.nohd`, used, `after the lens (element ${lens.index})`);
+		const out = hazardDistance(ctx, input.nohdExposureDuration, { waist: lens.focalSpot, waistSymbol: 'd₀', divergence: lens.divergenceAfter, transmission: lens.transmission }, w, `lens${lens.index}.nohd`, `after the lens (element ${lens.index})`);
 		if (w.enabled) {
 			if (w.enabled) w.add(`lens${lens.index}.focal-spot`, `Focal spot of the lens (element ${lens.index}), 1/e`, 'd₀ = 2·M²·λ·f / (π·D_lens)', [['M²', line.beamQuality, ''], ['λ', line.wavelength, 'm'], ['f', lens.focalLength, 'm'], ['D_lens', lens.lensDiameter, 'm']], lens.focalSpot, 'm', 'Gaussian 1/e² waist 4·M²·λ·f/(π·D_lens,1/e²) rewritten on the 1/e basis.');
 			if (w.enabled) w.add(`lens${lens.index}.divergence`, `Divergence after the focus (element ${lens.index})`, 'φ = D_lens / f', [['D_lens', lens.lensDiameter, 'm'], ['f', lens.focalLength, 'm']], lens.divergenceAfter, 'rad');
@@ -86,13 +117,14 @@ function compute(input: NormInput): AssessmentResult {
 	});
 
 	// Points.
-	const ctx = { line, limits: index, photonEnergy: ePh, perPhoton, plans: new Map(), breakdown: input.breakdown, used };
 	const points: PointResult[] = [];
 	const ratios: (Decimal | null)[] = [];
+	const ods: (OdValue | null)[] = [];
 	for (const p of input.points) {
 		const ev = evaluatePoint(ctx, p, path);
 		points.push(ev.result);
 		ratios.push(ev.ratio);
+		ods.push(ev.od);
 	}
 
 	// Aggregation over accessible points.
@@ -113,7 +145,8 @@ function compute(input: NormInput): AssessmentResult {
 	if (!anyAccessible) verdict = 'incomplete';
 	if (worstIndex < 0 && anyAccessible) worstIndex = points.findIndex((p) => p.accessible && p.verdict === verdict);
 	const worst = worstIndex >= 0 ? points[worstIndex] : null;
-	const od = worstRatio ? requiredOpticalDensity(worstRatio) : null;
+	// The worst ratio is the worst point's own: so is its optical density.
+	const od = worstRatio ? (ratios[worstIndex] === worstRatio && ods[worstIndex]) || requiredOpticalDensity(worstRatio) : null;
 
 	const lineResult: LineResult = {
 		wavelength: fmt(line.wavelength),

@@ -4,9 +4,7 @@
  * a whole number (common practice: eyewear is specified by the next whole OD).
  */
 import Decimal from 'decimal.js';
-import { Dec, ONE, TEN, ZERO } from './constants';
-
-const ONE_TENTH = new Dec('0.1');
+import { numbersOf } from './constants';
 import { log10 } from './fastmath';
 import { fmt } from './format';
 import type { OpticalDensity } from './types';
@@ -18,6 +16,7 @@ export interface OdValue {
 }
 
 export function requiredOpticalDensity(ratio: Decimal): OdValue {
+	const { ONE, TEN, ZERO, ONE_TENTH } = numbersOf(ratio);
 	if (ratio.lte(ONE)) return { value: ZERO, roundedUpTenth: ZERO, roundedUpWhole: ZERO };
 	const value = log10(ratio);
 	// Round away digits below 1e-12 before rounding up, so that arithmetic noise on an exact power of

@@ -19,15 +19,13 @@
  * average power, pulse train) and the largest distance decides.
  */
 import type Decimal from 'decimal.js';
-import { FOUR, ONE, PI, ZERO } from './constants';
-
-const FOUR_OVER_PI = FOUR.div(PI);
+import { numbersOf } from './constants';
 import type { Working } from './breakdown';
 import { sqrt } from './fastmath';
-import { planChecks, limitForPlan, MEASURE_UNIT, type CheckPlan } from './exposure';
-import { fmt, fmtOrNull } from './format';
-import { limitReciprocal, limitRef, type LimitIndex } from './limits';
-import type { NormLimit, NormLine } from './validate';
+import { applicableLimits, evaluateLimit, inverseNatural, limitForPlan, plansFor, MEASURE_UNIT, type CheckPlan, type PointContext } from './exposure';
+import { fmt, fmtOrNull, toSignificantString } from './format';
+import { limitRef } from './limits';
+import type { NormLimit } from './validate';
 import type { CheckKind, NohdCandidate, NohdResult } from './types';
 
 export interface DistanceBeam {
@@ -57,42 +55,45 @@ export interface DistanceOutcome {
 
 /** D_c = √(4·X/(π·EL)). */
 export function criticalDiameter(x: Decimal, el: Decimal): Decimal {
+	const { FOUR, PI } = numbersOf(x);
 	return sqrt(FOUR.times(x).div(PI.times(el)));
 }
 
-export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, used: Set<NormLimit>, place: string): DistanceOutcome {
-	const plans = planChecks(line, exposureDuration);
+export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, place: string): DistanceOutcome {
+	const { line, K } = ctx;
+	const plans = plansFor(ctx, exposureDuration);
 	const candidates: Candidate[] = [];
 	const withoutLimit: CheckKind[] = [];
-	const missing = new Set<string>();
-	const waist2 = beam.waist.times(beam.waist);
+	let missing = false;
+	let waist2: Decimal | null = null;
 	let perDivergence: Decimal | null = null;
 	for (const plan of plans) {
 		const t = plan.duration;
 		if (t === null) {
-			missing.add('nohd.exposureDuration');
+			missing = true;
 			continue;
 		}
-		const applicable = limits.find('eye', plan.basis, t, plan.needsTrainExponent);
+		const applicable = applicableLimits(ctx, plan, 'eye');
 		if (applicable.length === 0) {
 			if (!plan.optional) withoutLimit.push(plan.kind);
 			continue;
 		}
 		if (plan.missingT) {
-			missing.add('nohd.exposureDuration');
+			missing = true;
 			continue;
 		}
-		const x = beam.transmission.times(plan.source);
-		// D_c² = (4/π)·X/EL, formed with the limit's memoised reciprocal where no conversion intervenes.
-		const xScaled = FOUR_OVER_PI.times(x);
+		// T = 1 exactly at the aperture (and before any attenuating element).
+		const x = beam.transmission === K.ONE ? plan.source : beam.transmission.times(plan.source);
+		// D_c² = (4/π)·X/EL, formed with the reciprocal of the limit (once per assessment).
+		const xScaled = K.FOUR_OVER_PI.times(x);
 		for (const limit of applicable) {
-			const lim = limitForPlan(limit, plan, t, null, '');
+			const lim = evaluateLimit(limit, plan, t);
 			const el = lim.natural;
-			const dc2 = el === lim.value && !lim.trainFactor ? xScaled.times(limitReciprocal(limit, t, el)) : xScaled.div(el);
+			const dc2 = xScaled.times(inverseNatural(lim, plan, limit, t));
 			const dc = sqrt(dc2);
 			const threshold = beam.waist.gte(limit.limitingAperture) ? beam.waist : limit.limitingAperture;
-			let distance: Decimal | null = ZERO;
-			let linear: Decimal | null = ZERO;
+			let distance: Decimal | null = K.ZERO;
+			let linear: Decimal | null = K.ZERO;
 			let unbounded = false;
 			if (dc.gt(threshold)) {
 				if (beam.divergence.isZero()) {
@@ -100,7 +101,8 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 					linear = null;
 					unbounded = true;
 				} else {
-					perDivergence ??= ONE.div(beam.divergence);
+					perDivergence ??= K.ONE.div(beam.divergence);
+					waist2 ??= beam.waist.times(beam.waist);
 					distance = sqrt(dc2.minus(waist2)).times(perDivergence);
 					linear = dc.minus(beam.waist).times(perDivergence);
 				}
@@ -108,7 +110,7 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 			candidates.push({ plan, limit, x, el, criticalDiameter: dc, distance, linear, unbounded });
 		}
 	}
-	for (const c of candidates) used.add(c.limit);
+	for (const c of candidates) ctx.used.add(c.limit);
 
 	const written: NohdCandidate[] = candidates.map((c) => ({
 		check: c.plan.kind,
@@ -123,10 +125,10 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 		checksWithoutLimit: withoutLimit,
 		candidates: written
 	};
-	if (missing.size > 0) {
+	if (missing) {
 		return {
 			deciding: null,
-			result: { ...base, status: 'incomplete', unbounded: false, distance: null, linearFormDistance: null, decidingLimit: null, decidingCheck: null, reason: `Needs ${[...missing].join(', ')}: the exposure duration assumed for the NOHD.` }
+			result: { ...base, status: 'incomplete', unbounded: false, distance: null, linearFormDistance: null, decidingLimit: null, decidingCheck: null, reason: 'Needs nohd.exposureDuration: the exposure duration assumed for the NOHD.' }
 		};
 	}
 	if (candidates.length === 0) {
@@ -141,14 +143,14 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 		if (c.unbounded || c.distance!.gt(deciding.distance!)) deciding = c;
 	}
 	const partial = withoutLimit.length > 0 ? ` No eye limit for the ${withoutLimit.map((k) => k.replace('_', ' ')).join(', ')} check: the distance may be understated.` : '';
-	const dcInputs = [[deciding.plan.pointSymbol, deciding.x, deciding.plan.sourceUnit], ['EL', deciding.el, MEASURE_UNIT[deciding.plan.measure]]] as const;
 	if (w.enabled) {
-		limitForPlan(deciding.limit, deciding.plan, deciding.plan.duration!, w, `${prefix}.limit`);
+		const dcInputs = [[deciding.plan.pointSymbol, deciding.x, deciding.plan.sourceUnit], ['EL', deciding.el, MEASURE_UNIT[deciding.plan.measure]]] as const;
+		const t = deciding.plan.duration!;
+		const lim = limitForPlan(deciding.limit, deciding.plan, t, w, `${prefix}.limit`);
 		if (deciding.plan.measure !== deciding.limit.quantity) {
-			const t = deciding.plan.duration!;
-			if (w.enabled) w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', limitForPlan(deciding.limit, deciding.plan, t, null, '').value, MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, t, 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
+			w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', lim.value, MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, t, 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
 		}
-		if (w.enabled) w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, deciding.criticalDiameter, 'm');
+		w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, deciding.criticalDiameter, 'm');
 	}
 	if (deciding.unbounded) {
 		return {
@@ -159,9 +161,9 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 	if (w.enabled) {
 		const dc = deciding.criticalDiameter;
 		if (deciding.distance!.isZero()) {
-			if (w.enabled) w.add(`${prefix}.distance`, 'Hazard distance', `0 when D_c ≤ max(${beam.waistSymbol}, D_f)`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['D_f', deciding.limit.limitingAperture, 'm']], ZERO, 'm');
+			w.add(`${prefix}.distance`, 'Hazard distance', `0 when D_c ≤ max(${beam.waistSymbol}, D_f)`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['D_f', deciding.limit.limitingAperture, 'm']], K.ZERO, 'm');
 		} else {
-			if (w.enabled) w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], deciding.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${fmt(deciding.linear!)} m.`);
+			w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], deciding.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${fmt(deciding.linear!)} m.`);
 		}
 	}
 	return {
@@ -174,7 +176,7 @@ export function hazardDistance(line: NormLine, limits: LimitIndex, exposureDurat
 			linearFormDistance: fmt(deciding.linear!),
 			decidingLimit: limitRef(deciding.limit),
 			decidingCheck: deciding.plan.kind,
-			reason: (deciding.distance!.isZero() ? `The beam ${place} is below the most restrictive eye limit at every distance.` : `Beyond ${fmt(deciding.distance!.toSignificantDigits(4))} m ${place === 'at the aperture' ? 'from the aperture' : 'from the focus'} the beam is below “${deciding.limit.label}”.`) + partial
+			reason: (deciding.distance!.isZero() ? `The beam ${place} is below the most restrictive eye limit at every distance.` : `Beyond ${toSignificantString(deciding.distance!, 4)} m ${place === 'at the aperture' ? 'from the aperture' : 'from the focus'} the beam is below “${deciding.limit.label}”.`) + partial
 		}
 	};
 }

@@ -26,7 +26,7 @@
  *    accessible. Points on its entry or exit plane are accessible (the conservative reading).
  */
 import type Decimal from 'decimal.js';
-import { ONE, PI, TWO, ZERO } from './constants';
+import { numbersOf } from './constants';
 import { diameterAt, type BeamState } from './beam';
 import { asin } from './fastmath';
 import type { NormElement, NormLine } from './validate';
@@ -73,15 +73,22 @@ export interface PathModel {
 
 /** Diffraction floor of a focused Gaussian beam on the 1/e basis: d₀ = 2·M²·λ·f/(π·D_lens). */
 export function focalSpotDiameter(wavelength: Decimal, focalLength: Decimal, lensDiameter: Decimal, beamQuality: Decimal): Decimal {
+	const { TWO, PI } = numbersOf(wavelength);
 	return TWO.times(beamQuality).times(wavelength).times(focalLength).div(PI.times(lensDiameter));
 }
 
+/** A beam state with D_w² formed once (every point on the stretch needs it). */
+function stateOf(waistDiameter: Decimal, waistPosition: Decimal, divergence: Decimal): BeamState {
+	return { waistDiameter, waistPosition, divergence, waistSquared: waistDiameter.times(waistDiameter) };
+}
+
 export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
+	const { ZERO, ONE, TWO } = numbersOf(line.wavelength);
 	let z = ZERO;
 	let current: BeamSnapshot = {
 		from: ZERO,
 		to: ZERO,
-		state: { waistDiameter: line.d0, waistPosition: ZERO, divergence: line.divergence },
+		state: stateOf(line.d0, ZERO, line.divergence),
 		transmission: ONE,
 		factors: [],
 		afterElement: null
@@ -122,11 +129,7 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
 				const s = current.state;
 				const m = e.magnification;
 				const behind = z.minus(s.waistPosition);
-				replace(e.index, {
-					waistDiameter: s.waistDiameter.times(m),
-					divergence: s.divergence.div(m),
-					waistPosition: z.minus(m.times(m).times(behind))
-				});
+				replace(e.index, stateOf(s.waistDiameter.times(m), z.minus(m.times(m).times(behind)), s.divergence.div(m)));
 				break;
 			}
 			case 'lens': {
@@ -135,12 +138,12 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
 				const divergenceAfter = lensDiameter.div(e.focalLength);
 				const focusPosition = z.plus(e.focalLength);
 				lenses.push({ index: e.index, position: z, focalLength: e.focalLength, lensDiameter, focalSpot, divergenceAfter, focusPosition, transmission: current.transmission });
-				replace(e.index, { waistDiameter: focalSpot, waistPosition: focusPosition, divergence: divergenceAfter });
+				replace(e.index, stateOf(focalSpot, focusPosition, divergenceAfter));
 				break;
 			}
 			case 'fibre': {
 				const divergence = TWO.times(asin(e.numericalAperture));
-				replace(e.index, { waistDiameter: e.coreDiameter, waistPosition: z, divergence }, { symbol: `T${subscript(e.index)}`, value: e.factor });
+				replace(e.index, stateOf(e.coreDiameter, z, divergence), { symbol: `T${subscript(e.index)}`, value: e.factor });
 				break;
 			}
 		}
@@ -165,7 +168,11 @@ export function enclosureAt(path: PathModel, z: Decimal): EnclosedStretch | null
 }
 
 const SUBSCRIPTS = '₀₁₂₃₄₅₆₇₈₉';
+const SUBSCRIPT_MEMO: string[] = [];
 /** Element numbers in symbols use the 0-based element index, written as a subscript: T₂ is element 2. */
 export function subscript(n: number): string {
-	return String(n).replace(/\d/g, (d) => SUBSCRIPTS[Number(d)]);
+	if (n < 64 && SUBSCRIPT_MEMO[n] !== undefined) return SUBSCRIPT_MEMO[n];
+	const s = String(n).replace(/\d/g, (d) => SUBSCRIPTS[Number(d)]);
+	if (n < 64) SUBSCRIPT_MEMO[n] = s;
+	return s;
 }

@@ -22,16 +22,16 @@
  * reported, and the highest ratio (the most restrictive limit) decides the check.
  */
 import type Decimal from 'decimal.js';
-import { PI, PI_OVER_4, ONE } from './constants';
-import { diameterAt } from './beam';
+import { numbersOf, type Numbers } from './constants';
+import { diameterFromSquare, diameterSquaredAt } from './beam';
 import { cosAcute, sqrt } from './fastmath';
 import { Working, type StepInput } from './breakdown';
-import { requiredOpticalDensity, writeOd } from './density';
+import { requiredOpticalDensity, writeOd, type OdValue } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
 import { fmt, fmtOrNull, toSignificantString } from './format';
 import { limitReciprocal, limitRef, limitValueAt, memoPow, type LimitIndex } from './limits';
 import type { NormLimit, NormLine, NormPoint } from './validate';
-import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Verdict } from './types';
+import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Tissue, Verdict } from './types';
 
 export const VERDICT_RANK: Record<Verdict, number> = {
 	within_limit: 0,
@@ -65,6 +65,14 @@ export interface CheckPlan {
 	optional: boolean;
 	/** The check needs the exposure duration T and it is missing. */
 	missingT: boolean;
+	/**
+	 * Per-assessment memos (the points and hazard distances of an assessment share its plans): the
+	 * applicable limits by tissue, each limit evaluated for the plan, the written duration and 1/t.
+	 */
+	applicable?: Partial<Record<Tissue, NormLimit[]>>;
+	evaluated?: Map<NormLimit, LimitInPlan>;
+	durationText?: string;
+	perDuration?: Decimal;
 }
 
 export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
@@ -79,7 +87,8 @@ export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
 	let pulseCount: Decimal | null = null;
 	if (T !== null) {
 		const n = line.repetitionRate!.times(T);
-		pulseCount = n.lt(ONE) ? ONE : n;
+		const one = numbersOf(T).ONE;
+		pulseCount = n.lt(one) ? one : n;
 	}
 	return [
 		single,
@@ -87,7 +96,6 @@ export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
 		{ kind: 'pulse_train', label: 'Pulse train', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount, needsTrainExponent: true, optional: true, missingT }
 	];
 }
-
 export const MEASURE_UNIT: Record<LimitQuantity, 'W/m²' | 'J/m²'> = { irradiance: 'W/m²', radiant_exposure: 'J/m²' };
 export const MEASURE_SYMBOL: Record<LimitQuantity, 'E' | 'H'> = { irradiance: 'E', radiant_exposure: 'H' };
 
@@ -98,22 +106,60 @@ export interface LimitInPlan {
 	/** In the plan's measure (for hazard distances). */
 	natural: Decimal;
 	trainFactor: Decimal | null;
+	/** 1/value, so that ratios are products. */
+	inverse: Decimal;
+	/** 1/natural (hazard distances), formed when first needed. */
+	inverseNatural?: Decimal;
 }
 
-export function limitForPlan(limit: NormLimit, plan: CheckPlan, t: Decimal, w: Working | null, stepId: string): LimitInPlan {
+/** The limit for a plan, once per assessment: memoised on the plan (see CheckPlan). */
+export function evaluateLimit(limit: NormLimit, plan: CheckPlan, t: Decimal): LimitInPlan {
+	const memo = (plan.evaluated ??= new Map());
+	let lim = memo.get(limit);
+	if (lim) return lim;
 	const base = limitValueAt(limit, t);
 	let value = base;
 	let trainFactor: Decimal | null = null;
-	const unit = MEASURE_UNIT[limit.quantity];
+	let inverse: Decimal;
 	if (plan.needsTrainExponent && plan.pulseCount && limit.pulseTrainExponent) {
 		trainFactor = memoPow(plan.pulseCount, limit.pulseTrainExponent);
 		value = base.times(trainFactor);
-		w?.add(stepId, `Limit “${limit.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, ''], ['N', plan.pulseCount, ''], ['x', limit.pulseTrainExponent, '']], value, unit, limit.citation);
+		inverse = numbersOf(value).ONE.div(value);
 	} else {
-		w?.add(stepId, `Limit “${limit.label}”`, 'EL = k·tⁿ', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, '']], value, unit, limit.citation);
+		inverse = limitReciprocal(limit, t, base);
 	}
-	const natural = limit.quantity === plan.measure ? value : plan.measure === 'irradiance' ? value.div(t) : value.times(t);
-	return { value, natural, trainFactor };
+	const natural = limit.quantity === plan.measure ? value : plan.measure === 'irradiance' ? value.times(perDuration(plan, t)) : value.times(t);
+	lim = { value, natural, trainFactor, inverse };
+	memo.set(limit, lim);
+	return lim;
+}
+
+/** 1/t of the plan, once per assessment. */
+function perDuration(plan: CheckPlan, t: Decimal): Decimal {
+	return (plan.perDuration ??= numbersOf(t).ONE.div(t));
+}
+
+/** 1/EL in the plan's measure. */
+export function inverseNatural(lim: LimitInPlan, plan: CheckPlan, limit: NormLimit, t: Decimal): Decimal {
+	if (lim.inverseNatural) return lim.inverseNatural;
+	// EL_nat = EL/t (irradiance plan, radiant-exposure limit) or EL·t (the other way round).
+	const inv = limit.quantity === plan.measure ? lim.inverse : plan.measure === 'irradiance' ? lim.inverse.times(t) : lim.inverse.times(perDuration(plan, t));
+	lim.inverseNatural = inv;
+	return inv;
+}
+
+/** The limit for the plan, with its breakdown step when `w` is given. */
+export function limitForPlan(limit: NormLimit, plan: CheckPlan, t: Decimal, w: Working | null, stepId: string): LimitInPlan {
+	const lim = evaluateLimit(limit, plan, t);
+	if (w?.enabled) {
+		const unit = MEASURE_UNIT[limit.quantity];
+		if (lim.trainFactor) {
+			w.add(stepId, `Limit “${limit.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, ''], ['N', plan.pulseCount!, ''], ['x', limit.pulseTrainExponent!, '']], lim.value, unit, limit.citation);
+		} else {
+			w.add(stepId, `Limit “${limit.label}”`, 'EL = k·tⁿ', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, '']], lim.value, unit, limit.citation);
+		}
+	}
+	return lim;
 }
 
 export interface PointContext {
@@ -122,10 +168,32 @@ export interface PointContext {
 	photonEnergy: Decimal;
 	/** 1/E_ph, so that photon counts are products. */
 	perPhoton: Decimal;
-	/** Check plans by exposure duration (interned), shared by the points of the assessment. */
+	/** Check plans by exposure duration (interned), shared by the points and distances of the assessment. */
 	plans: Map<Decimal | null, CheckPlan[]>;
 	breakdown: boolean;
 	used: Set<NormLimit>;
+	K: Numbers;
+}
+
+export function plansFor(ctx: PointContext, T: Decimal | null): CheckPlan[] {
+	let plans = ctx.plans.get(T);
+	if (!plans) {
+		plans = planChecks(ctx.line, T);
+		ctx.plans.set(T, plans);
+	}
+	return plans;
+}
+
+/** The limits that apply to a plan for a tissue, once per assessment. */
+export function applicableLimits(ctx: PointContext, plan: CheckPlan, tissue: Tissue): NormLimit[] {
+	const t = plan.duration;
+	if (t === null) return [];
+	const byTissue = (plan.applicable ??= {});
+	return (byTissue[tissue] ??= ctx.limits.find(tissue, plan.basis, t, plan.needsTrainExponent));
+}
+
+function durationText(plan: CheckPlan, t: Decimal): string {
+	return (plan.durationText ??= fmt(t));
 }
 
 interface Evaluated {
@@ -133,9 +201,10 @@ interface Evaluated {
 	ratio: Decimal | null;
 	verdict: Verdict;
 	used: NormLimit[];
+	od: OdValue | null;
 }
 
-export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathModel): { result: PointResult; ratio: Decimal | null } {
+export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathModel): { result: PointResult; ratio: Decimal | null; od: OdValue | null } {
 	const enclosure = enclosureAt(path, point.position);
 	let best: Evaluated | null = null;
 	for (const beam of beamsAt(path, point.position)) {
@@ -146,52 +215,57 @@ export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathMod
 	}
 	// Only the chosen beam's limits count as used.
 	for (const l of best!.used) ctx.used.add(l);
-	return { result: best!.result, ratio: best!.ratio };
+	return { result: best!.result, ratio: best!.ratio, od: best!.od };
 }
 
+const NO_MISSING: string[] = [];
+
 function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapshot, enclosedBy: number | null): Evaluated {
-	const { line, photonEnergy } = ctx;
+	const { line, photonEnergy, K } = ctx;
 	const w = new Working(ctx.breakdown);
-	const at = `points.${point.index}`;
 	const z = point.position;
 	const T = point.exposureDuration;
 	const diffuse = point.kind === 'diffuse';
-	const missingPoint: string[] = [];
-	if (diffuse) {
-		if (point.reflectance === null) missingPoint.push(`${at}.reflectance`);
-		if (point.viewingDistance === null) missingPoint.push(`${at}.viewingDistance`);
+	let missingPoint = NO_MISSING;
+	if (diffuse && (point.reflectance === null || point.viewingDistance === null)) {
+		missingPoint = [];
+		if (point.reflectance === null) missingPoint.push(`points.${point.index}.reflectance`);
+		if (point.viewingDistance === null) missingPoint.push(`points.${point.index}.viewingDistance`);
 	}
 
 	// Beam at the point.
 	const tPath = beam.transmission;
-	if (beam.factors.length > 0) {
-		if (w.enabled) w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPath, '');
-	} else {
-		if (w.enabled) w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPath, '');
+	const unattenuated = beam.factors.length === 0;
+	if (w.enabled) {
+		if (!unattenuated) w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPath, '');
+		else w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPath, '');
 	}
 	const s = beam.state;
-	const D = diameterAt(s, z);
+	const D2 = diameterSquaredAt(s, z);
+	const D = diameterFromSquare(s, z, D2);
 	if (w.enabled) w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', s.divergence, 'rad'], ['z', z, 'm'], ['z_w', s.waistPosition, 'm']], D, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
 
-	const powerAtPoint = line.averagePower ? tPath.times(line.averagePower) : null;
-	const energyAtPoint = line.pulseEnergy ? tPath.times(line.pulseEnergy) : null;
+	// T_path = 1 exactly when no element attenuates: the source itself reaches the point.
+	const powerAtPoint = line.averagePower ? (unattenuated ? line.averagePower : tPath.times(line.averagePower)) : null;
+	const energyAtPoint = line.pulseEnergy ? (unattenuated ? line.pulseEnergy : tPath.times(line.pulseEnergy)) : null;
 	if (powerAtPoint && w.enabled) w.add('power', line.mode === 'continuous' ? 'Power at the point' : 'Average power at the point', line.mode === 'continuous' ? 'P = T_path·P₀' : 'P_avg = T_path·P_avg,0', [['T_path', tPath, ''], [line.mode === 'continuous' ? 'P₀' : 'P_avg,0', line.averagePower!, 'W']], powerAtPoint, 'W');
 	if (energyAtPoint && w.enabled) w.add('energy', 'Pulse energy at the point', 'Q = T_path·Q₀', [['T_path', tPath, ''], ['Q₀', line.pulseEnergy!, 'J']], energyAtPoint, 'J');
 
-	// Diffuse geometry factor G = ρ·cosθ/(π·r²), m⁻².
+	// Diffuse geometry: G = ρ·cosθ/(π·r²), m⁻², and G·r² = ρ·cosθ/π for the hazard distance.
 	let geometry: Decimal | null = null;
-	let cosTheta: Decimal | null = null;
+	let geometryR2: Decimal | null = null;
 	if (diffuse && missingPoint.length === 0) {
-		cosTheta = cosAcute(point.viewingAngle);
-		geometry = point.reflectance!.times(cosTheta).div(PI.times(point.viewingDistance!).times(point.viewingDistance!));
+		const r = point.viewingDistance!;
+		geometryR2 = point.reflectance!.times(cosAcute(point.viewingAngle)).times(K.INV_PI);
+		geometry = geometryR2.div(r.times(r));
 	}
 
 	// Unaveraged irradiance / radiant exposure at the point and photon quantities.
-	const beamArea = PI_OVER_4.times(D).times(D);
-	const perArea = ONE.div(beamArea);
 	let irradiance: Decimal | null = null;
 	let pulseH: Decimal | null = null;
 	if (!diffuse) {
+		// 1/(π·D²/4), from D² itself.
+		const perArea = K.FOUR_OVER_PI.div(D2);
 		if (powerAtPoint) {
 			irradiance = powerAtPoint.times(perArea);
 			if (w.enabled) w.add('irradiance', 'Irradiance of the beam at the point (1/e, no aperture averaging)', 'E_beam = P / (π·D²/4)', [['P', powerAtPoint, 'W'], ['D', D, 'm']], irradiance, 'W/m²');
@@ -226,56 +300,54 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	const checks: CheckResult[] = [];
 	let verdict: Verdict = 'within_limit';
 	let worstRatio: Decimal | null = null;
-	let diffuseDistance: { r: Decimal; limit: NormLimit; check: CheckKind; inputs: StepInput[]; natural: Decimal } | null = null;
-	const allMissing = new Set<string>(missingPoint);
+	let diffuseDistance: { r: Decimal; limit: NormLimit; check: CheckKind; x: Decimal; xs: string; sourceUnit: string; natural: Decimal; natUnit: string } | null = null;
+	let allMissing: string[] = missingPoint;
 	const used: NormLimit[] = [];
+	const dText = diffuse ? null : fmt(D);
 
-	let plans = ctx.plans.get(T);
-	if (!plans) {
-		plans = planChecks(line, T);
-		ctx.plans.set(T, plans);
-	}
-	for (const plan of plans) {
+	for (const plan of plansFor(ctx, T)) {
 		const t = plan.duration;
-		const limits = t === null ? [] : ctx.limits.find(point.tissue, plan.basis, t, plan.needsTrainExponent);
-		const missing = plan.missingT ? [`${at}.exposureDuration`, ...missingPoint] : missingPoint;
+		const limits = applicableLimits(ctx, plan, point.tissue);
 		// The optional pulse-train check is made only where a limit asks for it (τ is always known).
 		if (plan.optional && limits.length === 0) continue;
+		const missing = plan.missingT ? [`points.${point.index}.exposureDuration`, ...missingPoint] : missingPoint;
 		if (missing.length > 0 || t === null) {
-			for (const m of missing) allMissing.add(m);
-			checks.push({ kind: plan.kind, label: plan.label, duration: fmtOrNull(t), verdict: 'incomplete', reason: `Needs ${missing.join(', ')}.`, ratio: null, decidingLimit: null, comparisons: [], missing });
+			for (const m of missing) if (!allMissing.includes(m)) allMissing = [...allMissing, m];
+			checks.push({ kind: plan.kind, label: plan.label, duration: t === null ? null : durationText(plan, t), verdict: 'incomplete', reason: `Needs ${missing.join(', ')}.`, ratio: null, decidingLimit: null, comparisons: [], missing: [...missing] });
 			verdict = worseVerdict(verdict, 'incomplete');
 			continue;
 		}
 		if (limits.length === 0) {
-			checks.push({ kind: plan.kind, label: plan.label, duration: fmt(t), verdict: 'no_applicable_limit', reason: `No entered limit covers ${point.tissue} exposure at λ = ${fmt(line.wavelength)} m for ${plan.durationSymbol} = ${fmt(t)} s (${plan.basis.replace('_', '-')} basis).`, ratio: null, decidingLimit: null, comparisons: [], missing: [] });
+			checks.push({ kind: plan.kind, label: plan.label, duration: durationText(plan, t), verdict: 'no_applicable_limit', reason: `No entered limit covers ${point.tissue} exposure at λ = ${fmt(line.wavelength)} m for ${plan.durationSymbol} = ${durationText(plan, t)} s (${plan.basis.replace('_', '-')} basis).`, ratio: null, decidingLimit: null, comparisons: [], missing: [] });
 			verdict = worseVerdict(verdict, 'no_applicable_limit');
 			continue;
 		}
 
-		const x = tPath.times(plan.source);
+		// Power or energy at the point (T_path × the source of the plan) and, for a diffuse point or
+		// a beam at least as wide as the aperture, the exposure itself: already formed above.
+		const byPower = plan.sourceUnit === 'W';
+		const x = byPower ? powerAtPoint! : energyAtPoint!;
+		const atBeam = byPower ? irradiance : pulseH;
 		const xs = plan.pointSymbol;
 		const nat = MEASURE_SYMBOL[plan.measure];
 		const natUnit = MEASURE_UNIT[plan.measure];
-		// Diffuse exposure is the same for every limit.
-		const diffuseExposure = geometry ? geometry.times(x) : null;
-		let atBeam: Decimal | null = null; // exposure averaged over D itself, shared by limits with D_f ≤ D
+		const tText = durationText(plan, t);
 		const comparisons: Comparison[] = [];
 		let best: { ratio: Decimal; limit: NormLimit; index: number } | null = null;
 
 		for (const limit of limits) {
-			const sid = `${plan.kind}.limit${limit.index}`;
+			const sid = w.enabled ? `${plan.kind}.limit${limit.index}` : '';
 			let exposureNat: Decimal;
 			let averaging: Decimal | null = null;
-			if (diffuseExposure) {
-				exposureNat = diffuseExposure;
+			if (diffuse) {
+				exposureNat = atBeam!;
 				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']], exposureNat, natUnit, 'Lambertian surface; no aperture averaging.');
 			} else {
 				const df = limit.limitingAperture;
 				averaging = D.gte(df) ? D : df;
 				if (w.enabled) w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', df, 'm']], averaging, 'm');
-				if (averaging === D) exposureNat = atBeam ??= x.times(perArea);
-				else exposureNat = x.div(PI_OVER_4.times(averaging).times(averaging));
+				// Over D itself the exposure is the beam's own; over D_f, X × 1/(π·D_f²/4) of the limit.
+				exposureNat = averaging === D ? atBeam! : x.times(limit.perApertureArea!);
 				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, x, plan.sourceUnit], ['D_avg', averaging, 'm']], exposureNat, natUnit);
 			}
 			let exposure = exposureNat;
@@ -284,27 +356,29 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 					exposure = exposureNat.times(t);
 					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNat, 'W/m²'], [plan.durationSymbol, t, 's']], exposure, 'J/m²');
 				} else {
-					exposure = exposureNat.div(t);
+					exposure = exposureNat.times(perDuration(plan, t));
 					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
 				}
 			}
-			const lim = limitForPlan(limit, plan, t, w.enabled ? w : null, `${sid}.limit`);
-			const ratio = lim.trainFactor ? exposure.div(lim.value) : exposure.times(limitReciprocal(limit, t, lim.value));
+			const lim = limitForPlan(limit, plan, t, w, w.enabled ? `${sid}.limit` : '');
+			const ratio = exposure.times(lim.inverse);
 			const q = MEASURE_SYMBOL[limit.quantity];
-			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, MEASURE_UNIT[limit.quantity]], ['EL', lim.value, MEASURE_UNIT[limit.quantity]]], ratio, '');
+			const unit = MEASURE_UNIT[limit.quantity];
+			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, unit], ['EL', lim.value, unit]], ratio, '');
 
+			const exceeds = ratio.gt(K.ONE);
 			const cmp: Comparison = {
 				limit: { id: limit.id, version: limit.version, label: limit.label, citation: limit.citation },
 				quantity: limit.quantity,
-				unit: MEASURE_UNIT[limit.quantity],
-				duration: fmt(t),
+				unit,
+				duration: tText,
 				limitingAperture: fmt(limit.limitingAperture),
-				beamDiameter: diffuse ? null : fmt(D),
+				beamDiameter: dText,
 				averagingDiameter: averaging ? fmt(averaging) : null,
 				exposure: fmt(exposure),
 				limitValue: fmt(lim.value),
 				ratio: fmt(ratio),
-				verdict: ratio.gt(ONE) ? 'exceeds_limit' : 'within_limit',
+				verdict: exceeds ? 'exceeds_limit' : 'within_limit',
 				deciding: false
 			};
 			if (lim.trainFactor) {
@@ -315,26 +389,26 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			used.push(limit);
 			if (!best || ratio.gt(best.ratio)) best = { ratio, limit, index: comparisons.length - 1 };
 
-			if (geometry) {
+			if (geometryR2) {
 				// r_h = √(ρ·X·cosθ/(π·EL)) with EL in the plan's measure.
-				const r = sqrt(geometry.times(point.viewingDistance!).times(point.viewingDistance!).times(x).div(lim.natural));
+				const r = sqrt(geometryR2.times(x).times(inverseNatural(lim, plan, limit, t)));
 				if (!diffuseDistance || r.gt(diffuseDistance.r)) {
-					diffuseDistance = { r, limit, check: plan.kind, natural: lim.natural, inputs: [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['EL', lim.natural, natUnit]] };
+					diffuseDistance = { r, limit, check: plan.kind, x, xs, sourceUnit: plan.sourceUnit, natural: lim.natural, natUnit };
 				}
 			}
 		}
 		const b = best!;
 		comparisons[b.index].deciding = true;
-		const checkVerdict: Verdict = b.ratio.gt(ONE) ? 'exceeds_limit' : 'within_limit';
+		const checkVerdict: Verdict = b.ratio.gt(K.ONE) ? 'exceeds_limit' : 'within_limit';
 		verdict = worseVerdict(verdict, checkVerdict);
 		if (!worstRatio || b.ratio.gt(worstRatio)) worstRatio = b.ratio;
 		checks.push({
 			kind: plan.kind,
 			label: plan.label,
-			duration: fmt(t),
+			duration: tText,
 			verdict: checkVerdict,
 			reason: `${checkVerdict === 'exceeds_limit' ? 'Exceeds' : 'Within'} “${b.limit.label}”: exposure is ${toSignificantString(b.ratio, 4)} × the limit.`,
-			ratio: fmt(b.ratio),
+			ratio: comparisons[b.index].ratio,
 			decidingLimit: limitRef(b.limit),
 			comparisons,
 			missing: []
@@ -347,7 +421,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 	let diffuseHazardDistance: DiffuseDistance | null = null;
 	if (diffuseDistance) {
-		if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', diffuseDistance.inputs, diffuseDistance.r, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
+		if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', [['ρ', point.reflectance!, ''], [diffuseDistance.xs, diffuseDistance.x, diffuseDistance.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['EL', diffuseDistance.natural, diffuseDistance.natUnit]], diffuseDistance.r, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
 		diffuseHazardDistance = { distance: fmt(diffuseDistance.r), decidingLimit: limitRef(diffuseDistance.limit), check: diffuseDistance.check };
 	}
 
@@ -367,7 +441,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		transmissionFactor: fmt(tPath),
 		power: fmtOrNull(powerAtPoint),
 		pulseEnergy: fmtOrNull(energyAtPoint),
-		beamDiameter: fmt(D),
+		beamDiameter: dText ?? fmt(D),
 		beamDivergence: fmt(s.divergence),
 		irradiance: fmtOrNull(irradiance),
 		pulseRadiantExposure: fmtOrNull(pulseH),
@@ -379,7 +453,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		diffuseHazardDistance,
 		breakdown: w.steps
 	};
-	return { result, ratio: worstRatio, verdict, used };
+	return { result, ratio: worstRatio, verdict, used, od };
 }
 
 function pointReason(verdict: Verdict, checks: CheckResult[], accessible: boolean, enclosedBy: number | null): string {

@@ -30,7 +30,7 @@ function wordDigits(w: number): number {
 }
 
 /**
- * A float64 close to x (within a few units in the last place), read from the first three digit
+ * A float64 close to x (within a few units in the last place), read from the first four digit
  * words; decimals of up to 14 significant digits convert with a single rounding. For seeds only:
  * the result is not always the correctly rounded value. 0 or ±Infinity outside float64's range.
  */
@@ -41,7 +41,8 @@ export function approxNumber(x: Decimal): number {
 	if (w0 === 0) return 0;
 	const n = w.length;
 	let m = n > 1 ? w0 * 1e7 + w[1] : w0;
-	if (n > 2) m += w[2] / 1e7;
+	// A short first word leaves fewer than 16 digits in two words: the next two complete them.
+	if (n > 2) m += n > 3 ? (w[2] + w[3] / 1e7) / 1e7 : w[2] / 1e7;
 	// Exponent of the units of the last whole word read.
 	const scale = e - wordDigits(w0) + 1 - (n > 1 ? 7 : 0);
 	let v: number;

@@ -3,7 +3,7 @@
  * officer from the local code); no limit value is built into the engine.
  */
 import type Decimal from 'decimal.js';
-import { ONE } from './constants';
+import { numbersOf } from './constants';
 import { sqrt } from './fastmath';
 import type { NormLimit } from './validate';
 import type { LimitQuantity, LimitRef, PulseBasis, Tissue } from './types';
@@ -14,6 +14,7 @@ import type { LimitQuantity, LimitRef, PulseBasis, Tissue } from './types';
  * precision and much cheaper than exp/ln; anything else falls back to Decimal.pow.
  */
 export function powPositive(x: Decimal, y: Decimal): Decimal {
+	const { ONE } = numbersOf(x);
 	if (y.isZero()) return ONE;
 	const quarters = y.times(4);
 	if (quarters.isInteger() && quarters.abs().lte(4000)) {
@@ -32,27 +33,42 @@ export function powPositive(x: Decimal, y: Decimal): Decimal {
 }
 
 // tⁿ depends only on t and n, and a register uses few durations and few exponents: memoised by
-// value across assessments (a pure function, so sharing is safe), with a bounded size.
-const powers = new Map<string, Decimal>();
+// value across assessments (a pure function, so sharing is safe), with a bounded size. Kept per
+// clone, so that a 25-digit and a 40-digit run never share a value.
+const powers = new Map<unknown, Map<string, Decimal>>();
 const POWERS_MAX = 20000;
 
 export function memoPow(t: Decimal, n: Decimal): Decimal {
-	if (n.isZero()) return ONE;
+	const K = numbersOf(t);
+	if (n.isZero()) return K.ONE;
+	let byClone = powers.get(K.D);
+	if (!byClone) {
+		byClone = new Map();
+		powers.set(K.D, byClone);
+	}
 	const key = `${n.toString()}|${t.toString()}`;
-	let v = powers.get(key);
+	let v = byClone.get(key);
 	if (v === undefined) {
-		if (powers.size >= POWERS_MAX) powers.clear();
+		if (byClone.size >= POWERS_MAX) byClone.clear();
 		v = powPositive(t, n);
-		powers.set(key, v);
+		byClone.set(key, v);
 	}
 	return v;
 }
+
+/**
+ * The memos of a limit are shared by every assessment that offers the same limit (see the limit
+ * cache in validate.ts) and keyed by duration instance (durations read through the cache share
+ * instances); bounded, so that durations that never recur do not accumulate.
+ */
+const LIMIT_MEMO_MAX = 64;
 
 /** Limit value k·tⁿ at duration t (W/m² or J/m² according to the limit's quantity). */
 export function limitValueAt(limit: NormLimit, t: Decimal): Decimal {
 	const hit = limit.memo.get(t);
 	if (hit) return hit;
 	const v = limit.k.times(memoPow(t, limit.n));
+	if (limit.memo.size >= LIMIT_MEMO_MAX) limit.memo.clear();
 	limit.memo.set(t, v);
 	return v;
 }
@@ -61,7 +77,8 @@ export function limitValueAt(limit: NormLimit, t: Decimal): Decimal {
 export function limitReciprocal(limit: NormLimit, t: Decimal, value: Decimal): Decimal {
 	let inv = limit.inverseMemo.get(t);
 	if (inv === undefined) {
-		inv = ONE.div(value);
+		inv = numbersOf(value).ONE.div(value);
+		if (limit.inverseMemo.size >= LIMIT_MEMO_MAX) limit.inverseMemo.clear();
 		limit.inverseMemo.set(t, inv);
 	}
 	return inv;
@@ -98,7 +115,8 @@ export function applicableLimits(limits: NormLimit[], q: LimitQuery): NormLimit[
  * instance: the points of a path share a handful of durations.
  */
 export class LimitIndex {
-	private readonly memo = new Map<string, Map<Decimal, NormLimit[]>>();
+	// By tissue × basis × pulse-train flag (8 slots), then by duration instance.
+	private readonly memo: (Map<Decimal, NormLimit[]> | undefined)[] = new Array(8);
 	private readonly atWavelength: NormLimit[];
 	constructor(
 		readonly all: NormLimit[],
@@ -108,11 +126,11 @@ export class LimitIndex {
 	}
 
 	find(tissue: Tissue, basis: PulseBasis, duration: Decimal, needsTrainExponent: boolean): NormLimit[] {
-		const key = `${tissue}|${basis}|${needsTrainExponent ? 1 : 0}`;
-		let byDuration = this.memo.get(key);
+		const slot = (tissue === 'eye' ? 0 : 4) + (basis === 'continuous' ? 0 : 2) + (needsTrainExponent ? 1 : 0);
+		let byDuration = this.memo[slot];
 		if (!byDuration) {
 			byDuration = new Map();
-			this.memo.set(key, byDuration);
+			this.memo[slot] = byDuration;
 		}
 		let hit = byDuration.get(duration);
 		if (!hit) {

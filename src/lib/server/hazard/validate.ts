@@ -3,7 +3,7 @@
  * problem as a HazardInputError that names the field.
  */
 import type Decimal from 'decimal.js';
-import { HALF_PI, ONE, WAVELENGTH_MAX, WAVELENGTH_MIN, ZERO } from './constants';
+import { Dec, HALF_PI, ONE, WAVELENGTH_MAX, WAVELENGTH_MIN, ZERO, numbersFor, type DecimalClone } from './constants';
 import { ErrorList } from './errors';
 import { toOneOverE } from './beam';
 import { isMissing, optionalNumber, optionalText, requireEnum, requireNumber, requireText, type RangeRule } from './numbers';
@@ -88,6 +88,8 @@ export interface NormLimit {
 	limitingAperture: Decimal;
 	pulseBasis: PulseBasis;
 	pulseTrainExponent: Decimal | null;
+	/** 1/(π·D_f²/4), the reciprocal of the aperture area; null when D_f = 0. */
+	perApertureArea: Decimal | null;
 	/** Memo of k·tⁿ and of its reciprocal, keyed by the (interned) duration instance. */
 	memo: Map<Decimal, Decimal>;
 	inverseMemo: Map<Decimal, Decimal>;
@@ -108,22 +110,23 @@ function isRecord(value: unknown): value is Record<string, unknown> {
 
 /** Durations are interned by value so that a limit evaluated at the same t is computed once. */
 class Interner {
-	private readonly map = new Map<string, Decimal>();
+	// An assessment has a handful of distinct durations: a list compared by identity, then by value.
+	private readonly seen: Decimal[] = [];
 	get(d: Decimal): Decimal {
-		const key = d.toString();
-		const hit = this.map.get(key);
-		if (hit) return hit;
-		this.map.set(key, d);
+		for (const s of this.seen) if (s === d) return s;
+		for (const s of this.seen) if (s.eq(d)) return s;
+		this.seen.push(d);
 		return d;
 	}
 }
 
-function validateLine(raw: unknown, errors: ErrorList): NormLine | undefined {
+function validateLine(raw: unknown, errors: ErrorList, D: DecimalClone): NormLine | undefined {
 	if (!isRecord(raw)) {
 		errors.add('line', 'The emission line is required (wavelength, mode, beam diameter and divergence).');
 		return undefined;
 	}
-	const wavelength = requireNumber(errors, 'line.wavelength', raw.wavelength, WAVELENGTH, 'The wavelength');
+	// Wavelengths and repetition rates recur across a register: read through the cache.
+	const wavelength = requireNumber(errors, 'line.wavelength', raw.wavelength, WAVELENGTH, 'The wavelength', D, true);
 	const mode = requireEnum(errors, 'line.mode', raw.mode, EMISSION_MODES, 'The emission mode');
 	let power: Decimal | null = null;
 	let pulseEnergy: Decimal | null = null;
@@ -131,19 +134,19 @@ function validateLine(raw: unknown, errors: ErrorList): NormLine | undefined {
 	let repetitionRate: Decimal | null = null;
 	let ok = wavelength !== undefined && mode !== undefined;
 	if (mode === 'continuous') {
-		const p = requireNumber(errors, 'line.power', raw.power, POSITIVE, 'The power');
+		const p = requireNumber(errors, 'line.power', raw.power, POSITIVE, 'The power', D);
 		if (p === undefined) ok = false;
 		else power = p;
 	} else if (mode === 'single_pulse' || mode === 'repetitive') {
-		const q = requireNumber(errors, 'line.pulseEnergy', raw.pulseEnergy, POSITIVE, 'The pulse energy');
-		const tau = requireNumber(errors, 'line.pulseDuration', raw.pulseDuration, POSITIVE, 'The pulse duration');
+		const q = requireNumber(errors, 'line.pulseEnergy', raw.pulseEnergy, POSITIVE, 'The pulse energy', D);
+		const tau = requireNumber(errors, 'line.pulseDuration', raw.pulseDuration, POSITIVE, 'The pulse duration', D);
 		if (q === undefined || tau === undefined) ok = false;
 		else {
 			pulseEnergy = q;
 			pulseDuration = tau;
 		}
 		if (mode === 'repetitive') {
-			const f = requireNumber(errors, 'line.repetitionRate', raw.repetitionRate, POSITIVE, 'The repetition rate');
+			const f = requireNumber(errors, 'line.repetitionRate', raw.repetitionRate, POSITIVE, 'The repetition rate', D, true);
 			if (f === undefined) ok = false;
 			else {
 				repetitionRate = f;
@@ -154,11 +157,11 @@ function validateLine(raw: unknown, errors: ErrorList): NormLine | undefined {
 			}
 		}
 	}
-	const d0Entered = requireNumber(errors, 'line.beamDiameter', raw.beamDiameter, POSITIVE, 'The beam diameter');
+	const d0Entered = requireNumber(errors, 'line.beamDiameter', raw.beamDiameter, POSITIVE, 'The beam diameter', D);
 	const d0Def = requireEnum(errors, 'line.beamDiameterDefinition', raw.beamDiameterDefinition, BEAM_DEFINITIONS, 'The beam diameter definition');
-	const phiEntered = requireNumber(errors, 'line.divergence', raw.divergence, NON_NEGATIVE, 'The divergence');
+	const phiEntered = requireNumber(errors, 'line.divergence', raw.divergence, NON_NEGATIVE, 'The divergence', D);
 	const phiDef = requireEnum(errors, 'line.divergenceDefinition', raw.divergenceDefinition, BEAM_DEFINITIONS, 'The divergence definition');
-	const m2 = optionalNumber(errors, 'line.beamQuality', raw.beamQuality, AT_LEAST_ONE, 'The beam quality M²');
+	const m2 = optionalNumber(errors, 'line.beamQuality', raw.beamQuality, AT_LEAST_ONE, 'The beam quality M²', D);
 	if (!ok || d0Entered === undefined || d0Def === undefined || phiEntered === undefined || phiDef === undefined || m2 === undefined) return undefined;
 
 	const averagePower = mode === 'continuous' ? power : mode === 'repetitive' ? pulseEnergy!.times(repetitionRate!) : null;
@@ -178,11 +181,11 @@ function validateLine(raw: unknown, errors: ErrorList): NormLine | undefined {
 		divergenceDefinition: phiDef,
 		d0: toOneOverE(d0Entered, d0Def),
 		divergence: toOneOverE(phiEntered, phiDef),
-		beamQuality: m2 ?? ONE
+		beamQuality: m2 ?? numbersFor(D).ONE
 	};
 }
 
-function validateElement(raw: unknown, i: number, errors: ErrorList): NormElement | undefined {
+function validateElement(raw: unknown, i: number, errors: ErrorList, D: DecimalClone): NormElement | undefined {
 	const at = `elements.${i}`;
 	if (!isRecord(raw)) {
 		errors.add(at, `Element ${i + 1} must be an object with a kind.`);
@@ -194,53 +197,55 @@ function validateElement(raw: unknown, i: number, errors: ErrorList): NormElemen
 	switch (kind) {
 		case 'propagate':
 		case 'enclosure': {
-			const length = requireNumber(errors, `${at}.length`, raw.length, NON_NEGATIVE, 'The length');
+			const length = requireNumber(errors, `${at}.length`, raw.length, NON_NEGATIVE, 'The length', D);
 			return length === undefined ? undefined : { index: i, label, kind, length };
 		}
 		case 'transmission': {
-			const factor = requireNumber(errors, `${at}.transmission`, raw.transmission, FRACTION, 'The transmission');
+			const factor = requireNumber(errors, `${at}.transmission`, raw.transmission, FRACTION, 'The transmission', D);
 			return factor === undefined ? undefined : { index: i, label, kind, factor };
 		}
 		case 'mirror': {
-			const factor = optionalNumber(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance');
-			return factor === undefined ? undefined : { index: i, label, kind, factor: factor ?? ONE };
+			const factor = optionalNumber(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance', D);
+			return factor === undefined ? undefined : { index: i, label, kind, factor: factor ?? numbersFor(D).ONE };
 		}
 		case 'expander': {
-			const magnification = requireNumber(errors, `${at}.magnification`, raw.magnification, POSITIVE, 'The magnification');
+			const magnification = requireNumber(errors, `${at}.magnification`, raw.magnification, POSITIVE, 'The magnification', D);
 			return magnification === undefined ? undefined : { index: i, label, kind, magnification };
 		}
 		case 'lens': {
-			const focalLength = requireNumber(errors, `${at}.focalLength`, raw.focalLength, POSITIVE, 'The focal length');
+			const focalLength = requireNumber(errors, `${at}.focalLength`, raw.focalLength, POSITIVE, 'The focal length', D);
 			return focalLength === undefined ? undefined : { index: i, label, kind, focalLength };
 		}
 		case 'fibre': {
-			const coreDiameter = requireNumber(errors, `${at}.coreDiameter`, raw.coreDiameter, POSITIVE, 'The core diameter');
-			const numericalAperture = requireNumber(errors, `${at}.numericalAperture`, raw.numericalAperture, NUMERICAL_APERTURE, 'The numerical aperture');
-			const factor = optionalNumber(errors, `${at}.couplingTransmission`, raw.couplingTransmission, FRACTION, 'The coupling transmission');
+			const coreDiameter = requireNumber(errors, `${at}.coreDiameter`, raw.coreDiameter, POSITIVE, 'The core diameter', D);
+			const numericalAperture = requireNumber(errors, `${at}.numericalAperture`, raw.numericalAperture, NUMERICAL_APERTURE, 'The numerical aperture', D);
+			const factor = optionalNumber(errors, `${at}.couplingTransmission`, raw.couplingTransmission, FRACTION, 'The coupling transmission', D);
 			if (coreDiameter === undefined || numericalAperture === undefined || factor === undefined) return undefined;
-			return { index: i, label, kind, coreDiameter, numericalAperture, factor: factor ?? ONE };
+			return { index: i, label, kind, coreDiameter, numericalAperture, factor: factor ?? numbersFor(D).ONE };
 		}
 	}
 }
 
-function validatePoint(raw: unknown, i: number, errors: ErrorList, interner: Interner): NormPoint | undefined {
+function validatePoint(raw: unknown, i: number, errors: ErrorList, interner: Interner, D: DecimalClone): NormPoint | undefined {
 	const at = `points.${i}`;
 	if (!isRecord(raw)) {
 		errors.add(at, `Point ${i + 1} must be an object.`);
 		return undefined;
 	}
 	const id = requireText(errors, `${at}.id`, raw.id, 'The point id');
-	const position = requireNumber(errors, `${at}.position`, raw.position, NON_NEGATIVE, 'The position along the path');
+	const position = requireNumber(errors, `${at}.position`, raw.position, NON_NEGATIVE, 'The position along the path', D);
 	const tissue = requireEnum(errors, `${at}.tissue`, raw.tissue, TISSUES, 'The tissue');
 	const kind = requireEnum(errors, `${at}.kind`, raw.kind, POINT_KINDS, 'The point kind');
-	const exposureDuration = optionalNumber(errors, `${at}.exposureDuration`, raw.exposureDuration, POSITIVE, 'The exposure duration');
+	// Exposure durations recur across a register (a few standard values): read through the cache.
+	const exposureDuration = optionalNumber(errors, `${at}.exposureDuration`, raw.exposureDuration, POSITIVE, 'The exposure duration', D, true);
+	const zero = numbersFor(D).ZERO;
 	let reflectance: Decimal | null | undefined = null;
-	let viewingAngle: Decimal | null | undefined = ZERO;
+	let viewingAngle: Decimal | null | undefined = zero;
 	let viewingDistance: Decimal | null | undefined = null;
 	if (kind === 'diffuse') {
-		reflectance = optionalNumber(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance');
-		viewingAngle = optionalNumber(errors, `${at}.viewingAngle`, raw.viewingAngle, VIEWING_ANGLE, 'The viewing angle');
-		viewingDistance = optionalNumber(errors, `${at}.viewingDistance`, raw.viewingDistance, POSITIVE, 'The viewing distance');
+		reflectance = optionalNumber(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance', D);
+		viewingAngle = optionalNumber(errors, `${at}.viewingAngle`, raw.viewingAngle, VIEWING_ANGLE, 'The viewing angle', D);
+		viewingDistance = optionalNumber(errors, `${at}.viewingDistance`, raw.viewingDistance, POSITIVE, 'The viewing distance', D);
 	}
 	if (id === undefined || position === undefined || tissue === undefined || kind === undefined || exposureDuration === undefined || reflectance === undefined || viewingAngle === undefined || viewingDistance === undefined) return undefined;
 	return {
@@ -252,31 +257,99 @@ function validatePoint(raw: unknown, i: number, errors: ErrorList, interner: Int
 		kind,
 		exposureDuration: exposureDuration === null ? null : interner.get(exposureDuration),
 		reflectance,
-		viewingAngle: viewingAngle ?? ZERO,
+		viewingAngle: viewingAngle ?? zero,
 		viewingDistance
 	};
 }
 
-function validateLimit(raw: unknown, i: number, errors: ErrorList): NormLimit | undefined {
-	const at = `limits.${i}`;
+/** The fields of a limit input, in the order of its cache key. */
+const LIMIT_FIELDS = ['id', 'version', 'label', 'citation', 'tissue', 'wavelengthMin', 'wavelengthMax', 'durationMin', 'durationMax', 'quantity', 'k', 'n', 'limitingAperture', 'pulseBasis', 'pulseTrainExponent'] as const;
+
+/**
+ * A register offers the same few limits to every assessment. A valid limit is normalised once per
+ * content and clone: the cache key is the whole content (every field, its type and its text, each
+ * string prefixed by its length so that no two contents share a key), never the id and version, so
+ * an edited limit that keeps its id (a preview, a draft) is read afresh. Only plain strings and
+ * numbers make a key; anything else is validated every time. Invalid limits are never cached, so
+ * their errors are always reported. Bounded: cleared when full.
+ */
+type LimitCore = Omit<NormLimit, 'index'>;
+const LIMIT_CACHE_MAX = 512;
+const limitCaches = new Map<DecimalClone, Map<string, LimitCore>>();
+
+function limitKey(raw: Record<string, unknown>): string | null {
+	let key = '';
+	for (const f of LIMIT_FIELDS) {
+		const v = raw[f];
+		if (typeof v === 'string') key += `${v.length}:${v}`;
+		else if (typeof v === 'number') key += `#${v};`;
+		else if (v === undefined || v === null) key += '~';
+		else return null;
+	}
+	return key;
+}
+
+function fromCore(c: LimitCore, index: number): NormLimit {
+	return {
+		index,
+		id: c.id,
+		version: c.version,
+		label: c.label,
+		citation: c.citation,
+		tissue: c.tissue,
+		wavelengthMin: c.wavelengthMin,
+		wavelengthMax: c.wavelengthMax,
+		durationMin: c.durationMin,
+		durationMax: c.durationMax,
+		quantity: c.quantity,
+		k: c.k,
+		n: c.n,
+		limitingAperture: c.limitingAperture,
+		pulseBasis: c.pulseBasis,
+		pulseTrainExponent: c.pulseTrainExponent,
+		perApertureArea: c.perApertureArea,
+		memo: c.memo,
+		inverseMemo: c.inverseMemo
+	};
+}
+
+function validateLimit(raw: unknown, i: number, errors: ErrorList, D: DecimalClone): NormLimit | undefined {
 	if (!isRecord(raw)) {
-		errors.add(at, `Limit ${i + 1} must be an object.`);
+		errors.add(`limits.${i}`, `Limit ${i + 1} must be an object.`);
 		return undefined;
 	}
+	const key = limitKey(raw);
+	let cache = limitCaches.get(D);
+	if (!cache) {
+		cache = new Map();
+		limitCaches.set(D, cache);
+	}
+	const hit = key === null ? undefined : cache.get(key);
+	if (hit) return fromCore(hit, i);
+	const limit = readLimit(raw, i, errors, D);
+	if (limit && key !== null) {
+		if (cache.size >= LIMIT_CACHE_MAX) cache.clear();
+		cache.set(key, limit);
+	}
+	return limit;
+}
+
+function readLimit(raw: Record<string, unknown>, i: number, errors: ErrorList, D: DecimalClone): NormLimit | undefined {
+	const at = `limits.${i}`;
 	const id = requireText(errors, `${at}.id`, raw.id, 'The limit id');
 	const version = requireText(errors, `${at}.version`, raw.version, 'The limit version');
 	const citation = requireText(errors, `${at}.citation`, raw.citation, 'The citation of the local code', 1000);
 	const tissue = requireEnum(errors, `${at}.tissue`, raw.tissue, TISSUES, 'The tissue');
-	const wavelengthMin = requireNumber(errors, `${at}.wavelengthMin`, raw.wavelengthMin, POSITIVE, 'The lower wavelength');
-	const wavelengthMax = requireNumber(errors, `${at}.wavelengthMax`, raw.wavelengthMax, POSITIVE, 'The upper wavelength');
-	const durationMin = requireNumber(errors, `${at}.durationMin`, raw.durationMin, NON_NEGATIVE, 'The shortest duration');
-	const durationMax = requireNumber(errors, `${at}.durationMax`, raw.durationMax, POSITIVE, 'The longest duration');
+	const wavelengthMin = requireNumber(errors, `${at}.wavelengthMin`, raw.wavelengthMin, POSITIVE, 'The lower wavelength', D);
+	const wavelengthMax = requireNumber(errors, `${at}.wavelengthMax`, raw.wavelengthMax, POSITIVE, 'The upper wavelength', D);
+	const durationMin = requireNumber(errors, `${at}.durationMin`, raw.durationMin, NON_NEGATIVE, 'The shortest duration', D);
+	const durationMax = requireNumber(errors, `${at}.durationMax`, raw.durationMax, POSITIVE, 'The longest duration', D);
 	const quantity = requireEnum(errors, `${at}.quantity`, raw.quantity, LIMIT_QUANTITIES, 'The quantity');
-	const k = requireNumber(errors, `${at}.k`, raw.k, POSITIVE, 'The coefficient k');
-	const n = requireNumber(errors, `${at}.n`, raw.n, undefined, 'The exponent n');
-	const limitingAperture = requireNumber(errors, `${at}.limitingAperture`, raw.limitingAperture, NON_NEGATIVE, 'The limiting aperture');
+	const k = requireNumber(errors, `${at}.k`, raw.k, POSITIVE, 'The coefficient k', D);
+	const n = requireNumber(errors, `${at}.n`, raw.n, undefined, 'The exponent n', D);
+	const limitingAperture = requireNumber(errors, `${at}.limitingAperture`, raw.limitingAperture, NON_NEGATIVE, 'The limiting aperture', D);
 	const pulseBasis = requireEnum(errors, `${at}.pulseBasis`, raw.pulseBasis, PULSE_BASES, 'The pulse basis');
-	const pulseTrainExponent = optionalNumber(errors, `${at}.pulseTrainExponent`, raw.pulseTrainExponent, NOT_POSITIVE, 'The pulse-train exponent');
+	const pulseTrainExponent = optionalNumber(errors, `${at}.pulseTrainExponent`, raw.pulseTrainExponent, NOT_POSITIVE, 'The pulse-train exponent', D);
 	let ok = true;
 	if (wavelengthMin && wavelengthMax && wavelengthMax.lt(wavelengthMin)) {
 		errors.add(`${at}.wavelengthMax`, 'The upper wavelength must not be below the lower wavelength.');
@@ -291,6 +364,7 @@ function validateLimit(raw: unknown, i: number, errors: ErrorList): NormLimit | 
 		ok = false;
 	}
 	if (!ok || id === undefined || version === undefined || citation === undefined || tissue === undefined || wavelengthMin === undefined || wavelengthMax === undefined || durationMin === undefined || durationMax === undefined || quantity === undefined || k === undefined || n === undefined || limitingAperture === undefined || pulseBasis === undefined || pulseTrainExponent === undefined) return undefined;
+	const K = numbersFor(D);
 	return {
 		index: i,
 		id,
@@ -308,6 +382,7 @@ function validateLimit(raw: unknown, i: number, errors: ErrorList): NormLimit | 
 		limitingAperture,
 		pulseBasis,
 		pulseTrainExponent,
+		perApertureArea: limitingAperture.isZero() ? null : K.FOUR_OVER_PI.div(limitingAperture.times(limitingAperture)),
 		memo: new Map(),
 		inverseMemo: new Map()
 	};
@@ -337,22 +412,26 @@ function validateList<T>(raw: unknown, field: string, required: boolean, errors:
 
 export type Validated = { ok: true; input: NormInput } | { ok: false; errors: ErrorList };
 
-export function validate(raw: unknown): Validated {
+/**
+ * Validates and normalises an assessment input into decimals of clone D (`Dec`, 40 digits, unless
+ * told otherwise; assess() passes its 25-digit clone).
+ */
+export function validate(raw: unknown, D: DecimalClone = Dec): Validated {
 	const errors = new ErrorList();
 	if (!isRecord(raw)) {
 		errors.add('', 'The assessment input must be an object with line, elements, points and limits.');
 		return { ok: false, errors };
 	}
 	const interner = new Interner();
-	const line = validateLine(raw.line, errors);
-	const elements = validateList(raw.elements, 'elements', false, errors, (e, i) => validateElement(e, i, errors));
-	const points = validateList(raw.points, 'points', true, errors, (p, i) => validatePoint(p, i, errors, interner));
-	const limits = validateList(raw.limits, 'limits', true, errors, (l, i) => validateLimit(l, i, errors));
+	const line = validateLine(raw.line, errors, D);
+	const elements = validateList(raw.elements, 'elements', false, errors, (e, i) => validateElement(e, i, errors, D));
+	const points = validateList(raw.points, 'points', true, errors, (p, i) => validatePoint(p, i, errors, interner, D));
+	const limits = validateList(raw.limits, 'limits', true, errors, (l, i) => validateLimit(l, i, errors, D));
 
 	let nohdExposureDuration: Decimal | null | undefined = null;
 	if (!isMissing(raw.nohd)) {
 		if (!isRecord(raw.nohd)) errors.add('nohd', 'This must be an object with exposureDuration.');
-		else nohdExposureDuration = optionalNumber(errors, 'nohd.exposureDuration', raw.nohd.exposureDuration, POSITIVE, 'The NOHD exposure duration');
+		else nohdExposureDuration = optionalNumber(errors, 'nohd.exposureDuration', raw.nohd.exposureDuration, POSITIVE, 'The NOHD exposure duration', D, true);
 	}
 	let breakdown = true;
 	if (isRecord(raw.options) && raw.options.breakdown === false) breakdown = false;
@@ -366,7 +445,7 @@ export function validate(raw: unknown): Validated {
 		}
 	}
 	if (elements && points) {
-		let length = ZERO;
+		let length = numbersFor(D).ZERO;
 		for (const e of elements) if (e.kind === 'propagate' || e.kind === 'enclosure') length = length.plus(e.length);
 		for (const p of points) {
 			if (p.position.gt(length)) {

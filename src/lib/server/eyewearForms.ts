@@ -1,0 +1,42 @@
+// Load and save of the eyewear form, shared by "add" and "edit".
+import { error, redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { eyewearSchema, type EyewearForm } from '$lib/schemas/eyewear';
+import { requireRole } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import * as eyewear from '$lib/server/eyewear';
+import { failForm } from '$lib/server/forms';
+import * as labs from '$lib/server/labs';
+import { formatQuantity } from '$lib/units';
+
+export async function loadEyewearForm(locals: App.Locals, eyewearId: string | null) {
+	const scope = await scopeOf(requireRole(locals, 'officer'));
+	const labList = await labs.list();
+	if (eyewearId === null) {
+		const start: EyewearForm = { labId: '', label: '', location: '', frame: '', condition: 'good', lastCheckedAt: '', bands: [{ wavelengthMin: '', wavelengthMax: '', od: '' }], version: 0 };
+		return { labs: labList, form: await superValidate(start, zod4(eyewearSchema), { errors: false }), label: null };
+	}
+	const e = await eyewear.find(scope, eyewearId);
+	if (!e) error(404, { message: 'No such eyewear.' });
+	const values: EyewearForm = {
+		labId: e.labId,
+		label: e.label,
+		location: e.location,
+		frame: e.frame,
+		condition: e.condition,
+		lastCheckedAt: e.lastCheckedAt?.toISOString().slice(0, 10) ?? '',
+		bands: e.bands.map((b) => ({ wavelengthMin: formatQuantity(b.wavelengthMin, 'wavelength', { significantDigits: 10 }), wavelengthMax: formatQuantity(b.wavelengthMax, 'wavelength', { significantDigits: 10 }), od: String(Number(b.od)) })),
+		version: e.version
+	};
+	return { labs: labList, form: await superValidate(values, zod4(eyewearSchema)), label: e.label };
+}
+
+export async function saveEyewearForm(locals: App.Locals, request: Request, eyewearId: string | null) {
+	const scope = await scopeOf(requireRole(locals, 'officer'));
+	const form = await superValidate(request, zod4(eyewearSchema));
+	if (!form.valid) return fail(400, { form });
+	const result = await eyewear.save(scope, eyewearId, form.data);
+	if (!result.ok) return failForm(form, result);
+	redirect(303, '/eyewear');
+}
