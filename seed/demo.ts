@@ -207,3 +207,27 @@ export const demoClearance = {
 		{ kind: 'procedure' as const, minOd: '', wavelength: '', details: 'SOP MPC-07, set-up with the lid open.' }
 	]
 };
+
+/** Our own checklist, written from common practice for laser controlled areas. */
+export const demoChecklist = {
+	name: 'Laser controlled area — routine inspection',
+	items: [
+		'Warning signs at every entrance, legible and matching the lasers in use',
+		'Entry interlocks and emergency stop tested and working',
+		'Protective eyewear on hand for every wavelength in use, OD as in the clearances, in good condition',
+		'Beams enclosed or kept below eye level; beam stops at the end of every path',
+		'No stray reflective objects (tools, jewellery, mounts) near open beams',
+		'Standard operating procedure posted and current',
+		'Users authorised, with training current',
+		'Laser register entries match the lasers and beam paths found',
+		'Key control for Class 4 lasers in place'
+	]
+};
+
+/** Inspection schedule of the demo areas, relative to the day the demo is loaded. */
+export const demoInspections: { area: string; interval: number; lastDoneDaysAgo: number | null; dueInDays: number }[] = [
+	{ area: 'Ultrafast LCA M2.14', interval: 6, lastDoneDaysAgo: 230, dueInDays: -48 },
+	{ area: 'Spectroscopy LCA M1.07', interval: 12, lastDoneDaysAgo: 352, dueInDays: 12 },
+	{ area: 'Pulse Hall K0.02', interval: 6, lastDoneDaysAgo: 200, dueInDays: -17 },
+	{ area: 'Processing bay K0.11', interval: 12, lastDoneDaysAgo: 120, dueInDays: 245 }
+];

@@ -9,7 +9,11 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
-import { demoAreas, demoClearance, demoEyewear, demoLabs, demoLasers, demoLimits, demoUsers } from './demo';
+import { demoAreas, demoChecklist, demoClearance, demoEyewear, demoInspections, demoLabs, demoLasers, demoLimits, demoUsers } from './demo';
+import * as inspections from '$lib/server/inspections';
+import { addDays, format } from 'date-fns';
+import { createHash } from 'node:crypto';
+import { png } from './png';
 import * as eyewear from '$lib/server/eyewear';
 import * as reviews from '$lib/server/reviews';
 
@@ -60,7 +64,12 @@ async function loadRegister() {
 			continue;
 		}
 		const [created] = await db.transaction(async (tx) => {
-			const rows = await tx.insert(table.area).values({ labId: labId.get(a.lab)!, name: a.name, building: a.building, room: a.room, interlockNotes: a.interlockNotes, signageNotes: a.signageNotes }).returning();
+			const responsible = demoUsers.find((u) => u.role === 'researcher' && u.labs.includes(a.lab));
+			const [person] = responsible ? await tx.select({ id: table.user.id }).from(table.user).where(eq(table.user.email, responsible.email)) : [];
+			const rows = await tx
+				.insert(table.area)
+				.values({ labId: labId.get(a.lab)!, name: a.name, building: a.building, room: a.room, interlockNotes: a.interlockNotes, signageNotes: a.signageNotes, responsibleId: person?.id ?? null })
+				.returning();
 			await tx.insert(table.auditLog).values({ actorId: null, action: 'seed.area', entity: 'area', entityId: rows[0].id, after: rows[0] });
 			return rows;
 		});
@@ -99,6 +108,32 @@ async function loadEyewearAndClearance(officerId: string) {
 	}
 }
 
+async function loadInspections(officerId: string) {
+	const existing = await inspections.templates();
+	if (!existing.some((t) => t.name === demoChecklist.name)) await inspections.createTemplate(officerId, demoChecklist.name, demoChecklist.items);
+	const [template] = (await inspections.templates()).filter((t) => t.name === demoChecklist.name);
+	const day = (offset: number) => format(addDays(new Date(), offset), 'yyyy-MM-dd');
+	for (const d of demoInspections) {
+		const [area] = await db.select().from(table.area).where(eq(table.area.name, d.area));
+		const [any] = await db.select({ id: table.inspection.id }).from(table.inspection).where(eq(table.inspection.areaId, area.id)).limit(1);
+		if (any) continue;
+		await db.transaction(async (tx) => {
+			await tx.update(table.area).set({ inspectionIntervalMonths: d.interval, inspectorId: officerId }).where(eq(table.area.id, area.id));
+			if (d.lastDoneDaysAgo !== null) {
+				const [past] = await tx
+					.insert(table.inspection)
+					.values({ areaId: area.id, inspectorId: officerId, dueOn: day(-d.lastDoneDaysAgo), completedOn: day(-d.lastDoneDaysAgo), completedBy: officerId, templateId: template.id })
+					.returning();
+				await tx.insert(table.inspectionResult).values(template.items.map((i, sequence) => ({ inspectionId: past.id, sequence, itemText: i.text, outcome: 'pass' as const })));
+				const photo = png(96, 64, (x, y) => 120 + ((x * 3 + y * 5) % 100));
+				await tx.insert(table.document).values({ entity: 'inspection', entityId: past.id, fileName: 'door-sign.png', mediaType: 'image/png', size: photo.length, sha256: createHash('sha256').update(photo).digest('hex'), width: 96, height: 64, data: photo, uploadedBy: officerId });
+			}
+			const [open] = await tx.insert(table.inspection).values({ areaId: area.id, inspectorId: officerId, dueOn: day(d.dueInDays) }).returning();
+			await tx.insert(table.auditLog).values({ actorId: null, action: 'seed.inspection', entity: 'inspection', entityId: open.id, after: open });
+		});
+	}
+}
+
 export async function loadDemo(): Promise<{ labs: number; users: number; limits: number; lasers: number }> {
 	const people = await loadPeople();
 	const officer = await userByEmail(demoUsers.find((u) => u.role === 'officer')!.email);
@@ -107,6 +142,7 @@ export async function loadDemo(): Promise<{ labs: number; users: number; limits:
 	// Demo paths were saved after the limits: nothing is left stale.
 	await paths.reassessStale(1000);
 	await loadEyewearAndClearance(officer.id);
+	await loadInspections(officer.id);
 	return { ...people, limits: limitCount, lasers: laserCount };
 }
 

@@ -31,6 +31,13 @@ export const eyewearWords: Record<string, StateWord> = {
 	none_on_record: { word: 'none on record', icon: 'blank', tone: 'alert', hint: 'No usable eyewear of the lab has a band covering this wavelength.' }
 };
 
+export const inspectionWords: Record<string, StateWord> = {
+	scheduled: { word: 'scheduled', icon: 'calendar', tone: 'quiet', hint: 'Due more than 30 days from today.' },
+	due_soon: { word: 'due soon', icon: 'clock', tone: 'caution', hint: 'Due within 30 days.' },
+	overdue: { word: 'overdue', icon: 'alert', tone: 'alert', hint: 'Past its due date and not yet done.' },
+	done: { word: 'done', icon: 'ok', tone: 'calm', hint: 'Recorded as done.' }
+};
+
 export const laserStatusWords: Record<string, string> = { active: 'in use', in_storage: 'in storage', retired: 'retired' };
 export const modeWords: Record<string, string> = { continuous: 'continuous', single_pulse: 'single pulse', repetitive: 'repetitively pulsed' };
 export const elementWords: Record<string, string> = {

@@ -3,6 +3,7 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { expect, test, type APIRequestContext } from '@playwright/test';
+import postgres from 'postgres';
 import { routePolicy, allows } from '../../src/lib/server/auth/policy';
 import { roles, type Role } from '../../src/lib/roles';
 import { anonymousClient, demo, signedInClient } from './helpers';
@@ -52,12 +53,20 @@ test.beforeAll(async () => {
 	const inventory = await (await admin.get('/api/lasers?q=Solace')).json();
 	const laser = await (await admin.get(`/api/lasers/${inventory.items[0].id}`)).json();
 	const { limits } = await (await admin.get('/api/limits')).json();
+	// Records without a JSON listing are looked up in the end-to-end database itself.
+	const sql = postgres(`postgres://beamwarden_app@127.0.0.1:${process.env.BEAMWARDEN_PGPORT ?? '54329'}/beamwarden_e2e`, { max: 1 });
+	const [spx] = await sql`SELECT i.id AS inspection_id, d.id AS document_id FROM inspection i JOIN area a ON a.id = i.area_id JOIN lab l ON l.id = a.lab_id LEFT JOIN document d ON d.entity_id = i.id::text WHERE l.code = 'SPX' AND d.id IS NOT NULL LIMIT 1`;
+	const [goggles] = await sql`SELECT id FROM eyewear LIMIT 1`;
+	await sql.end();
 	sample = {
 		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
 		laserId: laser.laser.id,
 		lineId: laser.lines[0].id,
 		pathId: laser.paths[0].id,
-		limitId: limits[0].limitId
+		limitId: limits[0].limitId,
+		inspectionId: spx.inspection_id,
+		documentId: spx.document_id,
+		eyewearId: goggles.id
 	};
 	// A disabled person whose session was live before the disable
 	const person = { email: `disabled-${Date.now()}@test.example`, password: 'a long enough test passphrase' };
@@ -101,7 +110,8 @@ test('each route answers each caller as the policy says', async () => {
 			let ok: boolean;
 			const sentToSignIn = s === 303 && location.startsWith('/signin');
 			if (allowed) ok = s < 500 && s !== 401 && s !== 403 && (access === 'public' || !sentToSignIn);
-			else if (role === null) ok = e.kind === 'page' && e.method === 'GET' ? sentToSignIn : s === 401;
+			// Signed out, a browser GET outside the JSON API is sent to sign in; everything else answers 401.
+			else if (role === null) ok = e.method === 'GET' && !url.startsWith('/api/') ? sentToSignIn : s === 401;
 			else ok = s === 403;
 			if (!ok) mismatches.push(`${who} ${e.method} ${url}: ${s} ${location} (policy: ${allowed ? 'allow' : 'deny'})`);
 		}

@@ -14,7 +14,8 @@ test('a researcher registers a laser and a beam path, sees it assessed live, and
 	await expect(page.getByRole('link', { name: /Verdant Photonics Solace 5G/ })).toBeVisible();
 	await expectAccessible(page);
 	await page.getByRole('link', { name: 'Register a laser' }).click();
-	await page.getByLabel('Lab').selectOption({ label: 'SPX — Raman and Fluorescence Spectroscopy' });
+	await expect(page).toHaveURL(/\/lasers\/new$/);
+	await page.getByLabel('Lab', { exact: true }).selectOption({ label: 'SPX — Raman and Fluorescence Spectroscopy' });
 	await page.getByLabel('Maker').fill('Helio Instruments');
 	await page.getByLabel('Model').fill('Green 2000');
 	await page.getByLabel('Laser class').selectOption('4');
@@ -28,6 +29,7 @@ test('a researcher registers a laser and a beam path, sees it assessed live, and
 	await expect(page.getByRole('heading', { level: 1, name: 'Helio Instruments Green 2000' })).toBeVisible();
 
 	await page.getByRole('link', { name: 'New beam path' }).click();
+	await expect(page).toHaveURL(/\/paths\/new$/);
 	await page.getByLabel('Path name').fill('Pump line to the OPO');
 	// The starting path: 1 m of free space and a viewer at its end. Add a splitter and a lens.
 	await page.getByLabel('New element').selectOption('transmission');

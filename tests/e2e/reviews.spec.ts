@@ -18,9 +18,10 @@ test('an officer clears a flagged path with controls; a later change puts it bac
 	// The working is there to read, with the limits and their citations.
 	await expect(page.getByRole('heading', { level: 1, name: 'Feed to target chamber B' })).toBeVisible();
 	await expect(page.getByText(/1050–1150 nm/).first()).toBeVisible();
-	const working = page.getByText('Show the working').first();
-	await working.click();
+	await page.getByText('Show the working for the beam and the NOHD').click();
 	await expect(page.getByText('E_ph = h·c / λ').first()).toBeVisible();
+	await page.getByText('Show the working for “Open stretch beside the expander”').click();
+	await expect(page.getByText('H_beam = Q / (π·D²/4)').first()).toBeVisible();
 	await expectAccessible(page);
 
 	// Clear with eyewear of at least OD 5 at 1064 nm and an enclosure.

@@ -1,5 +1,5 @@
 /** What a data module returns when it refuses: a 4xx status, a sentence, and messages per field. */
-export type Failure = { ok: false; status: 400 | 403 | 404 | 409; message: string; fields?: Record<string, string[]> };
+export type Failure = { ok: false; status: 400 | 403 | 404 | 409 | 413; message: string; fields?: Record<string, string[]> };
 
 export function failure(status: Failure['status'], message: string, fields?: Record<string, string | string[]>): Failure {
 	const f: Failure = { ok: false, status, message };

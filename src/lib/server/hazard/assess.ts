@@ -10,6 +10,7 @@
 import type Decimal from 'decimal.js';
 import { AssessmentDec, ELEMENTARY_CHARGE, ENGINE_VERSION, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT, numbersOf, type DecimalClone } from './constants';
 import { Working } from './breakdown';
+import { compare } from './digits';
 import { requiredOpticalDensity, writeOd, type OdValue } from './density';
 import { hazardDistance } from './distances';
 import { walkPath } from './elements';
@@ -137,7 +138,7 @@ function compute(input: NormInput): AssessmentResult {
 		anyAccessible = true;
 		if (VERDICT_RANK[p.verdict] > VERDICT_RANK[verdict]) verdict = p.verdict;
 		const r = ratios[i];
-		if (r && (!worstRatio || r.gt(worstRatio))) {
+		if (r && (!worstRatio || compare(r, worstRatio) > 0)) {
 			worstRatio = r;
 			worstIndex = i;
 		}

@@ -19,6 +19,7 @@
  */
 import type Decimal from 'decimal.js';
 import { numbersOf } from './constants';
+import { compare } from './digits';
 import { sqrt } from './fastmath';
 import type { BeamDefinition } from './types';
 
@@ -64,7 +65,7 @@ export interface BeamState {
 /** D(z)² = D_w² + (φ·(z − z_w))². */
 export function diameterSquaredAt(state: BeamState, z: Decimal): Decimal {
 	const w2 = state.waistSquared ?? state.waistDiameter.times(state.waistDiameter);
-	if (state.divergence.isZero() || z.eq(state.waistPosition)) return w2;
+	if (state.divergence.isZero() || compare(z, state.waistPosition) === 0) return w2;
 	const spread = state.divergence.times(z.minus(state.waistPosition));
 	return w2.plus(spread.times(spread));
 }
@@ -75,7 +76,7 @@ export function diameterAt(state: BeamState, z: Decimal): Decimal {
 
 /** D(z) from D(z)²: the waist diameter itself where the beam has not spread, else the square root. */
 export function diameterFromSquare(state: BeamState, z: Decimal, d2: Decimal): Decimal {
-	if (state.divergence.isZero() || z.eq(state.waistPosition)) return state.waistDiameter;
+	if (state.divergence.isZero() || compare(z, state.waistPosition) === 0) return state.waistDiameter;
 	return sqrt(d2);
 }
 

@@ -5,6 +5,7 @@
  */
 import Decimal from 'decimal.js';
 import { numbersOf } from './constants';
+import { compare } from './digits';
 import { log10 } from './fastmath';
 import { fmt } from './format';
 import type { OpticalDensity } from './types';
@@ -16,16 +17,16 @@ export interface OdValue {
 }
 
 export function requiredOpticalDensity(ratio: Decimal): OdValue {
-	const { ONE, TEN, ZERO, ONE_TENTH } = numbersOf(ratio);
-	if (ratio.lte(ONE)) return { value: ZERO, roundedUpTenth: ZERO, roundedUpWhole: ZERO };
+	const { ONE, ZERO } = numbersOf(ratio);
+	if (compare(ratio, ONE) <= 0) return { value: ZERO, roundedUpTenth: ZERO, roundedUpWhole: ZERO };
 	const value = log10(ratio);
 	// Round away digits below 1e-12 before rounding up, so that arithmetic noise on an exact power of
-	// ten cannot add a whole OD.
+	// ten cannot add a whole OD. Rounding up to a tenth: ⌈10·OD⌉/10, i.e. one decimal place, ceiling.
 	const settled = value.toDecimalPlaces(12, Decimal.ROUND_HALF_EVEN);
 	return {
 		value,
-		roundedUpTenth: settled.times(TEN).ceil().times(ONE_TENTH),
-		roundedUpWhole: settled.ceil()
+		roundedUpTenth: settled.toDecimalPlaces(1, Decimal.ROUND_CEIL),
+		roundedUpWhole: settled.toDecimalPlaces(0, Decimal.ROUND_CEIL)
 	};
 }
 

@@ -21,6 +21,7 @@
 import type Decimal from 'decimal.js';
 import { numbersOf } from './constants';
 import type { Working } from './breakdown';
+import { compare } from './digits';
 import { sqrt } from './fastmath';
 import { applicableLimits, evaluateLimit, inverseNatural, limitForPlan, plansFor, MEASURE_UNIT, type CheckPlan, type PointContext } from './exposure';
 import { fmt, fmtOrNull, toSignificantString } from './format';
@@ -91,11 +92,11 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 			const el = lim.natural;
 			const dc2 = xScaled.times(inverseNatural(lim, plan, limit, t));
 			const dc = sqrt(dc2);
-			const threshold = beam.waist.gte(limit.limitingAperture) ? beam.waist : limit.limitingAperture;
+			const threshold = compare(beam.waist, limit.limitingAperture) >= 0 ? beam.waist : limit.limitingAperture;
 			let distance: Decimal | null = K.ZERO;
 			let linear: Decimal | null = K.ZERO;
 			let unbounded = false;
-			if (dc.gt(threshold)) {
+			if (compare(dc, threshold) > 0) {
 				if (beam.divergence.isZero()) {
 					distance = null;
 					linear = null;
@@ -140,7 +141,7 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 	let deciding = candidates[0];
 	for (const c of candidates) {
 		if (deciding.unbounded) break;
-		if (c.unbounded || c.distance!.gt(deciding.distance!)) deciding = c;
+		if (c.unbounded || compare(c.distance!, deciding.distance!) > 0) deciding = c;
 	}
 	const partial = withoutLimit.length > 0 ? ` No eye limit for the ${withoutLimit.map((k) => k.replace('_', ' ')).join(', ')} check: the distance may be understated.` : '';
 	if (w.enabled) {

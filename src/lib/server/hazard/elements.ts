@@ -28,6 +28,7 @@
 import type Decimal from 'decimal.js';
 import { numbersOf } from './constants';
 import { diameterAt, type BeamState } from './beam';
+import { compare } from './digits';
 import { asin } from './fastmath';
 import type { NormElement, NormLine } from './validate';
 
@@ -77,6 +78,20 @@ export function focalSpotDiameter(wavelength: Decimal, focalLength: Decimal, len
 	return TWO.times(beamQuality).times(wavelength).times(focalLength).div(PI.times(lensDiameter));
 }
 
+/** The beam after a zero-length element at z replaces `current` (which then ends at z). */
+function nextSnapshot(current: BeamSnapshot, z: Decimal, index: number, state: BeamState, factor?: { symbol: string; value: Decimal }): BeamSnapshot {
+	current.to = z;
+	return {
+		from: z,
+		to: z,
+		state,
+		// The first factor is the transmission itself (1 × T = T).
+		transmission: factor ? (current.factors.length === 0 ? factor.value : current.transmission.times(factor.value)) : current.transmission,
+		factors: factor ? [...current.factors, { index, symbol: factor.symbol, value: factor.value }] : current.factors,
+		afterElement: index
+	};
+}
+
 /** A beam state with D_w² formed once (every point on the stretch needs it). */
 function stateOf(waistDiameter: Decimal, waistPosition: Decimal, divergence: Decimal): BeamState {
 	return { waistDiameter, waistPosition, divergence, waistSquared: waistDiameter.times(waistDiameter) };
@@ -97,39 +112,29 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
 	const enclosures: EnclosedStretch[] = [];
 	const lenses: LensRecord[] = [];
 
-	const replace = (index: number, state: BeamState, factor?: { symbol: string; value: Decimal }) => {
-		current.to = z;
-		current = {
-			from: z,
-			to: z,
-			state,
-			transmission: factor ? current.transmission.times(factor.value) : current.transmission,
-			factors: factor ? [...current.factors, { index, ...factor }] : current.factors,
-			afterElement: index
-		};
-		snapshots.push(current);
-	};
-
 	for (const e of elements) {
 		switch (e.kind) {
 			case 'propagate':
 			case 'enclosure': {
-				if (e.kind === 'enclosure' && e.length.gt(ZERO)) enclosures.push({ index: e.index, from: z, to: z.plus(e.length) });
+				if (e.kind === 'enclosure' && !e.length.isZero()) enclosures.push({ index: e.index, from: z, to: z.plus(e.length) });
 				z = z.plus(e.length);
 				current.to = z;
 				break;
 			}
 			case 'transmission':
-				replace(e.index, current.state, { symbol: `T${subscript(e.index)}`, value: e.factor });
+				current = nextSnapshot(current, z, e.index, current.state, { symbol: `T${subscript(e.index)}`, value: e.factor });
+				snapshots.push(current);
 				break;
 			case 'mirror':
-				replace(e.index, current.state, { symbol: `R${subscript(e.index)}`, value: e.factor });
+				current = nextSnapshot(current, z, e.index, current.state, { symbol: `R${subscript(e.index)}`, value: e.factor });
+				snapshots.push(current);
 				break;
 			case 'expander': {
 				const s = current.state;
 				const m = e.magnification;
 				const behind = z.minus(s.waistPosition);
-				replace(e.index, stateOf(s.waistDiameter.times(m), z.minus(m.times(m).times(behind)), s.divergence.div(m)));
+				current = nextSnapshot(current, z, e.index, stateOf(s.waistDiameter.times(m), z.minus(m.times(m).times(behind)), s.divergence.div(m)));
+				snapshots.push(current);
 				break;
 			}
 			case 'lens': {
@@ -138,12 +143,14 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
 				const divergenceAfter = lensDiameter.div(e.focalLength);
 				const focusPosition = z.plus(e.focalLength);
 				lenses.push({ index: e.index, position: z, focalLength: e.focalLength, lensDiameter, focalSpot, divergenceAfter, focusPosition, transmission: current.transmission });
-				replace(e.index, stateOf(focalSpot, focusPosition, divergenceAfter));
+				current = nextSnapshot(current, z, e.index, stateOf(focalSpot, focusPosition, divergenceAfter));
+				snapshots.push(current);
 				break;
 			}
 			case 'fibre': {
 				const divergence = TWO.times(asin(e.numericalAperture));
-				replace(e.index, stateOf(e.coreDiameter, z, divergence), { symbol: `T${subscript(e.index)}`, value: e.factor });
+				current = nextSnapshot(current, z, e.index, stateOf(e.coreDiameter, z, divergence), { symbol: `T${subscript(e.index)}`, value: e.factor });
+				snapshots.push(current);
 				break;
 			}
 		}
@@ -157,13 +164,13 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
  */
 export function beamsAt(path: PathModel, z: Decimal): BeamSnapshot[] {
 	const out: BeamSnapshot[] = [];
-	for (const s of path.snapshots) if (s.from.lte(z) && z.lte(s.to)) out.push(s);
+	for (const s of path.snapshots) if (compare(s.from, z) <= 0 && compare(z, s.to) <= 0) out.push(s);
 	return out.length > 0 ? out : [path.snapshots[path.snapshots.length - 1]];
 }
 
 /** The enclosure that strictly contains z, if any. */
 export function enclosureAt(path: PathModel, z: Decimal): EnclosedStretch | null {
-	for (const e of path.enclosures) if (e.from.lt(z) && z.lt(e.to)) return e;
+	for (const e of path.enclosures) if (compare(e.from, z) < 0 && compare(z, e.to) < 0) return e;
 	return null;
 }
 

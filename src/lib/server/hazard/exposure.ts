@@ -24,6 +24,7 @@
 import type Decimal from 'decimal.js';
 import { numbersOf, type Numbers } from './constants';
 import { diameterFromSquare, diameterSquaredAt } from './beam';
+import { compare } from './digits';
 import { cosAcute, sqrt } from './fastmath';
 import { Working, type StepInput } from './breakdown';
 import { requiredOpticalDensity, writeOd, type OdValue } from './density';
@@ -209,7 +210,7 @@ export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathMod
 	let best: Evaluated | null = null;
 	for (const beam of beamsAt(path, point.position)) {
 		const ev = evaluateWithBeam(ctx, point, beam, enclosure ? enclosure.index : null);
-		if (!best || VERDICT_RANK[ev.verdict] > VERDICT_RANK[best.verdict] || (ev.verdict === best.verdict && ev.ratio && (!best.ratio || ev.ratio.gt(best.ratio)))) {
+		if (!best || VERDICT_RANK[ev.verdict] > VERDICT_RANK[best.verdict] || (ev.verdict === best.verdict && ev.ratio && (!best.ratio || compare(ev.ratio, best.ratio) > 0))) {
 			best = ev;
 		}
 	}
@@ -219,6 +220,10 @@ export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathMod
 }
 
 const NO_MISSING: string[] = [];
+
+function diffuseInputs(point: NormPoint, sym: string, v: Decimal, u: string): StepInput[] {
+	return [['ρ', point.reflectance!, ''], [sym, v, u], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']];
+}
 
 function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapshot, enclosedBy: number | null): Evaluated {
 	const { line, photonEnergy, K } = ctx;
@@ -275,14 +280,13 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse at the point (1/e, no aperture averaging)', 'H_beam = Q / (π·D²/4)', [['Q', energyAtPoint, 'J'], ['D', D, 'm']], pulseH, 'J/m²');
 		}
 	} else if (geometry) {
-		const diffuseInputs = (sym: string, v: Decimal, u: string): StepInput[] => [['ρ', point.reflectance!, ''], [sym, v, u], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']];
 		if (powerAtPoint) {
 			irradiance = geometry.times(powerAtPoint);
-			if (w.enabled) w.add('irradiance', 'Irradiance of the diffuse reflection at the viewer', 'E = ρ·P·cosθ / (π·r²)', diffuseInputs('P', powerAtPoint, 'W'), irradiance, 'W/m²', 'Lambertian surface.');
+			if (w.enabled) w.add('irradiance', 'Irradiance of the diffuse reflection at the viewer', 'E = ρ·P·cosθ / (π·r²)', diffuseInputs(point, 'P', powerAtPoint, 'W'), irradiance, 'W/m²', 'Lambertian surface.');
 		}
 		if (energyAtPoint) {
 			pulseH = geometry.times(energyAtPoint);
-			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse of the diffuse reflection at the viewer', 'H = ρ·Q·cosθ / (π·r²)', diffuseInputs('Q', energyAtPoint, 'J'), pulseH, 'J/m²', 'Lambertian surface.');
+			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse of the diffuse reflection at the viewer', 'H = ρ·Q·cosθ / (π·r²)', diffuseInputs(point, 'Q', energyAtPoint, 'J'), pulseH, 'J/m²', 'Lambertian surface.');
 		}
 	}
 	let photonFluxDensity: Decimal | null = null;
@@ -344,7 +348,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']], exposureNat, natUnit, 'Lambertian surface; no aperture averaging.');
 			} else {
 				const df = limit.limitingAperture;
-				averaging = D.gte(df) ? D : df;
+				averaging = compare(D, df) >= 0 ? D : df;
 				if (w.enabled) w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', df, 'm']], averaging, 'm');
 				// Over D itself the exposure is the beam's own; over D_f, X × 1/(π·D_f²/4) of the limit.
 				exposureNat = averaging === D ? atBeam! : x.times(limit.perApertureArea!);
@@ -366,7 +370,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			const unit = MEASURE_UNIT[limit.quantity];
 			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, unit], ['EL', lim.value, unit]], ratio, '');
 
-			const exceeds = ratio.gt(K.ONE);
+			const exceeds = compare(ratio, K.ONE) > 0;
 			const cmp: Comparison = {
 				limit: { id: limit.id, version: limit.version, label: limit.label, citation: limit.citation },
 				quantity: limit.quantity,
@@ -387,21 +391,21 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			}
 			comparisons.push(cmp);
 			used.push(limit);
-			if (!best || ratio.gt(best.ratio)) best = { ratio, limit, index: comparisons.length - 1 };
+			if (!best || compare(ratio, best.ratio) > 0) best = { ratio, limit, index: comparisons.length - 1 };
 
 			if (geometryR2) {
 				// r_h = √(ρ·X·cosθ/(π·EL)) with EL in the plan's measure.
 				const r = sqrt(geometryR2.times(x).times(inverseNatural(lim, plan, limit, t)));
-				if (!diffuseDistance || r.gt(diffuseDistance.r)) {
+				if (!diffuseDistance || compare(r, diffuseDistance.r) > 0) {
 					diffuseDistance = { r, limit, check: plan.kind, x, xs, sourceUnit: plan.sourceUnit, natural: lim.natural, natUnit };
 				}
 			}
 		}
 		const b = best!;
 		comparisons[b.index].deciding = true;
-		const checkVerdict: Verdict = b.ratio.gt(K.ONE) ? 'exceeds_limit' : 'within_limit';
+		const checkVerdict: Verdict = compare(b.ratio, K.ONE) > 0 ? 'exceeds_limit' : 'within_limit';
 		verdict = worseVerdict(verdict, checkVerdict);
-		if (!worstRatio || b.ratio.gt(worstRatio)) worstRatio = b.ratio;
+		if (!worstRatio || compare(b.ratio, worstRatio) > 0) worstRatio = b.ratio;
 		checks.push({
 			kind: plan.kind,
 			label: plan.label,

@@ -4,8 +4,8 @@
  *
  * decimal.js evaluates sqrt, ln, cos and asin to the full working precision by series, which costs
  * tens to hundreds of microseconds each. Here:
- *  • sqrt: a float64 seed (≈ 16 correct digits) refined by one Newton step x ← (x + a/x)/2, which
- *    doubles the correct digits: ≥ 30 significant digits (relative error < 1e-31) or the clone's
+ *  • sqrt: a float64 seed refined by one correction from the exact decimal residual a − s² (see
+ *    sqrt below): ≥ 29 significant digits (≥ 30 in clones of 30 digits or more) or the clone's
  *    precision, whichever is lower — far beyond the 12 reported. Exact squares of short decimals
  *    come out exact.
  *  • log₁₀ (optical density only): the decimal exponent is taken exactly from the decimal and only
@@ -17,49 +17,41 @@
  *  • asin (fibre NA): float64 up to 0.99, decimal.js beyond, where float64 loses digits.
  */
 import type Decimal from 'decimal.js';
-import { numbersOf } from './constants';
+import { Dec, numbersOf } from './constants';
+import { approxNumber, decimalFromFloat } from './digits';
+
+export { approxNumber } from './digits';
 
 type Words = { d: number[] | null; e: number; s: number };
 
-/** 10^i as float64 for i = 0 … 308 (correctly rounded; exact up to 1e22). */
-const POW10: number[] = Array.from({ length: 309 }, (_, i) => Number(`1e${i}`));
-
-/** Number of decimal digits of a base-1e7 word (1 … 7). */
-function wordDigits(w: number): number {
-	return w >= 1e4 ? (w >= 1e6 ? 7 : w >= 1e5 ? 6 : 5) : w >= 100 ? (w >= 1e3 ? 4 : 3) : w >= 10 ? 2 : 1;
-}
-
 /**
- * A float64 close to x (within a few units in the last place), read from the first four digit
- * words; decimals of up to 14 significant digits convert with a single rounding. For seeds only:
- * the result is not always the correctly rounded value. 0 or ±Infinity outside float64's range.
+ * √a without decimal division. The float64 root, as a decimal s (relative error ε), is corrected
+ * once with the exact decimal residual r = a − s²:
+ *     √a = s·√(1 + r/s²) = s + r/(2s) − r²/(8s³) + O(ε³·s),
+ * the correction c = r/(2s) − c²/(2s) being ~ε·s, so forming it in float64 (relative error ~1e-15)
+ * costs only ~1e-15·ε of the root. Clones under 30 digits (assess()): s has 15 digits built
+ * directly from the float (ε < 5e-15), s² (30 digits) is formed exactly in `Dec`; the root is good
+ * to ~1e-29 relative before the final rounding. Wider clones: s is the float's shortest decimal
+ * (up to 17 digits, ε ~ 3e-16) and the conversions are exact ones, for ~1e-31. The residual is
+ * short (a and s² agree in their first ~15 digits), so it is exact in either clone. Exact squares
+ * of short decimals (s exact, residual 0) come out exact.
  */
-export function approxNumber(x: Decimal): number {
-	const { d: w, e, s } = x as unknown as Words;
-	if (!w) return NaN;
-	const w0 = w[0];
-	if (w0 === 0) return 0;
-	const n = w.length;
-	let m = n > 1 ? w0 * 1e7 + w[1] : w0;
-	// A short first word leaves fewer than 16 digits in two words: the next two complete them.
-	if (n > 2) m += n > 3 ? (w[2] + w[3] / 1e7) / 1e7 : w[2] / 1e7;
-	// Exponent of the units of the last whole word read.
-	const scale = e - wordDigits(w0) + 1 - (n > 1 ? 7 : 0);
-	let v: number;
-	if (scale >= 0) v = scale > 308 ? Infinity : m * POW10[scale];
-	else if (scale >= -308) v = m / POW10[-scale];
-	else v = m / POW10[308] / (-scale - 308 > 308 ? Infinity : POW10[-scale - 308]);
-	return s < 0 ? -v : v;
-}
-
 export function sqrt(a: Decimal): Decimal {
 	if (a.isZero()) return a;
 	const K = numbersOf(a);
 	if (a.isNegative()) return new K.D(NaN);
 	const seed = Math.sqrt(approxNumber(a));
-	if (!(seed > 0 && seed < Infinity)) return a.sqrt();
-	const x = new K.D(seed);
-	return x.plus(a.div(x)).times(K.HALF);
+	// Beyond float64's comfortable range: decimal.js's own square root.
+	if (!(seed > 1e-150 && seed < 1e150)) return a.sqrt();
+	const wide = K.precision >= 30;
+	const s = wide ? new K.D(seed) : decimalFromFloat(K.D, seed);
+	const forSquare = wide ? s : decimalFromFloat(Dec, seed);
+	const residual = a.minus(forSquare.times(forSquare));
+	if (residual.isZero()) return s;
+	const twoS = 2 * approxNumber(s);
+	const first = (wide ? residual.toNumber() : approxNumber(residual)) / twoS;
+	const correction = first - (first * first) / twoS;
+	return s.plus(wide ? new K.D(correction) : decimalFromFloat(K.D, correction));
 }
 
 /** All significant digits of a finite non-zero decimal, as a string. */

@@ -13,15 +13,20 @@ export class NonFiniteResultError extends Error {
 }
 
 // The same decimal is often written several times within a few lines (a step's value is the next
-// step's input). A small ring of the last written instances, compared by identity, catches those
-// repeats; a WeakMap costs more on a miss than the formatting it saves.
-const RING = 16;
+// step's input, a duration or an aperture is written with every comparison). A ring of the last 64
+// written instances, compared by identity from the most recent, catches those repeats; a WeakMap
+// costs more on a miss than the formatting it saves.
+const RING = 64;
 const ringKeys: (Decimal | null)[] = new Array(RING).fill(null);
 const ringValues: string[] = new Array(RING).fill('');
 let ringNext = 0;
 
+export const STATS = { calls: 0, misses: 0 };
 export function fmt(d: Decimal, what = 'the computation'): string {
-	for (let i = 0; i < RING; i++) if (ringKeys[i] === d) return ringValues[i];
+	STATS.calls++;
+	for (let i = ringNext - 1; i >= 0; i--) if (ringKeys[i] === d) return ringValues[i];
+	for (let i = RING - 1; i >= ringNext; i--) if (ringKeys[i] === d) return ringValues[i];
+	STATS.misses++;
 	if (!d.isFinite()) throw new NonFiniteResultError(what);
 	const s = toSignificantString(d, OUTPUT_SIGNIFICANT_DIGITS);
 	ringKeys[ringNext] = d;
@@ -37,6 +42,46 @@ export function fmtOrNull(d: Decimal | null | undefined, what?: string): string 
 /** 10^i for i = 0 … 15, exact in float64. */
 const POW10 = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
 const ZEROS = '00000000000000000000000000000000000000000000000000';
+
+// Digit groups 0 … 9999 as text: plain ('25'), padded to four ('0025'), and each with its trailing
+// zeros removed ('25' → '25', '2500' → '25', '0250' → '025'). Writing an integer from 4-digit
+// groups avoids float64 → string conversion, which dominates otherwise (q exceeds 2^31).
+const GROUP: string[] = [];
+const GROUP4: string[] = [];
+const GROUP_TRIM: string[] = [];
+const GROUP4_TRIM: string[] = [];
+for (let i = 0; i < 10000; i++) {
+	const plain = String(i);
+	const padded = plain.padStart(4, '0');
+	GROUP.push(plain);
+	GROUP4.push(padded);
+	GROUP_TRIM.push(i === 0 ? '0' : plain.replace(/0+$/, ''));
+	GROUP4_TRIM.push(i === 0 ? '' : padded.replace(/0+$/, ''));
+}
+
+/** The decimal digits of a positive integer q < 1e14, without trailing zeros. */
+function integerDigits(q: number): string {
+	// Four groups of four digits (q < 1e14 keeps each quotient exact in float64).
+	const a = Math.floor(q / 1e4);
+	const g3 = q - a * 1e4;
+	const b = Math.floor(a / 1e4);
+	const g2 = a - b * 1e4;
+	const g0 = Math.floor(b / 1e4);
+	const g1 = b - g0 * 1e4;
+	if (g0 !== 0) {
+		if (g3 !== 0) return GROUP[g0] + GROUP4[g1] + GROUP4[g2] + GROUP4_TRIM[g3];
+		if (g2 !== 0) return GROUP[g0] + GROUP4[g1] + GROUP4_TRIM[g2];
+		if (g1 !== 0) return GROUP[g0] + GROUP4_TRIM[g1];
+		return GROUP_TRIM[g0];
+	}
+	if (g1 !== 0) {
+		if (g3 !== 0) return GROUP[g1] + GROUP4[g2] + GROUP4_TRIM[g3];
+		if (g2 !== 0) return GROUP[g1] + GROUP4_TRIM[g2];
+		return GROUP_TRIM[g1];
+	}
+	if (g2 !== 0) return g3 !== 0 ? GROUP[g2] + GROUP4_TRIM[g3] : GROUP_TRIM[g2];
+	return GROUP_TRIM[g3];
+}
 
 /**
  * Same text as d.toSignificantDigits(sd).toString() under the engine's settings (round half to even,
@@ -96,11 +141,7 @@ export function toSignificantString(d: Decimal, sd: number): string {
 			e += 1;
 		}
 	}
-	let digits = String(q);
-	let end = digits.length;
-	while (end > 1 && digits.charCodeAt(end - 1) === 48) end--;
-	if (end < digits.length) digits = digits.slice(0, end);
-	return place(digits, e, d.isNegative());
+	return place(integerDigits(q), e, d.isNegative());
 }
 
 /** Lays out significant digits with decimal exponent e as decimal.js's toString does. */

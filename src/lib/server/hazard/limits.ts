@@ -4,6 +4,7 @@
  */
 import type Decimal from 'decimal.js';
 import { numbersOf } from './constants';
+import { compare } from './digits';
 import { sqrt } from './fastmath';
 import type { NormLimit } from './validate';
 import type { LimitQuantity, LimitRef, PulseBasis, Tissue } from './types';
@@ -99,10 +100,10 @@ export function limitApplies(limit: NormLimit, q: LimitQuery): boolean {
 		limit.tissue === q.tissue &&
 		limit.pulseBasis === q.basis &&
 		(!q.needsTrainExponent || limit.pulseTrainExponent !== null) &&
-		limit.wavelengthMin.lte(q.wavelength) &&
-		q.wavelength.lte(limit.wavelengthMax) &&
-		limit.durationMin.lte(q.duration) &&
-		q.duration.lte(limit.durationMax)
+		compare(limit.wavelengthMin, q.wavelength) <= 0 &&
+		compare(q.wavelength, limit.wavelengthMax) <= 0 &&
+		compare(limit.durationMin, q.duration) <= 0 &&
+		compare(q.duration, limit.durationMax) <= 0
 	);
 }
 
@@ -122,7 +123,7 @@ export class LimitIndex {
 		readonly all: NormLimit[],
 		readonly wavelength: Decimal
 	) {
-		this.atWavelength = all.filter((l) => l.wavelengthMin.lte(wavelength) && wavelength.lte(l.wavelengthMax));
+		this.atWavelength = all.filter((l) => compare(l.wavelengthMin, wavelength) <= 0 && compare(wavelength, l.wavelengthMax) <= 0);
 	}
 
 	find(tissue: Tissue, basis: PulseBasis, duration: Decimal, needsTrainExponent: boolean): NormLimit[] {

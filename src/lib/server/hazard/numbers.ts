@@ -3,6 +3,7 @@
  */
 import type Decimal from 'decimal.js';
 import { Dec, type DecimalClone } from './constants';
+import { compare, parseDecimalText } from './digits';
 import type { ErrorList } from './errors';
 
 /** Plain decimal notation, optionally with an exponent: '5', '-0.25', '.5', '1.2e-3'. */
@@ -21,7 +22,7 @@ export function isMissing(value: unknown): boolean {
 export function readDecimal(value: unknown, D: DecimalClone = Dec): NumberRead {
 	if (typeof value === 'string') {
 		const text = value.trim();
-		if (DECIMAL_TEXT.test(text)) return { ok: true, value: new D(text) };
+		if (DECIMAL_TEXT.test(text)) return { ok: true, value: parseDecimalText(D, text) ?? new D(text) };
 		if (text === '') return { ok: false, reason: 'is required.', missing: true };
 		if (/^[+-]?(?:nan|infinity|inf)$/i.test(text)) {
 			return { ok: false, reason: `must be a finite number, not “${text}”.`, missing: false };
@@ -32,7 +33,8 @@ export function readDecimal(value: unknown, D: DecimalClone = Dec): NumberRead {
 	if (typeof value === 'number') {
 		if (Number.isNaN(value)) return { ok: false, reason: 'is not a number (NaN).', missing: false };
 		if (!Number.isFinite(value)) return { ok: false, reason: 'must be finite, not Infinity.', missing: false };
-		return { ok: true, value: new D(value) };
+		// decimal.js reads a number through its shortest text, as here.
+		return { ok: true, value: (value !== 0 && parseDecimalText(D, String(value))) || new D(value) };
 	}
 	if (typeof value === 'bigint') return { ok: true, value: new D(value.toString()) };
 	if (value !== null && typeof value === 'object' && typeof (value as Decimal).isFinite === 'function' && typeof (value as Decimal).toString === 'function') {
@@ -107,11 +109,11 @@ export function optionalNumber(errors: ErrorList, field: string, value: unknown,
 
 export function inRange(v: Decimal, rule: RangeRule): boolean {
 	if (rule.min !== undefined) {
-		const c = v.cmp(rule.min);
+		const c = compare(v, rule.min);
 		if (c < 0 || (c === 0 && rule.minExclusive)) return false;
 	}
 	if (rule.max !== undefined) {
-		const c = v.cmp(rule.max);
+		const c = compare(v, rule.max);
 		if (c > 0 || (c === 0 && rule.maxExclusive)) return false;
 	}
 	return true;

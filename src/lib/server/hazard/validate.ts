@@ -4,6 +4,7 @@
  */
 import type Decimal from 'decimal.js';
 import { Dec, HALF_PI, ONE, WAVELENGTH_MAX, WAVELENGTH_MIN, ZERO, numbersFor, type DecimalClone } from './constants';
+import { compare } from './digits';
 import { ErrorList } from './errors';
 import { toOneOverE } from './beam';
 import { isMissing, optionalNumber, optionalText, requireEnum, requireNumber, requireText, type RangeRule } from './numbers';
@@ -114,7 +115,7 @@ class Interner {
 	private readonly seen: Decimal[] = [];
 	get(d: Decimal): Decimal {
 		for (const s of this.seen) if (s === d) return s;
-		for (const s of this.seen) if (s.eq(d)) return s;
+		for (const s of this.seen) if (compare(s, d) === 0) return s;
 		this.seen.push(d);
 		return d;
 	}
@@ -267,26 +268,48 @@ const LIMIT_FIELDS = ['id', 'version', 'label', 'citation', 'tissue', 'wavelengt
 
 /**
  * A register offers the same few limits to every assessment. A valid limit is normalised once per
- * content and clone: the cache key is the whole content (every field, its type and its text, each
- * string prefixed by its length so that no two contents share a key), never the id and version, so
- * an edited limit that keeps its id (a preview, a draft) is read afresh. Only plain strings and
- * numbers make a key; anything else is validated every time. Invalid limits are never cached, so
- * their errors are always reported. Bounded: cleared when full.
+ * content and clone: the cache is keyed by the whole content (every field, compared by type and
+ * value on each hit), never by id and version alone, so an edited limit that keeps its id (a
+ * preview, a draft) is read afresh. Only plain strings and numbers (and a missing exponent) are
+ * cached; anything else is validated every time. Invalid limits are never cached, so their errors
+ * are always reported. Bounded: cleared when full.
  */
 type LimitCore = Omit<NormLimit, 'index'>;
+interface CachedLimit {
+	fields: unknown[];
+	core: LimitCore;
+}
 const LIMIT_CACHE_MAX = 512;
-const limitCaches = new Map<DecimalClone, Map<string, LimitCore>>();
+const limitCaches = new Map<DecimalClone, Map<number, CachedLimit[]>>();
 
-function limitKey(raw: Record<string, unknown>): string | null {
-	let key = '';
-	for (const f of LIMIT_FIELDS) {
-		const v = raw[f];
-		if (typeof v === 'string') key += `${v.length}:${v}`;
-		else if (typeof v === 'number') key += `#${v};`;
-		else if (v === undefined || v === null) key += '~';
-		else return null;
+/** The limit's field values in LIMIT_FIELDS order, or null when one is not a plain string or number. */
+function limitFields(raw: Record<string, unknown>): unknown[] | null {
+	const out: unknown[] = new Array(LIMIT_FIELDS.length);
+	for (let i = 0; i < LIMIT_FIELDS.length; i++) {
+		const v = raw[LIMIT_FIELDS[i]];
+		if (typeof v !== 'string' && typeof v !== 'number' && v !== undefined && v !== null) return null;
+		out[i] = v;
 	}
-	return key;
+	return out;
+}
+
+/** A cheap hash of the field values (lengths and a few characters of the strings, the numbers). */
+function hashFields(fields: unknown[]): number {
+	let h = 17;
+	for (const v of fields) {
+		if (typeof v === 'string') {
+			const n = v.length;
+			h = Math.imul(h ^ n, 0x9e3779b1);
+			if (n > 0) h = Math.imul(h ^ (v.charCodeAt(0) | (v.charCodeAt(n - 1) << 8) | (v.charCodeAt(n >> 1) << 16)), 0x85ebca6b);
+		} else if (typeof v === 'number') h = Math.imul(h ^ ((v * 1e6) | 0) ^ 0x5bd1e995, 0xc2b2ae35);
+		else h = Math.imul(h ^ (v === null ? 3 : 5), 0x27d4eb2f);
+	}
+	return h;
+}
+
+function sameFields(a: unknown[], b: unknown[]): boolean {
+	for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+	return true;
 }
 
 function fromCore(c: LimitCore, index: number): NormLimit {
@@ -318,18 +341,23 @@ function validateLimit(raw: unknown, i: number, errors: ErrorList, D: DecimalClo
 		errors.add(`limits.${i}`, `Limit ${i + 1} must be an object.`);
 		return undefined;
 	}
-	const key = limitKey(raw);
+	const fields = limitFields(raw);
+	if (fields === null) return readLimit(raw, i, errors, D);
 	let cache = limitCaches.get(D);
 	if (!cache) {
 		cache = new Map();
 		limitCaches.set(D, cache);
 	}
-	const hit = key === null ? undefined : cache.get(key);
-	if (hit) return fromCore(hit, i);
+	const hash = hashFields(fields);
+	const bucket = cache.get(hash);
+	if (bucket) for (const c of bucket) if (sameFields(c.fields, fields)) return fromCore(c.core, i);
 	const limit = readLimit(raw, i, errors, D);
-	if (limit && key !== null) {
+	if (limit) {
 		if (cache.size >= LIMIT_CACHE_MAX) cache.clear();
-		cache.set(key, limit);
+		const entry = { fields, core: limit };
+		const list = cache.get(hash);
+		if (list) list.push(entry);
+		else cache.set(hash, [entry]);
 	}
 	return limit;
 }
@@ -448,7 +476,7 @@ export function validate(raw: unknown, D: DecimalClone = Dec): Validated {
 		let length = numbersFor(D).ZERO;
 		for (const e of elements) if (e.kind === 'propagate' || e.kind === 'enclosure') length = length.plus(e.length);
 		for (const p of points) {
-			if (p.position.gt(length)) {
+			if (compare(p.position, length) > 0) {
 				errors.add(`points.${p.index}.position`, `The point lies past the end of the path: position ${p.position.toString()} m, path length ${length.toString()} m.`);
 			}
 		}

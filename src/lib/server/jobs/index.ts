@@ -4,6 +4,8 @@
 import PgBoss from 'pg-boss';
 import { queueDefinitions, queues, type QueueName } from './queues';
 import * as paths from '$lib/server/paths';
+import * as reminders from '$lib/server/reminders';
+import * as outbox from '$lib/server/mail/outbox';
 
 let boss: PgBoss | null = null;
 
@@ -16,8 +18,31 @@ const handlers: Record<QueueName, () => Promise<unknown>> = {
 			total += reassessed;
 			if (reassessed < 200) return { reassessed: total };
 		}
+	},
+	// Both mail jobs only touch the ledger: running one twice sends nothing twice. An SMTP outage
+	// is recorded on the ledger rows (retried later), not thrown; a database outage fails the job,
+	// which pg-boss logs through the 'error' event and the next schedule repeats.
+	[queues.mailDaily]: async () => {
+		const counts = await reminders.runDaily(new Date());
+		const delivered = await outbox.deliverAll();
+		return { ...counts, ...delivered };
+	},
+	[queues.mailDeliver]: async () => {
+		const notifications = await reminders.enqueueNotificationMails(new Date());
+		const delivered = await outbox.deliverAll();
+		return { notifications: notifications.inserted, ...delivered };
 	}
 };
+
+/** Run a queue's handler; a failure is logged (message only) and rethrown so pg-boss records it. */
+async function runHandler(name: QueueName) {
+	try {
+		return await handlers[name]();
+	} catch (e) {
+		console.error(`job ${name} failed:`, (e as Error).message);
+		throw e;
+	}
+}
 
 export async function startJobs(connectionString: string): Promise<PgBoss> {
 	if (boss) return boss;
@@ -26,7 +51,13 @@ export async function startJobs(connectionString: string): Promise<PgBoss> {
 	b.on('error', (e) => console.error('job queue:', e.message));
 	await b.start();
 	for (const q of queueDefinitions) {
-		await b.work(q.name, { pollingIntervalSeconds: 2 }, () => handlers[q.name]());
+		// Queues are created by the migration script; one not created yet (an older database) is
+		// skipped with a word in the log rather than stopping the other queues.
+		if (!(await b.getQueue(q.name))) {
+			console.error(`job queue: queue ${q.name} does not exist yet; run the migrations (scripts/migrate.ts)`);
+			continue;
+		}
+		await b.work(q.name, { pollingIntervalSeconds: 2 }, () => runHandler(q.name));
 		if (q.cron) await b.schedule(q.name, q.cron);
 	}
 	boss = b;

@@ -1,12 +1,21 @@
 // Every queue of the app, created by the migration script (as the schema owner) before any worker runs.
 export const queues = {
 	/** Re-evaluate beam paths whose assessment went stale (a limit or a line changed). */
-	reassessPaths: 'reassess-paths'
+	reassessPaths: 'reassess-paths',
+	/** Once a day: put the day's reminders in the mail ledger, assemble digests, then deliver. */
+	mailDaily: 'mail-daily',
+	/** Every minute and on a nudge: mail new in-app notifications and send what the ledger has due. */
+	mailDeliver: 'mail-deliver'
 } as const;
 
 export type QueueName = (typeof queues)[keyof typeof queues];
 
-/** 'stately': at most one waiting and one running job per queue, so nudges never pile up. */
+/**
+ * 'stately': at most one waiting and one running job per queue, so nudges never pile up.
+ * Cron times are UTC (pg-boss's default time zone).
+ */
 export const queueDefinitions: { name: QueueName; policy: 'standard' | 'stately'; cron?: string }[] = [
-	{ name: queues.reassessPaths, policy: 'stately', cron: '*/5 * * * *' }
+	{ name: queues.reassessPaths, policy: 'stately', cron: '*/5 * * * *' },
+	{ name: queues.mailDaily, policy: 'stately', cron: '0 6 * * *' },
+	{ name: queues.mailDeliver, policy: 'stately', cron: '* * * * *' }
 ];

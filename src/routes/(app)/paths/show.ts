@@ -39,7 +39,9 @@ export function exposure(v: string | number | null | undefined, unit: string | n
 	if (v === null || v === undefined || v === '' || !unit) return { si: '—', customary: '—' };
 	const kind: QuantityKind = unit.startsWith('W') ? 'irradiance' : 'radiant_exposure';
 	const per = kind === 'irradiance' ? 'W/cm²' : 'J/cm²';
-	return { si: withUnit(v, unit), customary: qty(String(v), kind, per).replace(/^(-?[\d.]+e[+-]?\d+)/, (m) => num(m)) };
+	const written = qty(String(v), kind, per);
+	const space = written.indexOf(' ');
+	return { si: withUnit(v, unit), customary: space > 0 ? `${num(written.slice(0, space))}${written.slice(space)}` : written };
 }
 
 export const tissueWords: Record<string, string> = { eye: 'eye', skin: 'skin' };

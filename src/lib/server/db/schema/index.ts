@@ -4,3 +4,4 @@ export * from './audit';
 export * from './register';
 export * from './limits';
 export * from './reviews';
+export * from './inspections';

@@ -38,6 +38,9 @@ export const area = pgTable(
 		responsibleId: text('responsible_id').references(() => user.id),
 		interlockNotes: text('interlock_notes').notNull().default(''),
 		signageNotes: text('signage_notes').notNull().default(''),
+		/** Months between inspections of this area. */
+		inspectionIntervalMonths: integer('inspection_interval_months').notNull().default(12),
+		inspectorId: text('inspector_id').references(() => user.id),
 		version: integer('version').notNull().default(1),
 		createdAt: created(),
 		updatedAt: updated()

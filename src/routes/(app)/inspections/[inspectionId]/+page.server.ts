@@ -1,0 +1,68 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { recordInspectionSchema, type RecordInspectionForm } from '$lib/schemas/inspections';
+import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import { failForm } from '$lib/server/forms';
+import * as inspections from '$lib/server/inspections';
+import { readUploads } from '$lib/server/uploads';
+import { inspectionState, todayISO } from '$lib/inspectionState';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+	const user = requireUser(locals);
+	const scope = await scopeOf(user);
+	const found = await inspections.find(scope, params.inspectionId);
+	if (!found) error(404, { message: 'No such inspection, or it belongs to a lab you are not a member of.' });
+	const templates = await inspections.templates();
+	const first = templates[0];
+	const start: RecordInspectionForm = {
+		completedOn: todayISO(),
+		templateId: first?.id ?? '',
+		results: (first?.items ?? []).map((i) => ({ itemText: i.text, outcome: 'pass', notes: '' })),
+		findings: [],
+		notes: '',
+		version: found.inspection.version
+	};
+	const today = todayISO();
+	return {
+		today,
+		inspection: { ...found.inspection, createdAt: found.inspection.createdAt.toISOString(), state: inspectionState(found.inspection.dueOn, found.inspection.completedOn, today) },
+		area: { id: found.area.id, name: found.area.name, room: found.area.room, building: found.area.building, interval: found.area.inspectionIntervalMonths, interlockNotes: found.area.interlockNotes, signageNotes: found.area.signageNotes },
+		labCode: found.labCode,
+		inspectorName: found.inspectorName,
+		results: found.results,
+		findings: found.findings.map((f) => ({ ...f, createdAt: f.createdAt.toISOString() })),
+		photos: found.photos,
+		history: found.history,
+		templates: templates.map((t) => ({ id: t.id, name: t.name, items: t.items.map((i) => i.text) })),
+		form: await superValidate(start, zod4(recordInspectionSchema), { errors: false }),
+		canRecord: user.role === 'officer' && !found.inspection.completedOn
+	};
+};
+
+export const actions: Actions = {
+	record: async function recordInspection({ locals, request, params }) {
+		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const form = await superValidate(request, zod4(recordInspectionSchema));
+		if (!form.valid) return fail(400, { form });
+		const r = await inspections.record(scope, params.inspectionId, form.data);
+		if (!r.ok) return failForm(form, r);
+		redirect(303, `/inspections/${params.inspectionId}?next=${r.nextDueOn}`);
+	},
+	photos: async function attachPhotos({ locals, request, params }) {
+		const scope = await scopeOf(requireRole(locals, 'officer'));
+		let data: FormData;
+		try {
+			data = await request.formData();
+		} catch {
+			return fail(400, { photoError: 'The upload could not be read; send the form again.' });
+		}
+		const files = await readUploads(data, 'photos');
+		if (!files.ok) return fail(files.status, { photoError: files.message });
+		const r = await inspections.attach(scope, params.inspectionId, files.files);
+		if (!r.ok) return fail(r.status, { photoError: r.fields ? Object.values(r.fields)[0][0] : r.message });
+		return { photosAdded: r.count };
+	}
+};

@@ -1,0 +1,22 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { templateSchema } from '$lib/schemas/inspections';
+import { requireRole } from '$lib/server/auth/guard';
+import * as inspections from '$lib/server/inspections';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals }) => {
+	requireRole(locals, 'officer');
+	return { templates: await inspections.templates() };
+};
+
+export const actions: Actions = {
+	create: async function createChecklist({ locals, request }) {
+		const officer = requireRole(locals, 'officer');
+		const raw = Object.fromEntries(await request.formData());
+		const parsed = templateSchema.safeParse(raw);
+		if (!parsed.success) return fail(400, { error: parsed.error.issues[0].message, values: { name: String(raw.name ?? ''), items: String(raw.items ?? '') } });
+		const lines = parsed.data.items.split('\n').map((l) => l.trim()).filter(Boolean);
+		await inspections.createTemplate(officer.id, parsed.data.name, lines);
+		redirect(303, '/inspections/checklists');
+	}
+};
