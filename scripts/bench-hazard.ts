@@ -1,18 +1,37 @@
 /**
  * Benchmark of the hazard engine on a synthetic campus register.
  *
- *   npx tsx scripts/bench-hazard.ts [paths=10000]
+ *   npx tsx scripts/bench-hazard.ts [paths=10000] [--runs=3] [--workers=0] [--reference=500]
  *
  * Generates (seeded, in-process) N beam paths × 4 points × 3 limits — a mix of continuous,
  * single-pulse and repetitive lines with a few elements each — evaluates every path with
  * `assess`, and times it against a plain float64 (Number) implementation of the same per-point
  * arithmetic run on the same data in the same process. Also cross-checks that both agree.
+ *
+ * Both implementations are first warmed up (compiled) on a separate register of 2000 paths drawn
+ * with another seed, untimed, so that the timed run sees no input twice. Each measurement is
+ * repeated --runs times (the machine may be shared): the best run is reported, all runs listed.
+ * --workers=N additionally times the register split over N worker threads of this process (each
+ * warmed up the same way); the single-thread figures are the primary ones. --reference=M compares
+ * the first M results, every written number of them, with a run of the engine at 40 digits.
  */
 import os from 'node:os';
+import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { assess } from '../src/lib/server/hazard/index';
+import { assessAtPrecision } from '../src/lib/server/hazard/assess';
+import { ASSESSMENT_PRECISION, Dec, WORKING_PRECISION } from '../src/lib/server/hazard/constants';
 import type { AssessmentInput, ElementInput, LimitInput, PointInput } from '../src/lib/server/hazard/index';
 
-const PATHS = Number(process.argv[2] ?? 10000);
+const args = process.argv.slice(2);
+const flag = (name: string, fallback: number) => {
+	const a = args.find((x) => x.startsWith(`--${name}=`));
+	return a ? Number(a.slice(name.length + 3)) : fallback;
+};
+const PATHS = Number(args.find((a) => !a.startsWith('--')) ?? (isMainThread ? 10000 : (workerData as { paths: number }).paths));
+const RUNS = flag('runs', 3);
+const WORKERS = flag('workers', 0);
+const REFERENCE = flag('reference', 500);
+const WARM_UP_PATHS = 2000;
 
 // ------------------------------------------------------------------ seeded data
 function mulberry32(seed: number): () => number {
@@ -25,10 +44,15 @@ function mulberry32(seed: number): () => number {
 		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
 	};
 }
-const rnd = mulberry32(20240611);
+let rnd = mulberry32(20240611);
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
 /** A decimal string with 4 significant digits, log-uniform between lo and hi. */
 const logU = (lo: number, hi: number) => Math.exp(Math.log(lo) + rnd() * (Math.log(hi) - Math.log(lo))).toPrecision(4);
+/** n paths drawn from the generator seeded with `seed`. */
+function registerOf(n: number, seed: number): AssessmentInput[] {
+	rnd = mulberry32(seed);
+	return Array.from({ length: n }, (_, i) => makePath(i));
+}
 
 const WAVELENGTHS = ['405e-9', '532e-9', '800e-9', '1064e-9', '1550e-9', '10.6e-6'];
 const DEFS = ['1/e', '1/e2', 'fwhm'] as const;
@@ -225,84 +249,181 @@ function f64(input: AssessmentInput): { points: F64Point[]; nohd: number } {
 }
 
 // ------------------------------------------------------------------ run
-/** Wall time, and the CPU time of this process (steadier than wall time on a shared machine). */
-const cpuMs: Record<string, number> = {};
-function time<T>(fn: () => T, label: string): [T, number] {
-	const c0 = process.cpuUsage();
-	const t0 = process.hrtime.bigint();
-	const out = fn();
-	const wall = Number(process.hrtime.bigint() - t0) / 1e6;
-	const c = process.cpuUsage(c0);
-	cpuMs[label] = (c.user + c.system) / 1000;
-	return [out, wall];
-}
-
-const register = Array.from({ length: PATHS }, (_, i) => makePath(i));
-// Warm-up on a slice, so that both implementations are compiled before timing.
-for (const p of register.slice(0, 300)) {
-	assess(p);
-	f64(p);
-}
-
-// Float64 first, on its own, so it does not pay for the engine's garbage.
-const [baseline, f64Ms] = time(() => register.map((p) => f64(p)), 'f64');
-
 interface Summary {
 	ok: boolean;
 	verdict: string;
 	ratios: (string | null)[];
 	bytes: number;
 }
-/** Runs the engine over the register keeping only a summary of each result (as a service would). */
-function runEngine(breakdown: boolean, measureJson: boolean): Summary[] {
-	const out: Summary[] = new Array(register.length);
-	for (let i = 0; i < register.length; i++) {
-		const o = assess(breakdown ? register[i] : { ...register[i], options: { breakdown: false } });
+const LEAN = { breakdown: false } as const;
+/** Runs the engine over paths keeping only a summary of each result (as a service would). */
+function runEngine(paths: AssessmentInput[], breakdown: boolean, measureJson = false): Summary[] {
+	const out: Summary[] = new Array(paths.length);
+	for (let i = 0; i < paths.length; i++) {
+		const o = assess(breakdown ? paths[i] : { ...paths[i], options: LEAN });
 		out[i] = o.ok
 			? { ok: true, verdict: o.result.verdict, ratios: o.result.points.map((p) => p.worstRatio), bytes: measureJson ? JSON.stringify(o.result).length : 0 }
 			: { ok: false, verdict: JSON.stringify(o.errors), ratios: [], bytes: 0 };
 	}
 	return out;
 }
-const [results, engineMs] = time(() => runEngine(true, false), 'engine');
-const [, engineLeanMs] = time(() => runEngine(false, false), 'lean');
-const sized = runEngine(true, true).slice(0, 1000);
-
-// Cross-check: every worst ratio per point agrees with the float64 baseline.
-let failures = 0;
-let points = 0;
-let maxRel = 0;
-let nullMismatch = 0;
-const counts: Record<string, number> = {};
-results.forEach((out, i) => {
-	if (!out.ok) {
-		failures++;
-		if (failures < 4) console.error('input error', out.verdict);
-		return;
+/** Compiles both implementations on paths that the timed run never sees. */
+function warmUp(): void {
+	const warm = registerOf(WARM_UP_PATHS, 7);
+	for (let pass = 0; pass < 2; pass++) {
+		runEngine(warm, true);
+		runEngine(warm, false);
+		for (const p of warm) f64(p);
 	}
-	counts[out.verdict] = (counts[out.verdict] ?? 0) + 1;
-	out.ratios.forEach((r, j) => {
-		points++;
-		const b = baseline[i].points[j].ratio;
-		if (r === null || b === null) {
-			if ((r === null) !== (b === null)) nullMismatch++;
+}
+
+interface Timing {
+	wall: number;
+	cpu: number;
+}
+/** Wall time, and the CPU time of this process (all threads; steadier than wall time on a shared machine). */
+function time<T>(fn: () => T): [T, Timing] {
+	const c0 = process.cpuUsage();
+	const t0 = process.hrtime.bigint();
+	const out = fn();
+	const wall = Number(process.hrtime.bigint() - t0) / 1e6;
+	const c = process.cpuUsage(c0);
+	return [out, { wall, cpu: (c.user + c.system) / 1000 }];
+}
+async function timeAsync<T>(fn: () => Promise<T>): Promise<[T, Timing]> {
+	const c0 = process.cpuUsage();
+	const t0 = process.hrtime.bigint();
+	const out = await fn();
+	const wall = Number(process.hrtime.bigint() - t0) / 1e6;
+	const c = process.cpuUsage(c0);
+	return [out, { wall, cpu: (c.user + c.system) / 1000 }];
+}
+const best = (ts: Timing[]) => ts.reduce((a, b) => (b.wall < a.wall ? b : a));
+const list = (ts: Timing[]) => ts.map((t) => t.wall.toFixed(0)).join(', ');
+
+async function main(): Promise<void> {
+	const register = registerOf(PATHS, 20240611);
+	warmUp();
+
+	// Float64 first in each round, on its own, so it does not pay for the engine's garbage.
+	const f64Runs: Timing[] = [];
+	const onRuns: Timing[] = [];
+	const offRuns: Timing[] = [];
+	let baseline: ReturnType<typeof f64>[] = [];
+	let results: Summary[] = [];
+	for (let r = 0; r < RUNS; r++) {
+		const [b, tf] = time(() => register.map((p) => f64(p)));
+		baseline = b;
+		f64Runs.push(tf);
+		const [res, ton] = time(() => runEngine(register, true));
+		results = res;
+		onRuns.push(ton);
+		offRuns.push(time(() => runEngine(register, false))[1]);
+	}
+	const sized = runEngine(register.slice(0, 1000), true, true);
+
+	// Optional: the same register over worker threads of this process.
+	let workerOn: Timing[] = [];
+	let workerOff: Timing[] = [];
+	if (WORKERS > 0) {
+		const per = Math.ceil(PATHS / WORKERS);
+		const workers = Array.from({ length: WORKERS }, (_, w) => new Worker(new URL(import.meta.url), { workerData: { paths: PATHS, from: w * per, to: Math.min(PATHS, (w + 1) * per) }, argv: [String(PATHS)] }));
+		await Promise.all(workers.map((w) => new Promise((resolve) => w.once('message', resolve))));
+		const round = (breakdown: boolean) =>
+			timeAsync(() =>
+				Promise.all(
+					workers.map(
+						(w) =>
+							new Promise<Summary[]>((resolve) => {
+								w.once('message', resolve);
+								w.postMessage({ breakdown });
+							})
+					)
+				).then((parts) => parts.flat())
+			);
+		for (let r = 0; r < RUNS; r++) {
+			const [parts, t] = await round(true);
+			if (parts.length !== PATHS || parts.some((p, i) => p.ratios.join() !== results[i].ratios.join())) throw new Error('worker results differ from the main thread');
+			workerOn.push(t);
+			workerOff.push((await round(false))[1]);
+		}
+		for (const w of workers) w.postMessage('exit');
+	}
+
+	// Cross-check: every worst ratio per point agrees with the float64 baseline.
+	let failures = 0;
+	let points = 0;
+	let maxRel = 0;
+	let nullMismatch = 0;
+	const counts: Record<string, number> = {};
+	results.forEach((out, i) => {
+		if (!out.ok) {
+			failures++;
+			if (failures < 4) console.error('input error', out.verdict);
 			return;
 		}
-		const rel = Math.abs(Number(r) - b) / b;
-		if (rel > maxRel) maxRel = rel;
+		counts[out.verdict] = (counts[out.verdict] ?? 0) + 1;
+		out.ratios.forEach((r, j) => {
+			points++;
+			const b = baseline[i].points[j].ratio;
+			if (r === null || b === null) {
+				if ((r === null) !== (b === null)) nullMismatch++;
+				return;
+			}
+			const rel = Math.abs(Number(r) - b) / b;
+			if (rel > maxRel) maxRel = rel;
+		});
 	});
-});
 
-const rssMB = process.resourceUsage().maxRSS / 1024;
-const avgKB = sized.reduce((a, s) => a + s.bytes, 0) / sized.length / 1024;
-console.log(`register: ${PATHS} paths, ${points} points, 3 limits per path; input errors: ${failures}`);
-console.log(`verdicts: ${JSON.stringify(counts)}`);
-const cpus = os.cpus();
-console.log(`machine: ${cpus.length} × ${cpus[0]?.model ?? '?'}, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}; node ${process.version}`);
-console.log(`decimal engine (with breakdown):    ${engineMs.toFixed(0)} ms wall, ${cpuMs.engine.toFixed(0)} ms CPU  (${((engineMs * 1000) / points).toFixed(1)} µs/point wall)`);
-console.log(`decimal engine (breakdown off):     ${engineLeanMs.toFixed(0)} ms wall, ${cpuMs.lean.toFixed(0)} ms CPU`);
-console.log(`float64 baseline (same arithmetic): ${f64Ms.toFixed(1)} ms wall, ${cpuMs.f64.toFixed(0)} ms CPU`);
-console.log(`ratio engine/baseline (wall): ${(engineMs / f64Ms).toFixed(1)}× with breakdown, ${(engineLeanMs / f64Ms).toFixed(1)}× breakdown off`);
-console.log(`worst ratios vs float64: max relative difference ${maxRel.toExponential(2)}, null mismatches ${nullMismatch}`);
-console.log(`result JSON per path (with breakdown): ${avgKB.toFixed(1)} kB; peak RSS: ${rssMB.toFixed(0)} MB`);
-console.log(`target < 2000 ms for the register: ${engineMs < 2000 ? 'met' : 'NOT met'}; within 10× of float64: ${engineMs / f64Ms <= 10 ? 'met' : 'NOT met'}`);
+	// Precision: whole results, every written number, against the engine run at 40 digits.
+	let written = 0;
+	let differing = 0;
+	for (const p of register.slice(0, REFERENCE)) {
+		const a = JSON.stringify(assess(p)).match(/"[^"]*"/g) ?? [];
+		const b = JSON.stringify(assessAtPrecision(p, Dec)).match(/"[^"]*"/g) ?? [];
+		for (let i = 0; i < Math.max(a.length, b.length); i++) {
+			if (/^"-?[\d.]+(e[+-]\d+)?"$/.test(b[i] ?? '')) written++;
+			if (a[i] !== b[i]) differing++;
+		}
+	}
+
+	const rssMB = process.resourceUsage().maxRSS / 1024;
+	const avgKB = sized.reduce((a, s) => a + s.bytes, 0) / sized.length / 1024;
+	const f = best(f64Runs);
+	const on = best(onRuns);
+	const off = best(offRuns);
+	const cpus = os.cpus();
+	console.log(`register: ${PATHS} paths, ${points} points, 3 limits per path; input errors: ${failures}`);
+	console.log(`verdicts: ${JSON.stringify(counts)}`);
+	console.log(`machine: ${cpus.length} × ${cpus[0]?.model ?? '?'}, load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}; node ${process.version}`);
+	console.log(`single thread, best of ${RUNS} (warm-up: ${WARM_UP_PATHS} other paths, untimed); engine at ${ASSESSMENT_PRECISION} digits:`);
+	console.log(`  decimal engine (with breakdown):    ${on.wall.toFixed(0)} ms wall, ${on.cpu.toFixed(0)} ms CPU  (${((on.wall * 1000) / points).toFixed(1)} µs/point wall)  [runs: ${list(onRuns)}]`);
+	console.log(`  decimal engine (breakdown off):     ${off.wall.toFixed(0)} ms wall, ${off.cpu.toFixed(0)} ms CPU  (${((off.wall * 1000) / points).toFixed(1)} µs/point wall)  [runs: ${list(offRuns)}]`);
+	console.log(`  float64 baseline (same arithmetic): ${f.wall.toFixed(1)} ms wall, ${f.cpu.toFixed(0)} ms CPU  [runs: ${list(f64Runs)}]`);
+	console.log(`  ratio engine/baseline (wall): ${(on.wall / f.wall).toFixed(1)}× with breakdown, ${(off.wall / f.wall).toFixed(1)}× breakdown off (CPU: ${(on.cpu / f.cpu).toFixed(1)}×, ${(off.cpu / f.cpu).toFixed(1)}×)`);
+	if (WORKERS > 0) {
+		const won = best(workerOn);
+		const woff = best(workerOff);
+		console.log(`${WORKERS} worker threads in this process, best of ${RUNS}: with breakdown ${won.wall.toFixed(0)} ms wall [runs: ${list(workerOn)}], breakdown off ${woff.wall.toFixed(0)} ms wall [runs: ${list(workerOff)}]`);
+	}
+	console.log(`worst ratios vs float64: max relative difference ${maxRel.toExponential(2)}, null mismatches ${nullMismatch}`);
+	console.log(`against the engine at ${WORKING_PRECISION} digits (first ${Math.min(REFERENCE, PATHS)} paths, ${written} written numbers): ${differing} strings differ`);
+	console.log(`result JSON per path (with breakdown): ${avgKB.toFixed(1)} kB; peak RSS: ${rssMB.toFixed(0)} MB`);
+	const verdict = (ms: number) => (ms < 2000 ? 'met' : 'NOT met');
+	const within = (ms: number) => (ms / f.wall <= 10 ? 'met' : 'NOT met');
+	console.log(`target < 2000 ms for the register (single thread): with breakdown ${verdict(on.wall)}, breakdown off ${verdict(off.wall)}; within 10× of float64: with breakdown ${within(on.wall)}, breakdown off ${within(off.wall)}`);
+}
+
+if (!isMainThread) {
+	// Worker: the same register (same seed), its own slice of it, warmed up like the main thread.
+	const { from, to } = workerData as { from: number; to: number };
+	const slice = registerOf(PATHS, 20240611).slice(from, to);
+	warmUp();
+	parentPort!.on('message', (m: { breakdown: boolean } | 'exit') => {
+		if (m === 'exit') process.exit(0);
+		parentPort!.postMessage(runEngine(slice, m.breakdown));
+	});
+	parentPort!.postMessage('ready');
+} else {
+	await main();
+}

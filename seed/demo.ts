@@ -15,6 +15,7 @@ export const demoUsers: DemoUser[] = [
 	{ email: 'priya.raman@northgate.example', name: 'Priya Raman', role: 'researcher', password: 'violet-ferry-lantern-42', labs: ['UFL', 'SPX'] },
 	{ email: 'tomas.weir@northgate.example', name: 'Tomas Weir', role: 'researcher', password: 'copper-meadow-signal-17', labs: ['HEL', 'MPC'] },
 	{ email: 'helen.achter@northgate.example', name: 'Helen Achter', role: 'officer', password: 'quiet-harbour-prism-63', labs: [] },
+	{ email: 'ines.varga@northgate.example', name: 'Ines Varga', role: 'officer', password: 'lattice-morning-ember-35', labs: [] },
 	{ email: 'marcus.oyel@northgate.example', name: 'Marcus Oyel', role: 'manager', password: 'amber-circuit-willow-28', labs: [] },
 	{ email: 'sam.lind@northgate.example', name: 'Sam Lind', role: 'admin', password: 'granite-orbit-pepper-91', labs: [] }
 ];

@@ -15,7 +15,8 @@ import { orError } from '$lib/server/pages';
 import type { AssessmentResult } from '$lib/server/hazard';
 import { formatQuantity, type QuantityKind } from '$lib/units';
 
-const shown = (v: string | null, kind: QuantityKind | null) => (v === null ? '' : kind ? formatQuantity(v, kind, { significantDigits: 12 }) : String(Number(v)));
+const shown = (v: string | null, kind: QuantityKind | null) =>
+	v === null ? '' : kind ? formatQuantity(v, kind, { significantDigits: 12, unit: kind === 'angle' ? '°' : undefined }) : String(Number(v));
 
 function editorLines(detail: NonNullable<lasers.LaserDetail>) {
 	return detail.lines.map((l) => ({

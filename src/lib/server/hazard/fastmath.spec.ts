@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { Dec, HALF_PI } from './constants';
+import Decimal from 'decimal.js';
+import { AssessmentDec, Dec, HALF_PI } from './constants';
 import { asin, cosAcute, log10, sqrt } from './fastmath';
 
 describe('fast elementary functions', () => {
@@ -15,6 +16,23 @@ describe('fast elementary functions', () => {
 		expect(sqrt(new Dec(4)).toString()).toBe('2');
 		expect(sqrt(new Dec('1e-6')).toString()).toBe('0.001');
 		expect(sqrt(new Dec(0)).toString()).toBe('0');
+	});
+
+	it('sqrt in the 25-digit assessment clone is within half a unit of the 25th digit (plus ~1e-29)', () => {
+		const Wide = Decimal.clone({ precision: 60 });
+		fc.assert(
+			fc.property(fc.double({ min: 1e-30, max: 1e30, noNaN: true }), fc.integer({ min: 1, max: 999 }), (x, tail) => {
+				const a = new AssessmentDec(x).times(`1.${tail}`).div(7);
+				const r = sqrt(a);
+				expect(r.constructor).toBe(AssessmentDec);
+				const exact = new Wide(a).sqrt();
+				// Half a unit in the 25th significant digit of r, relative to r, is at least 5e-26.
+				const halfUlp = new Wide(10).pow(r.e - 24).div(2);
+				return new Wide(r).minus(exact).abs().lte(halfUlp.plus(exact.times('1e-29')));
+			}),
+			{ numRuns: 500 }
+		);
+		for (const [x, root] of [['4', '2'], ['1e-6', '0.001'], ['2.25', '1.5'], ['0.000025', '0.005'], ['6.25e10', '250000']]) expect(sqrt(new AssessmentDec(x)).toString()).toBe(root);
 	});
 
 	it('log10 is within 1e-14 and exact on powers of ten', () => {
