@@ -327,7 +327,9 @@ async function main(): Promise<void> {
 	let workerOff: Timing[] = [];
 	if (WORKERS > 0) {
 		const per = Math.ceil(PATHS / WORKERS);
-		const workers = Array.from({ length: WORKERS }, (_, w) => new Worker(new URL(import.meta.url), { workerData: { paths: PATHS, from: w * per, to: Math.min(PATHS, (w + 1) * per) }, argv: [String(PATHS)] }));
+		// A worker does not inherit tsx's loader: its entry registers tsx, then imports this file.
+		const entry = `import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((tsx) => { tsx.register(); return import(${JSON.stringify(import.meta.url)}); })`;
+		const workers = Array.from({ length: WORKERS }, (_, w) => new Worker(entry, { eval: true, workerData: { paths: PATHS, from: w * per, to: Math.min(PATHS, (w + 1) * per) }, argv: [String(PATHS)] }));
 		await Promise.all(workers.map((w) => new Promise((resolve) => w.once('message', resolve))));
 		const round = (breakdown: boolean) =>
 			timeAsync(() =>

@@ -23,5 +23,10 @@ cat <<MSG
 $(npx tsx seed/signins.ts)
 
 MSG
-export HOST=127.0.0.1 PORT ORIGIN=${ORIGIN:-http://127.0.0.1:$PORT}
-exec node build
+export HOST=127.0.0.1 PORT ORIGIN=${ORIGIN:-http://127.0.0.1:$PORT} APP_URL=${APP_URL:-http://127.0.0.1:$PORT}
+# Photos up to 10 MB each, a few at once.
+export BODY_SIZE_LIMIT=${BODY_SIZE_LIMIT:-40M}
+start_fake_mail "${FAKE_SMTP_PORT:-2525}" "${BEAMWARDEN_MAILBOX_DIR:-.data/mailbox}"
+echo "  Mail goes to the local test mail server on 127.0.0.1:$FAKE_SMTP_PORT; admins read it under Sent mail."
+trap 'kill "$FAKE_MAIL_PID" 2>/dev/null' EXIT
+node build

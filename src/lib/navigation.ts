@@ -10,5 +10,6 @@ export const navigation: NavItem[] = [
 	{ href: '/inspections', label: 'Inspection rota', icon: 'calendar' },
 	{ href: '/eyewear', label: 'Eyewear store', icon: 'eye' },
 	{ href: '/limits', label: 'Limit library', icon: 'list' },
-	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: ['admin'] }
+	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: ['admin'] },
+	{ href: '/admin/mail', label: 'Sent mail', icon: 'list', roles: ['admin'] }
 ];

@@ -66,7 +66,8 @@ test.beforeAll(async () => {
 		limitId: limits[0].limitId,
 		inspectionId: spx.inspection_id,
 		documentId: spx.document_id,
-		eyewearId: goggles.id
+		eyewearId: goggles.id,
+		token: 'not-a-real-token'
 	};
 	// A disabled person whose session was live before the disable
 	const person = { email: `disabled-${Date.now()}@test.example`, password: 'a long enough test passphrase' };

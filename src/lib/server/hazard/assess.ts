@@ -11,7 +11,7 @@ import type Decimal from 'decimal.js';
 import { AssessmentDec, ELEMENTARY_CHARGE, ENGINE_VERSION, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT, numbersOf, type DecimalClone } from './constants';
 import { Working } from './breakdown';
 import { compare } from './digits';
-import { requiredOpticalDensity, writeOd, type OdValue } from './density';
+import { requiredOpticalDensity, writeOd } from './density';
 import { hazardDistance } from './distances';
 import { walkPath } from './elements';
 import { evaluatePoint, VERDICT_RANK, type PointContext } from './exposure';
@@ -94,7 +94,7 @@ function compute(input: NormInput): AssessmentResult {
 
 	// Check plans (by exposure duration) and the limits evaluated for them are shared by the hazard
 	// distances and the points of the assessment.
-	const ctx: PointContext = { line, limits: index, photonEnergy: ePh, perPhoton, plans: new Map(), breakdown: input.breakdown, used, K };
+	const ctx: PointContext = { line, limits: index, photonEnergy: ePh, perPhoton, plans: new Map(), breakdown: input.breakdown, used, K, photonEnergyText: fmt(ePh) };
 
 	// NOHD at the aperture.
 	const nohd = hazardDistance(ctx, input.nohdExposureDuration, { waist: line.d0, waistSymbol: 'D₀', divergence: line.divergence, transmission: K.ONE }, w, 'nohd', 'at the aperture');
@@ -120,12 +120,10 @@ function compute(input: NormInput): AssessmentResult {
 	// Points.
 	const points: PointResult[] = [];
 	const ratios: (Decimal | null)[] = [];
-	const ods: (OdValue | null)[] = [];
 	for (const p of input.points) {
 		const ev = evaluatePoint(ctx, p, path);
 		points.push(ev.result);
 		ratios.push(ev.ratio);
-		ods.push(ev.od);
 	}
 
 	// Aggregation over accessible points.
@@ -146,13 +144,14 @@ function compute(input: NormInput): AssessmentResult {
 	if (!anyAccessible) verdict = 'incomplete';
 	if (worstIndex < 0 && anyAccessible) worstIndex = points.findIndex((p) => p.accessible && p.verdict === verdict);
 	const worst = worstIndex >= 0 ? points[worstIndex] : null;
-	// The worst ratio is the worst point's own: so is its optical density.
-	const od = worstRatio ? (ratios[worstIndex] === worstRatio && ods[worstIndex]) || requiredOpticalDensity(worstRatio) : null;
+	// The worst ratio is the worst point's own: so is its optical density (written alike).
+	const pointOd = worstRatio && ratios[worstIndex] === worstRatio ? points[worstIndex].requiredOpticalDensity : null;
+	const od = pointOd ? { ...pointOd } : worstRatio ? writeOd(requiredOpticalDensity(worstRatio)) : null;
 
 	const lineResult: LineResult = {
 		wavelength: fmt(line.wavelength),
 		mode: line.mode,
-		photonEnergy: fmt(ePh),
+		photonEnergy: ctx.photonEnergyText,
 		photonEnergyEV: fmt(eV),
 		averagePower: fmtOrNull(line.averagePower),
 		peakPower: fmtOrNull(line.peakPower),
@@ -172,8 +171,8 @@ function compute(input: NormInput): AssessmentResult {
 		verdict,
 		reason: overallReason(verdict, anyAccessible, worst),
 		worstPointId: worst ? worst.id : null,
-		worstRatio: fmtOrNull(worstRatio),
-		requiredOpticalDensity: od ? writeOd(od) : null,
+		worstRatio: worst && worstRatio ? worst.worstRatio : null,
+		requiredOpticalDensity: od,
 		line: lineResult,
 		pathLength: fmt(path.length),
 		nohd: nohd.result,

@@ -6,20 +6,23 @@ import type Decimal from 'decimal.js';
 import { fmt } from './format';
 import type { BreakdownInput, BreakdownStep } from './types';
 
-export type StepInput = readonly [symbol: string, value: Decimal, unit: string];
+/** A value in a step: a decimal, or its text when the caller has already written it (see fmt). */
+export type StepValue = Decimal | string;
+export type StepInput = readonly [symbol: string, value: StepValue, unit: string];
 
 export class Working {
 	readonly steps: BreakdownStep[] = [];
 	constructor(readonly enabled: boolean) {}
 
-	add(id: string, label: string, formula: string, inputs: readonly StepInput[], value: Decimal, unit: string, note?: string): void {
+	add(id: string, label: string, formula: string, inputs: readonly StepInput[], value: StepValue, unit: string, note?: string): void {
 		if (!this.enabled) return;
 		const list: BreakdownInput[] = new Array(inputs.length);
 		for (let i = 0; i < inputs.length; i++) {
-			const [symbol, v, u] = inputs[i];
-			list[i] = { symbol, value: fmt(v, id), unit: u };
+			const input = inputs[i];
+			const v = input[1];
+			list[i] = { symbol: input[0], value: typeof v === 'string' ? v : fmt(v, id), unit: input[2] };
 		}
-		const step: BreakdownStep = { id, label, formula, inputs: list, value: fmt(value, id), unit };
+		const step: BreakdownStep = { id, label, formula, inputs: list, value: typeof value === 'string' ? value : fmt(value, id), unit };
 		if (note) step.note = note;
 		this.steps.push(step);
 	}

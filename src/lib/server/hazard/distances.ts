@@ -138,20 +138,23 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 			result: { ...base, status: 'no_applicable_limit', unbounded: false, distance: null, linearFormDistance: null, decidingLimit: null, decidingCheck: null, reason: `No entered eye limit applies at λ = ${fmt(line.wavelength)} m for the assumed durations; no NOHD can be given. Not shown as safe.` }
 		};
 	}
-	let deciding = candidates[0];
-	for (const c of candidates) {
-		if (deciding.unbounded) break;
-		if (c.unbounded || compare(c.distance!, deciding.distance!) > 0) deciding = c;
+	let decidingIndex = 0;
+	for (let i = 0; i < candidates.length; i++) {
+		const c = candidates[i];
+		if (candidates[decidingIndex].unbounded) break;
+		if (c.unbounded || compare(c.distance!, candidates[decidingIndex].distance!) > 0) decidingIndex = i;
 	}
+	const deciding = candidates[decidingIndex];
+	const decidingWritten = written[decidingIndex];
 	const partial = withoutLimit.length > 0 ? ` No eye limit for the ${withoutLimit.map((k) => k.replace('_', ' ')).join(', ')} check: the distance may be understated.` : '';
 	if (w.enabled) {
 		const dcInputs = [[deciding.plan.pointSymbol, deciding.x, deciding.plan.sourceUnit], ['EL', deciding.el, MEASURE_UNIT[deciding.plan.measure]]] as const;
 		const t = deciding.plan.duration!;
 		const lim = limitForPlan(deciding.limit, deciding.plan, t, w, `${prefix}.limit`);
 		if (deciding.plan.measure !== deciding.limit.quantity) {
-			w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', lim.value, MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, t, 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
+			w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', (lim.valueText ??= fmt(lim.value)), MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, (deciding.plan.durationText ??= fmt(t)), 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
 		}
-		w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, deciding.criticalDiameter, 'm');
+		w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, decidingWritten.criticalDiameter, 'm');
 	}
 	if (deciding.unbounded) {
 		return {
@@ -160,11 +163,11 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 		};
 	}
 	if (w.enabled) {
-		const dc = deciding.criticalDiameter;
+		const dc = decidingWritten.criticalDiameter;
 		if (deciding.distance!.isZero()) {
 			w.add(`${prefix}.distance`, 'Hazard distance', `0 when D_c ≤ max(${beam.waistSymbol}, D_f)`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['D_f', deciding.limit.limitingAperture, 'm']], K.ZERO, 'm');
 		} else {
-			w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], deciding.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${fmt(deciding.linear!)} m.`);
+			w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], decidingWritten.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${decidingWritten.linearFormDistance!} m.`);
 		}
 	}
 	return {
@@ -173,8 +176,8 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 			...base,
 			status: 'finite',
 			unbounded: false,
-			distance: fmt(deciding.distance!),
-			linearFormDistance: fmt(deciding.linear!),
+			distance: decidingWritten.distance!,
+			linearFormDistance: decidingWritten.linearFormDistance!,
 			decidingLimit: limitRef(deciding.limit),
 			decidingCheck: deciding.plan.kind,
 			reason: (deciding.distance!.isZero() ? `The beam ${place} is below the most restrictive eye limit at every distance.` : `Beyond ${toSignificantString(deciding.distance!, 4)} m ${place === 'at the aperture' ? 'from the aperture' : 'from the focus'} the beam is below “${deciding.limit.label}”.`) + partial

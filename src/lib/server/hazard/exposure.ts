@@ -27,7 +27,7 @@ import { diameterFromSquare, diameterSquaredAt } from './beam';
 import { compare } from './digits';
 import { cosAcute, sqrt } from './fastmath';
 import { Working, type StepInput } from './breakdown';
-import { requiredOpticalDensity, writeOd, type OdValue } from './density';
+import { requiredOpticalDensity, writeOd } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
 import { fmt, fmtOrNull, toSignificantString } from './format';
 import { limitReciprocal, limitRef, limitValueAt, memoPow, type LimitIndex } from './limits';
@@ -73,6 +73,7 @@ export interface CheckPlan {
 	applicable?: Partial<Record<Tissue, NormLimit[]>>;
 	evaluated?: Map<NormLimit, LimitInPlan>;
 	durationText?: string;
+	pulseCountText?: string;
 	perDuration?: Decimal;
 }
 
@@ -111,6 +112,9 @@ export interface LimitInPlan {
 	inverse: Decimal;
 	/** 1/natural (hazard distances), formed when first needed. */
 	inverseNatural?: Decimal;
+	/** Written value and train factor, once per assessment. */
+	valueText?: string;
+	trainFactorText?: string;
 }
 
 /** The limit for a plan, once per assessment: memoised on the plan (see CheckPlan). */
@@ -149,15 +153,33 @@ export function inverseNatural(lim: LimitInPlan, plan: CheckPlan, limit: NormLim
 	return inv;
 }
 
+/** Written forms of values that recur in every comparison (formed once, then shared). */
+export function limitTexts(limit: NormLimit) {
+	const t = limit.texts;
+	return {
+		k: (t.k ??= fmt(limit.k)),
+		n: (t.n ??= fmt(limit.n)),
+		aperture: (t.aperture ??= fmt(limit.limitingAperture))
+	};
+}
+function apertureText(limit: NormLimit): string {
+	return (limit.texts.aperture ??= fmt(limit.limitingAperture));
+}
+function valueText(lim: LimitInPlan): string {
+	return (lim.valueText ??= fmt(lim.value));
+}
+
 /** The limit for the plan, with its breakdown step when `w` is given. */
 export function limitForPlan(limit: NormLimit, plan: CheckPlan, t: Decimal, w: Working | null, stepId: string): LimitInPlan {
 	const lim = evaluateLimit(limit, plan, t);
 	if (w?.enabled) {
 		const unit = MEASURE_UNIT[limit.quantity];
+		const texts = limitTexts(limit);
+		const tText = durationText(plan, t);
 		if (lim.trainFactor) {
-			w.add(stepId, `Limit “${limit.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, ''], ['N', plan.pulseCount!, ''], ['x', limit.pulseTrainExponent!, '']], lim.value, unit, limit.citation);
+			w.add(stepId, `Limit “${limit.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', texts.k, unit], ['t', tText, 's'], ['n', texts.n, ''], ['N', (plan.pulseCountText ??= fmt(plan.pulseCount!)), ''], ['x', (limit.texts.trainExponent ??= fmt(limit.pulseTrainExponent!)), '']], valueText(lim), unit, limit.citation);
 		} else {
-			w.add(stepId, `Limit “${limit.label}”`, 'EL = k·tⁿ', [['k', limit.k, unit], ['t', t, 's'], ['n', limit.n, '']], lim.value, unit, limit.citation);
+			w.add(stepId, `Limit “${limit.label}”`, 'EL = k·tⁿ', [['k', texts.k, unit], ['t', tText, 's'], ['n', texts.n, '']], valueText(lim), unit, limit.citation);
 		}
 	}
 	return lim;
@@ -174,6 +196,8 @@ export interface PointContext {
 	breakdown: boolean;
 	used: Set<NormLimit>;
 	K: Numbers;
+	/** E_ph as written. */
+	photonEnergyText: string;
 }
 
 export function plansFor(ctx: PointContext, T: Decimal | null): CheckPlan[] {
@@ -202,31 +226,33 @@ interface Evaluated {
 	ratio: Decimal | null;
 	verdict: Verdict;
 	used: NormLimit[];
-	od: OdValue | null;
 }
 
-export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathModel): { result: PointResult; ratio: Decimal | null; od: OdValue | null } {
+export function evaluatePoint(ctx: PointContext, point: NormPoint, path: PathModel): { result: PointResult; ratio: Decimal | null } {
 	const enclosure = enclosureAt(path, point.position);
 	let best: Evaluated | null = null;
 	for (const beam of beamsAt(path, point.position)) {
 		const ev = evaluateWithBeam(ctx, point, beam, enclosure ? enclosure.index : null);
-		if (!best || VERDICT_RANK[ev.verdict] > VERDICT_RANK[best.verdict] || (ev.verdict === best.verdict && ev.ratio && (!best.ratio || compare(ev.ratio, best.ratio) > 0))) {
+		// The worse side decides; sides whose worst ratios are written alike (the same beam on both
+		// sides of a neutral element, or of two that cancel) are a tie, kept as the earlier beam, so
+		// that arithmetic noise below the written digits cannot choose.
+		if (!best || VERDICT_RANK[ev.verdict] > VERDICT_RANK[best.verdict] || (ev.verdict === best.verdict && ev.ratio && (!best.ratio || (ev.result.worstRatio !== best.result.worstRatio && compare(ev.ratio, best.ratio) > 0)))) {
 			best = ev;
 		}
 	}
 	// Only the chosen beam's limits count as used.
 	for (const l of best!.used) ctx.used.add(l);
-	return { result: best!.result, ratio: best!.ratio, od: best!.od };
+	return { result: best!.result, ratio: best!.ratio };
 }
 
 const NO_MISSING: string[] = [];
 
-function diffuseInputs(point: NormPoint, sym: string, v: Decimal, u: string): StepInput[] {
-	return [['ρ', point.reflectance!, ''], [sym, v, u], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']];
+function diffuseInputs(texts: [string, string, string], sym: string, v: string, u: string): StepInput[] {
+	return [['ρ', texts[0], ''], [sym, v, u], ['θ', texts[1], 'rad'], ['r', texts[2], 'm']];
 }
 
 function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapshot, enclosedBy: number | null): Evaluated {
-	const { line, photonEnergy, K } = ctx;
+	const { line, K } = ctx;
 	const w = new Working(ctx.breakdown);
 	const z = point.position;
 	const T = point.exposureDuration;
@@ -237,77 +263,92 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		if (point.reflectance === null) missingPoint.push(`points.${point.index}.reflectance`);
 		if (point.viewingDistance === null) missingPoint.push(`points.${point.index}.viewingDistance`);
 	}
+	// Every value is written once (12 digits) and the text reused wherever it appears again.
 
 	// Beam at the point.
 	const tPath = beam.transmission;
+	const tPathText = fmt(tPath);
 	const unattenuated = beam.factors.length === 0;
 	if (w.enabled) {
-		if (!unattenuated) w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPath, '');
-		else w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPath, '');
+		if (!unattenuated) w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPathText, '');
+		else w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPathText, '');
 	}
 	const s = beam.state;
 	const D2 = diameterSquaredAt(s, z);
 	const D = diameterFromSquare(s, z, D2);
-	if (w.enabled) w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', s.divergence, 'rad'], ['z', z, 'm'], ['z_w', s.waistPosition, 'm']], D, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
+	const dText = fmt(D);
+	const zText = fmt(z);
+	const divergenceText = fmt(s.divergence);
+	if (w.enabled) w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', divergenceText, 'rad'], ['z', zText, 'm'], ['z_w', s.waistPosition, 'm']], dText, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
 
 	// T_path = 1 exactly when no element attenuates: the source itself reaches the point.
 	const powerAtPoint = line.averagePower ? (unattenuated ? line.averagePower : tPath.times(line.averagePower)) : null;
 	const energyAtPoint = line.pulseEnergy ? (unattenuated ? line.pulseEnergy : tPath.times(line.pulseEnergy)) : null;
-	if (powerAtPoint && w.enabled) w.add('power', line.mode === 'continuous' ? 'Power at the point' : 'Average power at the point', line.mode === 'continuous' ? 'P = T_path·P₀' : 'P_avg = T_path·P_avg,0', [['T_path', tPath, ''], [line.mode === 'continuous' ? 'P₀' : 'P_avg,0', line.averagePower!, 'W']], powerAtPoint, 'W');
-	if (energyAtPoint && w.enabled) w.add('energy', 'Pulse energy at the point', 'Q = T_path·Q₀', [['T_path', tPath, ''], ['Q₀', line.pulseEnergy!, 'J']], energyAtPoint, 'J');
+	const powerText = powerAtPoint && fmt(powerAtPoint);
+	const energyText = energyAtPoint && fmt(energyAtPoint);
+	if (powerText && w.enabled) w.add('power', line.mode === 'continuous' ? 'Power at the point' : 'Average power at the point', line.mode === 'continuous' ? 'P = T_path·P₀' : 'P_avg = T_path·P_avg,0', [['T_path', tPathText, ''], [line.mode === 'continuous' ? 'P₀' : 'P_avg,0', line.averagePower!, 'W']], powerText, 'W');
+	if (energyText && w.enabled) w.add('energy', 'Pulse energy at the point', 'Q = T_path·Q₀', [['T_path', tPathText, ''], ['Q₀', line.pulseEnergy!, 'J']], energyText, 'J');
 
 	// Diffuse geometry: G = ρ·cosθ/(π·r²), m⁻², and G·r² = ρ·cosθ/π for the hazard distance.
 	let geometry: Decimal | null = null;
 	let geometryR2: Decimal | null = null;
+	let diffuseTexts: [string, string, string] | null = null;
 	if (diffuse && missingPoint.length === 0) {
 		const r = point.viewingDistance!;
 		geometryR2 = point.reflectance!.times(cosAcute(point.viewingAngle)).times(K.INV_PI);
 		geometry = geometryR2.div(r.times(r));
+		if (w.enabled) diffuseTexts = [fmt(point.reflectance!), fmt(point.viewingAngle), fmt(r)];
 	}
 
 	// Unaveraged irradiance / radiant exposure at the point and photon quantities.
 	let irradiance: Decimal | null = null;
 	let pulseH: Decimal | null = null;
+	let irradianceText: string | null = null;
+	let pulseHText: string | null = null;
 	if (!diffuse) {
 		// 1/(π·D²/4), from D² itself.
 		const perArea = K.FOUR_OVER_PI.div(D2);
 		if (powerAtPoint) {
 			irradiance = powerAtPoint.times(perArea);
-			if (w.enabled) w.add('irradiance', 'Irradiance of the beam at the point (1/e, no aperture averaging)', 'E_beam = P / (π·D²/4)', [['P', powerAtPoint, 'W'], ['D', D, 'm']], irradiance, 'W/m²');
+			irradianceText = fmt(irradiance);
+			if (w.enabled) w.add('irradiance', 'Irradiance of the beam at the point (1/e, no aperture averaging)', 'E_beam = P / (π·D²/4)', [['P', powerText!, 'W'], ['D', dText, 'm']], irradianceText, 'W/m²');
 		}
 		if (energyAtPoint) {
 			pulseH = energyAtPoint.times(perArea);
-			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse at the point (1/e, no aperture averaging)', 'H_beam = Q / (π·D²/4)', [['Q', energyAtPoint, 'J'], ['D', D, 'm']], pulseH, 'J/m²');
+			pulseHText = fmt(pulseH);
+			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse at the point (1/e, no aperture averaging)', 'H_beam = Q / (π·D²/4)', [['Q', energyText!, 'J'], ['D', dText, 'm']], pulseHText, 'J/m²');
 		}
 	} else if (geometry) {
 		if (powerAtPoint) {
 			irradiance = geometry.times(powerAtPoint);
-			if (w.enabled) w.add('irradiance', 'Irradiance of the diffuse reflection at the viewer', 'E = ρ·P·cosθ / (π·r²)', diffuseInputs(point, 'P', powerAtPoint, 'W'), irradiance, 'W/m²', 'Lambertian surface.');
+			irradianceText = fmt(irradiance);
+			if (w.enabled) w.add('irradiance', 'Irradiance of the diffuse reflection at the viewer', 'E = ρ·P·cosθ / (π·r²)', diffuseInputs(diffuseTexts!, 'P', powerText!, 'W'), irradianceText, 'W/m²', 'Lambertian surface.');
 		}
 		if (energyAtPoint) {
 			pulseH = geometry.times(energyAtPoint);
-			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse of the diffuse reflection at the viewer', 'H = ρ·Q·cosθ / (π·r²)', diffuseInputs(point, 'Q', energyAtPoint, 'J'), pulseH, 'J/m²', 'Lambertian surface.');
+			pulseHText = fmt(pulseH);
+			if (w.enabled) w.add('pulse-exposure', 'Radiant exposure of one pulse of the diffuse reflection at the viewer', 'H = ρ·Q·cosθ / (π·r²)', diffuseInputs(diffuseTexts!, 'Q', energyText!, 'J'), pulseHText, 'J/m²', 'Lambertian surface.');
 		}
 	}
-	let photonFluxDensity: Decimal | null = null;
-	let photonFluence: Decimal | null = null;
+	let photonFluxDensity: string | null = null;
+	let photonFluence: string | null = null;
 	if (irradiance) {
-		photonFluxDensity = irradiance.times(ctx.perPhoton);
-		if (w.enabled) w.add('photon-flux-density', 'Photon flux density at the point', 'Φ_A = E / E_ph', [['E', irradiance, 'W/m²'], ['E_ph', photonEnergy, 'J']], photonFluxDensity, 's⁻¹·m⁻²');
+		photonFluxDensity = fmt(irradiance.times(ctx.perPhoton));
+		if (w.enabled) w.add('photon-flux-density', 'Photon flux density at the point', 'Φ_A = E / E_ph', [['E', irradianceText!, 'W/m²'], ['E_ph', ctx.photonEnergyText, 'J']], photonFluxDensity, 's⁻¹·m⁻²');
 	}
 	if (pulseH) {
-		photonFluence = pulseH.times(ctx.perPhoton);
-		if (w.enabled) w.add('photon-fluence', 'Photons per pulse per area at the point', 'N_A = H / E_ph', [['H', pulseH, 'J/m²'], ['E_ph', photonEnergy, 'J']], photonFluence, 'm⁻²');
+		photonFluence = fmt(pulseH.times(ctx.perPhoton));
+		if (w.enabled) w.add('photon-fluence', 'Photons per pulse per area at the point', 'N_A = H / E_ph', [['H', pulseHText!, 'J/m²'], ['E_ph', ctx.photonEnergyText, 'J']], photonFluence, 'm⁻²');
 	}
 
 	// Checks.
 	const checks: CheckResult[] = [];
 	let verdict: Verdict = 'within_limit';
 	let worstRatio: Decimal | null = null;
-	let diffuseDistance: { r: Decimal; limit: NormLimit; check: CheckKind; x: Decimal; xs: string; sourceUnit: string; natural: Decimal; natUnit: string } | null = null;
+	let worstRatioText: string | null = null;
+	let diffuseDistance: { r: Decimal; limit: NormLimit; check: CheckKind; xText: string; xs: string; sourceUnit: string; natural: Decimal; natUnit: string } | null = null;
 	let allMissing: string[] = missingPoint;
 	const used: NormLimit[] = [];
-	const dText = diffuse ? null : fmt(D);
 
 	for (const plan of plansFor(ctx, T)) {
 		const t = plan.duration;
@@ -331,7 +372,9 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		// a beam at least as wide as the aperture, the exposure itself: already formed above.
 		const byPower = plan.sourceUnit === 'W';
 		const x = byPower ? powerAtPoint! : energyAtPoint!;
+		const xText = byPower ? powerText! : energyText!;
 		const atBeam = byPower ? irradiance : pulseH;
+		const atBeamText = byPower ? irradianceText : pulseHText;
 		const xs = plan.pointSymbol;
 		const nat = MEASURE_SYMBOL[plan.measure];
 		const natUnit = MEASURE_UNIT[plan.measure];
@@ -342,33 +385,45 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		for (const limit of limits) {
 			const sid = w.enabled ? `${plan.kind}.limit${limit.index}` : '';
 			let exposureNat: Decimal;
-			let averaging: Decimal | null = null;
+			let exposureNatText: string;
+			let averagingText: string | null = null;
 			if (diffuse) {
 				exposureNat = atBeam!;
-				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', point.reflectance!, ''], [xs, x, plan.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']], exposureNat, natUnit, 'Lambertian surface; no aperture averaging.');
+				exposureNatText = atBeamText!;
+				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', diffuseTexts![0], ''], [xs, xText, plan.sourceUnit], ['θ', diffuseTexts![1], 'rad'], ['r', diffuseTexts![2], 'm']], exposureNatText, natUnit, 'Lambertian surface; no aperture averaging.');
 			} else {
-				const df = limit.limitingAperture;
-				averaging = compare(D, df) >= 0 ? D : df;
-				if (w.enabled) w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', df, 'm']], averaging, 'm');
+				const overBeam = compare(D, limit.limitingAperture) >= 0;
+				averagingText = overBeam ? dText : apertureText(limit);
+				if (w.enabled) w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', dText, 'm'], ['D_f', apertureText(limit), 'm']], averagingText, 'm');
 				// Over D itself the exposure is the beam's own; over D_f, X × 1/(π·D_f²/4) of the limit.
-				exposureNat = averaging === D ? atBeam! : x.times(limit.perApertureArea!);
-				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, x, plan.sourceUnit], ['D_avg', averaging, 'm']], exposureNat, natUnit);
+				if (overBeam) {
+					exposureNat = atBeam!;
+					exposureNatText = atBeamText!;
+				} else {
+					exposureNat = x.times(limit.perApertureArea!);
+					exposureNatText = fmt(exposureNat);
+				}
+				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, xText, plan.sourceUnit], ['D_avg', averagingText, 'm']], exposureNatText, natUnit);
 			}
 			let exposure = exposureNat;
+			let exposureText = exposureNatText;
 			if (limit.quantity !== plan.measure) {
 				if (plan.measure === 'irradiance') {
 					exposure = exposureNat.times(t);
-					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNat, 'W/m²'], [plan.durationSymbol, t, 's']], exposure, 'J/m²');
+					exposureText = fmt(exposure);
+					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNatText, 'W/m²'], [plan.durationSymbol, tText, 's']], exposureText, 'J/m²');
 				} else {
 					exposure = exposureNat.times(perDuration(plan, t));
-					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
+					exposureText = fmt(exposure);
+					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNatText, 'J/m²'], ['τ', tText, 's']], exposureText, 'W/m²');
 				}
 			}
 			const lim = limitForPlan(limit, plan, t, w, w.enabled ? `${sid}.limit` : '');
 			const ratio = exposure.times(lim.inverse);
+			const ratioText = fmt(ratio);
 			const q = MEASURE_SYMBOL[limit.quantity];
 			const unit = MEASURE_UNIT[limit.quantity];
-			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposure, unit], ['EL', lim.value, unit]], ratio, '');
+			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposureText, unit], ['EL', valueText(lim), unit]], ratioText, '');
 
 			const exceeds = compare(ratio, K.ONE) > 0;
 			const cmp: Comparison = {
@@ -376,18 +431,18 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 				quantity: limit.quantity,
 				unit,
 				duration: tText,
-				limitingAperture: fmt(limit.limitingAperture),
-				beamDiameter: dText,
-				averagingDiameter: averaging ? fmt(averaging) : null,
-				exposure: fmt(exposure),
-				limitValue: fmt(lim.value),
-				ratio: fmt(ratio),
+				limitingAperture: apertureText(limit),
+				beamDiameter: diffuse ? null : dText,
+				averagingDiameter: averagingText,
+				exposure: exposureText,
+				limitValue: valueText(lim),
+				ratio: ratioText,
 				verdict: exceeds ? 'exceeds_limit' : 'within_limit',
 				deciding: false
 			};
 			if (lim.trainFactor) {
-				cmp.pulseCount = fmt(plan.pulseCount!);
-				cmp.trainFactor = fmt(lim.trainFactor);
+				cmp.pulseCount = plan.pulseCountText ??= fmt(plan.pulseCount!);
+				cmp.trainFactor = lim.trainFactorText ??= fmt(lim.trainFactor);
 			}
 			comparisons.push(cmp);
 			used.push(limit);
@@ -397,22 +452,26 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 				// r_h = √(ρ·X·cosθ/(π·EL)) with EL in the plan's measure.
 				const r = sqrt(geometryR2.times(x).times(inverseNatural(lim, plan, limit, t)));
 				if (!diffuseDistance || compare(r, diffuseDistance.r) > 0) {
-					diffuseDistance = { r, limit, check: plan.kind, x, xs, sourceUnit: plan.sourceUnit, natural: lim.natural, natUnit };
+					diffuseDistance = { r, limit, check: plan.kind, xText, xs, sourceUnit: plan.sourceUnit, natural: lim.natural, natUnit };
 				}
 			}
 		}
 		const b = best!;
+		const decidingRatioText = comparisons[b.index].ratio;
 		comparisons[b.index].deciding = true;
 		const checkVerdict: Verdict = compare(b.ratio, K.ONE) > 0 ? 'exceeds_limit' : 'within_limit';
 		verdict = worseVerdict(verdict, checkVerdict);
-		if (!worstRatio || compare(b.ratio, worstRatio) > 0) worstRatio = b.ratio;
+		if (!worstRatio || compare(b.ratio, worstRatio) > 0) {
+			worstRatio = b.ratio;
+			worstRatioText = decidingRatioText;
+		}
 		checks.push({
 			kind: plan.kind,
 			label: plan.label,
 			duration: tText,
 			verdict: checkVerdict,
 			reason: `${checkVerdict === 'exceeds_limit' ? 'Exceeds' : 'Within'} “${b.limit.label}”: exposure is ${toSignificantString(b.ratio, 4)} × the limit.`,
-			ratio: comparisons[b.index].ratio,
+			ratio: decidingRatioText,
 			decidingLimit: limitRef(b.limit),
 			comparisons,
 			missing: []
@@ -421,12 +480,14 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 	if (checks.length === 0) verdict = 'no_applicable_limit';
 	const od = worstRatio ? requiredOpticalDensity(worstRatio) : null;
-	if (od && worstRatio && w.enabled) w.add('optical-density', 'Optical density needed', 'OD = log₁₀(ratio) (0 when ratio ≤ 1)', [['ratio', worstRatio, '']], od.value, '', `Rounded up: ${fmt(od.roundedUpTenth)} (one decimal), ${fmt(od.roundedUpWhole)} (whole).`);
+	const odWritten = od ? writeOd(od) : null;
+	if (odWritten && w.enabled) w.add('optical-density', 'Optical density needed', 'OD = log₁₀(ratio) (0 when ratio ≤ 1)', [['ratio', worstRatioText!, '']], odWritten.value, '', `Rounded up: ${odWritten.roundedUpTenth} (one decimal), ${odWritten.roundedUpWhole} (whole).`);
 
 	let diffuseHazardDistance: DiffuseDistance | null = null;
 	if (diffuseDistance) {
-		if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', [['ρ', point.reflectance!, ''], [diffuseDistance.xs, diffuseDistance.x, diffuseDistance.sourceUnit], ['θ', point.viewingAngle, 'rad'], ['EL', diffuseDistance.natural, diffuseDistance.natUnit]], diffuseDistance.r, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
-		diffuseHazardDistance = { distance: fmt(diffuseDistance.r), decidingLimit: limitRef(diffuseDistance.limit), check: diffuseDistance.check };
+		const distanceText = fmt(diffuseDistance.r);
+		if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', [['ρ', diffuseTexts![0], ''], [diffuseDistance.xs, diffuseDistance.xText, diffuseDistance.sourceUnit], ['θ', diffuseTexts![1], 'rad'], ['EL', diffuseDistance.natural, diffuseDistance.natUnit]], distanceText, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
+		diffuseHazardDistance = { distance: distanceText, decidingLimit: limitRef(diffuseDistance.limit), check: diffuseDistance.check };
 	}
 
 	const accessible = enclosedBy === null;
@@ -435,29 +496,29 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		label: point.label,
 		tissue: point.tissue,
 		kind: point.kind,
-		position: fmt(z),
+		position: zText,
 		accessible,
 		enclosedBy,
 		beamAfterElement: beam.afterElement,
 		verdict,
 		reason: pointReason(verdict, checks, accessible, enclosedBy),
 		missing: [...allMissing],
-		transmissionFactor: fmt(tPath),
-		power: fmtOrNull(powerAtPoint),
-		pulseEnergy: fmtOrNull(energyAtPoint),
-		beamDiameter: dText ?? fmt(D),
-		beamDivergence: fmt(s.divergence),
-		irradiance: fmtOrNull(irradiance),
-		pulseRadiantExposure: fmtOrNull(pulseH),
-		photonFluxDensity: fmtOrNull(photonFluxDensity),
-		photonFluencePerPulse: fmtOrNull(photonFluence),
+		transmissionFactor: tPathText,
+		power: powerText,
+		pulseEnergy: energyText,
+		beamDiameter: dText,
+		beamDivergence: divergenceText,
+		irradiance: irradianceText,
+		pulseRadiantExposure: pulseHText,
+		photonFluxDensity,
+		photonFluencePerPulse: photonFluence,
 		checks,
-		worstRatio: fmtOrNull(worstRatio),
-		requiredOpticalDensity: od ? writeOd(od) : null,
+		worstRatio: worstRatioText,
+		requiredOpticalDensity: odWritten,
 		diffuseHazardDistance,
 		breakdown: w.steps
 	};
-	return { result, ratio: worstRatio, verdict, used, od };
+	return { result, ratio: worstRatio, verdict, used };
 }
 
 function pointReason(verdict: Verdict, checks: CheckResult[], accessible: boolean, enclosedBy: number | null): string {

@@ -91,6 +91,8 @@ export interface NormLimit {
 	pulseTrainExponent: Decimal | null;
 	/** 1/(π·D_f²/4), the reciprocal of the aperture area; null when D_f = 0. */
 	perApertureArea: Decimal | null;
+	/** Written values (12 digits), formed when first needed; shared like the memos. */
+	texts: { k?: string; n?: string; aperture?: string; trainExponent?: string };
 	/** Memo of k·tⁿ and of its reciprocal, keyed by the (interned) duration instance. */
 	memo: Map<Decimal, Decimal>;
 	inverseMemo: Map<Decimal, Decimal>;
@@ -331,6 +333,7 @@ function fromCore(c: LimitCore, index: number): NormLimit {
 		pulseBasis: c.pulseBasis,
 		pulseTrainExponent: c.pulseTrainExponent,
 		perApertureArea: c.perApertureArea,
+		texts: c.texts,
 		memo: c.memo,
 		inverseMemo: c.inverseMemo
 	};
@@ -411,6 +414,7 @@ function readLimit(raw: Record<string, unknown>, i: number, errors: ErrorList, D
 		pulseBasis,
 		pulseTrainExponent,
 		perApertureArea: limitingAperture.isZero() ? null : K.FOUR_OVER_PI.div(limitingAperture.times(limitingAperture)),
+		texts: {},
 		memo: new Map(),
 		inverseMemo: new Map()
 	};

@@ -1,0 +1,13 @@
+import { z } from 'zod';
+
+export const resetRequestSchema = z.object({ email: z.string().trim().min(1, 'Enter your e-mail address.').max(254) }).strict();
+
+export const newPasswordSchema = z
+	.object({
+		password: z.string().min(12, 'Use at least 12 characters.').max(256, 'Use at most 256 characters.'),
+		confirm: z.string().max(256)
+	})
+	.strict()
+	.refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ.' });
+
+export const preferencesSchema = z.object({ mailMode: z.enum(['immediate', 'digest'], { error: 'Choose immediate mails or a daily digest.' }) }).strict();
