@@ -16,7 +16,8 @@ test('a reset link is mailed, the admin reads the mail, and the link works once'
 	await expectAccessible(page);
 
 	// The admin finds the mail in the local mailbox once the queue has delivered it.
-	const adminPage = await browser.newPage();
+	const adminContext = await browser.newContext();
+	const adminPage = await adminContext.newPage();
 	await signIn(adminPage, demo('admin'));
 	await expect(async () => {
 		await adminPage.goto('/admin/mail');
@@ -28,7 +29,7 @@ test('a reset link is mailed, the admin reads the mail, and the link works once'
 	expect(body).toMatch(/because|why/i);
 	const link = /https?:\/\/\S+\/reset-password\/[A-Za-z0-9_-]+/.exec(body)?.[0];
 	expect(link, body).toBeTruthy();
-	await adminPage.close();
+	await adminContext.close();
 
 	const path = new URL(link!).pathname;
 	await page.goto(path);

@@ -136,7 +136,8 @@ function compute(input: NormInput): AssessmentResult {
 		anyAccessible = true;
 		if (VERDICT_RANK[p.verdict] > VERDICT_RANK[verdict]) verdict = p.verdict;
 		const r = ratios[i];
-		if (r && (!worstRatio || compare(r, worstRatio) > 0)) {
+		// Ratios written alike tie (the first point is kept): arithmetic noise cannot choose.
+		if (r && (!worstRatio || (p.worstRatio !== points[worstIndex].worstRatio && compare(r, worstRatio) > 0))) {
 			worstRatio = r;
 			worstIndex = i;
 		}

@@ -142,7 +142,8 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 	for (let i = 0; i < candidates.length; i++) {
 		const c = candidates[i];
 		if (candidates[decidingIndex].unbounded) break;
-		if (c.unbounded || compare(c.distance!, candidates[decidingIndex].distance!) > 0) decidingIndex = i;
+		// Distances written alike tie (the first is kept): arithmetic noise cannot choose.
+		if (c.unbounded || (written[i].distance !== written[decidingIndex].distance && compare(c.distance!, candidates[decidingIndex].distance!) > 0)) decidingIndex = i;
 	}
 	const deciding = candidates[decidingIndex];
 	const decidingWritten = written[decidingIndex];

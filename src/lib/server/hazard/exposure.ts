@@ -346,7 +346,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	let verdict: Verdict = 'within_limit';
 	let worstRatio: Decimal | null = null;
 	let worstRatioText: string | null = null;
-	let diffuseDistance: { r: Decimal; limit: NormLimit; check: CheckKind; xText: string; xs: string; sourceUnit: string; natural: Decimal; natUnit: string } | null = null;
+	let diffuseDistance: { r: Decimal; text: string; limit: NormLimit; check: CheckKind; xText: string; xs: string; sourceUnit: string; natural: Decimal; natUnit: string } | null = null;
 	let allMissing: string[] = missingPoint;
 	const used: NormLimit[] = [];
 
@@ -380,7 +380,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		const natUnit = MEASURE_UNIT[plan.measure];
 		const tText = durationText(plan, t);
 		const comparisons: Comparison[] = [];
-		let best: { ratio: Decimal; limit: NormLimit; index: number } | null = null;
+		let best: { ratio: Decimal; text: string; limit: NormLimit; index: number } | null = null;
 
 		for (const limit of limits) {
 			const sid = w.enabled ? `${plan.kind}.limit${limit.index}` : '';
@@ -446,13 +446,16 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			}
 			comparisons.push(cmp);
 			used.push(limit);
-			if (!best || compare(ratio, best.ratio) > 0) best = { ratio, limit, index: comparisons.length - 1 };
+			// The most restrictive limit decides; limits whose ratios are written alike tie (the first is
+			// kept), so that arithmetic noise below the written digits cannot choose.
+			if (!best || (ratioText !== best.text && compare(ratio, best.ratio) > 0)) best = { ratio, text: ratioText, limit, index: comparisons.length - 1 };
 
 			if (geometryR2) {
 				// r_h = √(ρ·X·cosθ/(π·EL)) with EL in the plan's measure.
 				const r = sqrt(geometryR2.times(x).times(inverseNatural(lim, plan, limit, t)));
-				if (!diffuseDistance || compare(r, diffuseDistance.r) > 0) {
-					diffuseDistance = { r, limit, check: plan.kind, xText, xs, sourceUnit: plan.sourceUnit, natural: lim.natural, natUnit };
+				const rText = fmt(r);
+				if (!diffuseDistance || (rText !== diffuseDistance.text && compare(r, diffuseDistance.r) > 0)) {
+					diffuseDistance = { r, text: rText, limit, check: plan.kind, xText, xs, sourceUnit: plan.sourceUnit, natural: lim.natural, natUnit };
 				}
 			}
 		}
@@ -461,7 +464,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		comparisons[b.index].deciding = true;
 		const checkVerdict: Verdict = compare(b.ratio, K.ONE) > 0 ? 'exceeds_limit' : 'within_limit';
 		verdict = worseVerdict(verdict, checkVerdict);
-		if (!worstRatio || compare(b.ratio, worstRatio) > 0) {
+		if (!worstRatio || (decidingRatioText !== worstRatioText && compare(b.ratio, worstRatio) > 0)) {
 			worstRatio = b.ratio;
 			worstRatioText = decidingRatioText;
 		}
@@ -485,7 +488,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 	let diffuseHazardDistance: DiffuseDistance | null = null;
 	if (diffuseDistance) {
-		const distanceText = fmt(diffuseDistance.r);
+		const distanceText = diffuseDistance.text;
 		if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', [['ρ', diffuseTexts![0], ''], [diffuseDistance.xs, diffuseDistance.xText, diffuseDistance.sourceUnit], ['θ', diffuseTexts![1], 'rad'], ['EL', diffuseDistance.natural, diffuseDistance.natUnit]], distanceText, 'm', `Most restrictive: “${diffuseDistance.limit.label}” (${diffuseDistance.check.replace('_', ' ')} check).`);
 		diffuseHazardDistance = { distance: distanceText, decidingLimit: limitRef(diffuseDistance.limit), check: diffuseDistance.check };
 	}
