@@ -21,7 +21,7 @@ export const demoUsers: DemoUser[] = [
 ];
 
 import type { LimitForm } from '../src/lib/schemas/limits';
-import type { NewLaserForm, PathForm } from '../src/lib/schemas/register';
+import { blankElement, type NewLaserForm, type PathForm } from '../src/lib/schemas/register';
 
 const src =
 	'Demonstration value recalled from memory of the ICNIRP 2013 guidelines on limits of exposure to laser radiation (Health Physics 105(3):271–295); not checked against the text. Replace with the local code’s value.';
@@ -68,19 +68,7 @@ const line = (l: Partial<NewLaserForm['line']>): NewLaserForm['line'] => ({
 	beamQuality: '',
 	...l
 });
-const el = (kind: PathForm['elements'][number]['kind'], v: Partial<PathForm['elements'][number]> = {}): PathForm['elements'][number] => ({
-	kind,
-	label: '',
-	length: '',
-	transmission: '',
-	reflectance: '',
-	magnification: '',
-	focalLength: '',
-	coreDiameter: '',
-	numericalAperture: '',
-	couplingTransmission: '',
-	...v
-});
+const el = blankElement;
 let pointNo = 0;
 const pt = (label: string, position: string, v: Partial<PathForm['points'][number]> = {}): PathForm['points'][number] => ({
 	key: `demo-${++pointNo}`,

@@ -23,7 +23,7 @@ import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import { scopeOf } from '$lib/server/auth/scope';
 import type { LimitForm } from '$lib/schemas/limits';
-import type { NewLaserForm, PathForm } from '$lib/schemas/register';
+import { blankElement, type NewLaserForm, type PathForm } from '$lib/schemas/register';
 
 export async function scopeFor(u: { id: string; email: string; role: Role }) {
 	return scopeOf({ id: u.id, email: u.email, name: 'Test', role: u.role, disabled: false });
@@ -57,19 +57,7 @@ export function laserForm(labId: string, overrides: Partial<NewLaserForm['line']
 	};
 }
 
-const element = (kind: PathForm['elements'][number]['kind'], values: Partial<PathForm['elements'][number]>) => ({
-	kind,
-	label: '',
-	length: '',
-	transmission: '',
-	reflectance: '',
-	magnification: '',
-	focalLength: '',
-	coreDiameter: '',
-	numericalAperture: '',
-	couplingTransmission: '',
-	...values
-});
+const element = blankElement;
 
 /** A path with a splitter and a lens, and two points of concern. */
 export function pathForm(lineId: string, overrides: Partial<PathForm> = {}): PathForm {

@@ -13,6 +13,8 @@ import { listMailbox, readMailboxDir, readMailboxMessage, type StoredMail } from
 import * as templates from '$lib/server/mail/templates';
 import { createSender } from '$lib/server/mail/transport';
 import { readMailConfig } from '$lib/server/mail/config';
+import { nudge, startJobs, stopJobs } from '$lib/server/jobs';
+import { queueDefinitions, queues } from '$lib/server/jobs/queues';
 import { startFakeMailServer, type FakeMailServer } from '../../scripts/fake-mail';
 import { makeUser } from './factories';
 
@@ -127,6 +129,10 @@ describe('the ledger', () => {
 	let person: Recipient;
 	beforeAll(async () => {
 		person = await makeUser('officer');
+	});
+
+	it('waits 1, 2, 4 … minutes between attempts, never more than an hour', () => {
+		expect([1, 2, 3, 4, 6, 7, 20].map((n) => outbox.backoffMs(n) / 60_000)).toEqual([1, 2, 4, 8, 32, 60, 60]);
 	});
 
 	it('never adds a second row for the same key', async () => {
@@ -342,5 +348,30 @@ describe('digests and password resets', () => {
 		const [after] = await db.select().from(table.mailOutbox).where(eq(table.mailOutbox.id, row.id));
 		expect(after.status).toBe('sent');
 		expect(JSON.stringify(after)).not.toContain(token);
+	});
+});
+
+describe('the job queue', () => {
+	it('has the mail queues and a mail-deliver nudge sends what the ledger has due', { timeout: 60_000 }, async () => {
+		expect(queueDefinitions.map((q) => q.name)).toEqual(expect.arrayContaining([queues.reassessPaths, queues.mailDaily, queues.mailDeliver]));
+		const person = await makeUser('officer');
+		const m = mail(person);
+		await enqueue([m]);
+		const boss = await startJobs(process.env.DATABASE_URL!);
+		try {
+			for (const q of [queues.mailDaily, queues.mailDeliver]) expect(await boss.getQueue(q)).toMatchObject({ name: q, policy: 'stately' });
+			await nudge(queues.mailDeliver);
+			const deadline = Date.now() + 30_000;
+			let status = 'pending';
+			while (Date.now() < deadline && status !== 'sent') {
+				await new Promise((r) => setTimeout(r, 250));
+				status = (await rowsFor([m.recordId]))[0].status;
+			}
+			expect(status).toBe('sent');
+		} finally {
+			await stopJobs();
+		}
+		const [row] = await rowsFor([m.recordId]);
+		expect((await mailbox()).has(outbox.messageIdFor(row.id))).toBe(true);
 	});
 });

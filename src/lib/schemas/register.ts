@@ -2,7 +2,7 @@
 // ("5 W", "5000 mW", "532 nm") and kept as text in the form; toSI() turns them into SI decimal
 // strings for the engine and the database, naming the field when one does not parse.
 import { z } from 'zod';
-import { parseQuantity, type QuantityKind } from '$lib/units';
+import { parseQuantity, type QuantityKind } from '../units';
 
 export const laserClasses = ['1', '1M', '2', '2M', '3R', '3B', '4'] as const;
 export const laserStatuses = ['active', 'in_storage', 'retired'] as const;
@@ -132,6 +132,11 @@ export const pathFormSchema = z
 	.strict();
 
 export type ElementForm = z.infer<typeof elementFormSchema>;
+
+/** A new element of a kind, every value empty unless given. */
+export function blankElement(kind: ElementKind, values: Partial<ElementForm> = {}): ElementForm {
+	return { kind, label: '', length: '', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '', ...values };
+}
 export type PointForm = z.infer<typeof pointFormSchema>;
 export type PathForm = z.infer<typeof pathFormSchema>;
 export type NewLaserForm = z.infer<typeof newLaserSchema>;

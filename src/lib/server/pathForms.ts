@@ -3,7 +3,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { desc, eq } from 'drizzle-orm';
-import { pathFormSchema, type PathForm } from '$lib/schemas/register';
+import { blankElement, pathFormSchema, type PathForm } from '$lib/schemas/register';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
@@ -48,7 +48,7 @@ export async function loadNewPath(locals: App.Locals, laserId: string) {
 		purpose: '',
 		// Common practice: 0.25 s (aversion response) for visible beams, 10 s for invisible ones.
 		nohdExposureDuration: visible ? '0.25 s' : '10 s',
-		elements: [{ kind: 'propagate', label: '', length: '1 m', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '' }],
+		elements: [blankElement('propagate', { length: '1 m' })],
 		points: [{ key: 'new-1', label: 'End of the path', kind: 'intrabeam', tissue: 'eye', position: '1 m', exposureDuration: visible ? '0.25 s' : '10 s', reflectance: '', viewingAngle: '', viewingDistance: '' }],
 		version: 0
 	};

@@ -2,7 +2,7 @@
 // given day and puts them in the mail ledger; it never sends (outbox.deliver does). Because the
 // ledger key is (kind, record, due key, step, recipient), running it again, late, or in two
 // processes at once adds nothing that is already there.
-import { and, eq, gte, inArray, isNotNull, isNull, lt, lte, or } from 'drizzle-orm';
+import { and, eq, gte, inArray, isNotNull, isNull, lt, lte, notExists, or, sql } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import { readMailConfig } from '$lib/server/mail/config';
@@ -143,7 +143,20 @@ export async function notificationMailsBetween(from: Date, to: Date, appUrl: str
 		.select({ id: n.id, kind: n.kind, title: n.title, body: n.body, pathId: n.pathId, createdAt: n.createdAt, userId: table.user.id, email: table.user.email })
 		.from(n)
 		.innerJoin(table.user, eq(table.user.id, n.userId))
-		.where(and(gte(n.createdAt, from), lt(n.createdAt, to), eq(table.user.disabled, false)));
+		.where(
+			and(
+				gte(n.createdAt, from),
+				lt(n.createdAt, to),
+				eq(table.user.disabled, false),
+				// Skip those already in the ledger (the key would skip them too; this saves rendering them).
+				notExists(
+					db
+						.select({ one: sql`1` })
+						.from(table.mailOutbox)
+						.where(and(eq(table.mailOutbox.kind, 'notification'), eq(table.mailOutbox.recordId, sql`${n.id}::text`)))
+				)
+			)
+		);
 	return rows.map((r) => {
 		const body = templates.notificationMail({ appUrl, kind: r.kind, title: r.title, body: r.body, pathId: r.pathId, createdAt: r.createdAt });
 		return { kind: 'notification' as const, recordId: r.id, dueKey: r.kind, step: 'once', recipientId: r.userId, recipientEmail: r.email, ...mailBody(body), reason: body.reason };

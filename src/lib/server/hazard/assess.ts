@@ -107,8 +107,18 @@ function compute(input: NormInput): AssessmentResult {
 			if (w.enabled) w.add(`lens${lens.index}.divergence`, `Divergence after the focus (element ${lens.index})`, 'φ = D_lens / f', [['D_lens', lens.lensDiameter, 'm'], ['f', lens.focalLength, 'm']], lens.divergenceAfter, 'rad');
 		}
 		const handbook = out.deciding && !out.deciding.unbounded ? lens.focalLength.div(lens.lensDiameter).times(out.deciding.criticalDiameter) : null;
+		const n = out.result;
 		return {
-			...out.result,
+			exposureDuration: n.exposureDuration,
+			checksWithoutLimit: n.checksWithoutLimit,
+			candidates: n.candidates,
+			status: n.status,
+			unbounded: n.unbounded,
+			distance: n.distance,
+			linearFormDistance: n.linearFormDistance,
+			decidingLimit: n.decidingLimit,
+			decidingCheck: n.decidingCheck,
+			reason: n.reason,
 			elementIndex: lens.index,
 			focusPosition: fmt(lens.focusPosition),
 			focalSpotDiameter: fmt(lens.focalSpot),

@@ -60,6 +60,13 @@ export function criticalDiameter(x: Decimal, el: Decimal): Decimal {
 	return sqrt(FOUR.times(x).div(PI.times(el)));
 }
 
+type NohdHead = [exposureDuration: string | null, checksWithoutLimit: CheckKind[], candidates: NohdCandidate[]];
+
+/** One literal per outcome, fields in the order of NohdResult (a spread of shared fields costs more). */
+function nohdResult(head: NohdHead, status: NohdResult['status'], unbounded: boolean, distance: string | null, linearFormDistance: string | null, decidingLimit: NohdResult['decidingLimit'], decidingCheck: CheckKind | null, reason: string): NohdResult {
+	return { exposureDuration: head[0], checksWithoutLimit: head[1], candidates: head[2], status, unbounded, distance, linearFormDistance, decidingLimit, decidingCheck, reason };
+}
+
 export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | null, beam: DistanceBeam, w: Working, prefix: string, place: string): DistanceOutcome {
 	const { line, K } = ctx;
 	const plans = plansFor(ctx, exposureDuration);
@@ -121,22 +128,12 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 		linearFormDistance: fmtOrNull(c.linear),
 		unbounded: c.unbounded
 	}));
-	const base = {
-		exposureDuration: fmtOrNull(exposureDuration),
-		checksWithoutLimit: withoutLimit,
-		candidates: written
-	};
+	const head: NohdHead = [fmtOrNull(exposureDuration), withoutLimit, written];
 	if (missing) {
-		return {
-			deciding: null,
-			result: { ...base, status: 'incomplete', unbounded: false, distance: null, linearFormDistance: null, decidingLimit: null, decidingCheck: null, reason: 'Needs nohd.exposureDuration: the exposure duration assumed for the NOHD.' }
-		};
+		return { deciding: null, result: nohdResult(head, 'incomplete', false, null, null, null, null, 'Needs nohd.exposureDuration: the exposure duration assumed for the NOHD.') };
 	}
 	if (candidates.length === 0) {
-		return {
-			deciding: null,
-			result: { ...base, status: 'no_applicable_limit', unbounded: false, distance: null, linearFormDistance: null, decidingLimit: null, decidingCheck: null, reason: `No entered eye limit applies at λ = ${fmt(line.wavelength)} m for the assumed durations; no NOHD can be given. Not shown as safe.` }
-		};
+		return { deciding: null, result: nohdResult(head, 'no_applicable_limit', false, null, null, null, null, `No entered eye limit applies at λ = ${fmt(line.wavelength)} m for the assumed durations; no NOHD can be given. Not shown as safe.`) };
 	}
 	let decidingIndex = 0;
 	for (let i = 0; i < candidates.length; i++) {
@@ -158,10 +155,7 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 		w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, decidingWritten.criticalDiameter, 'm');
 	}
 	if (deciding.unbounded) {
-		return {
-			deciding,
-			result: { ...base, status: 'unbounded', unbounded: true, distance: null, linearFormDistance: null, decidingLimit: limitRef(deciding.limit), decidingCheck: deciding.plan.kind, reason: `The beam ${place} does not spread (divergence 0) and exceeds “${deciding.limit.label}”: the NOHD is unbounded.${partial}` }
-		};
+		return { deciding, result: nohdResult(head, 'unbounded', true, null, null, limitRef(deciding.limit), deciding.plan.kind, `The beam ${place} does not spread (divergence 0) and exceeds “${deciding.limit.label}”: the NOHD is unbounded.${partial}`) };
 	}
 	if (w.enabled) {
 		const dc = decidingWritten.criticalDiameter;
@@ -171,17 +165,6 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 			w.add(`${prefix}.distance`, 'Hazard distance', `r = √(D_c² − ${beam.waistSymbol}²) / φ`, [['D_c', dc, 'm'], [beam.waistSymbol, beam.waist, 'm'], ['φ', beam.divergence, 'rad']], decidingWritten.distance!, 'm', `Linear handbook form (D_c − ${beam.waistSymbol})/φ = ${decidingWritten.linearFormDistance!} m.`);
 		}
 	}
-	return {
-		deciding,
-		result: {
-			...base,
-			status: 'finite',
-			unbounded: false,
-			distance: decidingWritten.distance!,
-			linearFormDistance: decidingWritten.linearFormDistance!,
-			decidingLimit: limitRef(deciding.limit),
-			decidingCheck: deciding.plan.kind,
-			reason: (deciding.distance!.isZero() ? `The beam ${place} is below the most restrictive eye limit at every distance.` : `Beyond ${toSignificantString(deciding.distance!, 4)} m ${place === 'at the aperture' ? 'from the aperture' : 'from the focus'} the beam is below “${deciding.limit.label}”.`) + partial
-		}
-	};
+	const reason = (deciding.distance!.isZero() ? `The beam ${place} is below the most restrictive eye limit at every distance.` : `Beyond ${toSignificantString(deciding.distance!, 4)} m ${place === 'at the aperture' ? 'from the aperture' : 'from the focus'} the beam is below “${deciding.limit.label}”.`) + partial;
+	return { deciding, result: nohdResult(head, 'finite', false, decidingWritten.distance!, decidingWritten.linearFormDistance!, limitRef(deciding.limit), deciding.plan.kind, reason) };
 }

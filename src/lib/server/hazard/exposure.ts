@@ -30,7 +30,7 @@ import { Working, type StepInput } from './breakdown';
 import { requiredOpticalDensity, writeOd } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
 import { fmt, fmtOrNull, toSignificantString } from './format';
-import { limitReciprocal, limitRef, limitValueAt, memoPow, type LimitIndex } from './limits';
+import { limitReciprocal, limitRef, limitValueAt, memoPow, pulseCount, type LimitIndex } from './limits';
 import type { NormLimit, NormLine, NormPoint } from './validate';
 import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Tissue, Verdict } from './types';
 
@@ -86,16 +86,11 @@ export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
 	}
 	const single: CheckPlan = { kind: 'single_pulse', label: 'Single pulse', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount: null, needsTrainExponent: false, optional: false, missingT: false };
 	if (line.mode === 'single_pulse') return [single];
-	let pulseCount: Decimal | null = null;
-	if (T !== null) {
-		const n = line.repetitionRate!.times(T);
-		const one = numbersOf(T).ONE;
-		pulseCount = n.lt(one) ? one : n;
-	}
+	const count = T === null ? null : pulseCount(line.repetitionRate!, T);
 	return [
 		single,
 		{ kind: 'average_power', label: 'Average power over T', basis: 'continuous', duration: T, durationSymbol: 'T', measure: 'irradiance', source: line.averagePower!, sourceSymbol: 'P_avg,0', pointSymbol: 'P_avg', sourceUnit: 'W', pulseCount: null, needsTrainExponent: false, optional: false, missingT },
-		{ kind: 'pulse_train', label: 'Pulse train', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount, needsTrainExponent: true, optional: true, missingT }
+		{ kind: 'pulse_train', label: 'Pulse train', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount: count, needsTrainExponent: true, optional: true, missingT }
 	];
 }
 export const MEASURE_UNIT: Record<LimitQuantity, 'W/m²' | 'J/m²'> = { irradiance: 'W/m²', radiant_exposure: 'J/m²' };

@@ -18,7 +18,7 @@
  */
 import type Decimal from 'decimal.js';
 import { Dec, numbersOf } from './constants';
-import { approxNumber, decimalFromFloat } from './digits';
+import { approxNumber, decimalFromFloat, parseDecimalText } from './digits';
 
 export { approxNumber } from './digits';
 
@@ -70,9 +70,12 @@ export function log10(x: Decimal): Decimal {
 	// x = m·10^e with 1 ≤ m < 10: e exactly from the decimal, m correctly rounded to float64.
 	const digits = digitString((x as unknown as Words).d!);
 	const m = digits.length === 1 ? Number(digits) : Number(`${digits[0]}.${digits.slice(1)}`);
-	const e = new K.D(x.e);
-	if (m === 1) return e;
-	return e.plus(new K.D(Math.log10(m)));
+	if (m === 1) return new K.D(x.e);
+	const lg = Math.log10(m);
+	// e + log₁₀(m) exactly: for e ≥ 0 and 0 < lg < 1 that is e followed by the decimals of lg's own text.
+	const text = String(lg);
+	if (x.e >= 0 && text.startsWith('0.') && !text.includes('e')) return parseDecimalText(K.D, `${x.e}${text.slice(1)}`) ?? new K.D(x.e).plus(text);
+	return new K.D(x.e).plus(new K.D(lg));
 }
 
 /** cos θ for 0 ≤ θ < π/2. */

@@ -13,10 +13,10 @@ export class NonFiniteResultError extends Error {
 }
 
 // The same decimal is often written several times within a few lines (a step's value is the next
-// step's input, a duration or an aperture is written with every comparison). A ring of the last 64
+// step.s input, a duration or an aperture is written with every comparison). A ring of the last 32
 // written instances, compared by identity from the most recent, catches those repeats; a WeakMap
 // costs more on a miss than the formatting it saves.
-const RING = 64;
+const RING = 32;
 const ringKeys: (Decimal | null)[] = new Array(RING).fill(null);
 const ringValues: string[] = new Array(RING).fill('');
 let ringNext = 0;

@@ -33,28 +33,51 @@ export function powPositive(x: Decimal, y: Decimal): Decimal {
 	return x.pow(y);
 }
 
-// tⁿ depends only on t and n, and a register uses few durations and few exponents: memoised by
-// value across assessments (a pure function, so sharing is safe), with a bounded size. Kept per
-// clone, so that a 25-digit and a 40-digit run never share a value.
-const powers = new Map<unknown, Map<string, Decimal>>();
-const POWERS_MAX = 20000;
+// tⁿ depends only on t and n, and a register uses few durations, pulse counts and exponents:
+// memoised across assessments (a pure function, so sharing is safe), keyed by instance (exponents
+// belong to shared limits, durations are read through the cache, pulse counts are memoised too) and
+// bounded. A 25-digit and a 40-digit run never share an instance, hence never a value.
+const powers = new Map<Decimal, Map<Decimal, Decimal>>();
+const POWERS_MAX = 256;
 
 export function memoPow(t: Decimal, n: Decimal): Decimal {
-	const K = numbersOf(t);
-	if (n.isZero()) return K.ONE;
-	let byClone = powers.get(K.D);
-	if (!byClone) {
-		byClone = new Map();
-		powers.set(K.D, byClone);
+	if (n.isZero()) return numbersOf(t).ONE;
+	let byT = powers.get(n);
+	if (!byT) {
+		if (powers.size >= POWERS_MAX) powers.clear();
+		byT = new Map();
+		powers.set(n, byT);
 	}
-	const key = `${n.toString()}|${t.toString()}`;
-	let v = byClone.get(key);
+	let v = byT.get(t);
 	if (v === undefined) {
-		if (byClone.size >= POWERS_MAX) byClone.clear();
+		if (byT.size >= POWERS_MAX) byT.clear();
 		v = powPositive(t, n);
-		byClone.set(key, v);
+		byT.set(t, v);
 	}
 	return v;
+}
+
+// N = f·T for the pulse-train check, by repetition-rate and duration instance (both read through the
+// cache), so that N and its powers are shared across assessments; bounded.
+const pulseCounts = new Map<Decimal, Map<Decimal, Decimal>>();
+
+/** N = max(1, f·T). */
+export function pulseCount(f: Decimal, T: Decimal): Decimal {
+	let byT = pulseCounts.get(f);
+	if (!byT) {
+		if (pulseCounts.size >= POWERS_MAX) pulseCounts.clear();
+		byT = new Map();
+		pulseCounts.set(f, byT);
+	}
+	let n = byT.get(T);
+	if (n === undefined) {
+		if (byT.size >= POWERS_MAX) byT.clear();
+		const one = numbersOf(T).ONE;
+		n = f.times(T);
+		if (compare(n, one) < 0) n = one;
+		byT.set(T, n);
+	}
+	return n;
 }
 
 /**

@@ -131,6 +131,24 @@ describe('working precision', () => {
 		expect(JSON.stringify(assessAtPrecision(input, AssessmentDec))).toBe(JSON.stringify(assessAtPrecision(input, Dec)));
 	});
 
+	it('equally restrictive limits (one written as H, one as E) tie: the first offered decides, at any precision', () => {
+		// H = 18·t^0.75 J/m² and E = 18·t^-0.25 W/m² are the same limit; their ratios agree to the last digit or two.
+		const asH: LimitInput = { ...DEMO_LIMITS[0], id: 'as-h', durationMin: '1e-6', durationMax: '3e4' };
+		const asE: LimitInput = { ...asH, id: 'as-e', quantity: 'irradiance', n: '-0.25' };
+		for (const limits of [[asH, asE], [asE, asH]]) {
+			const input: AssessmentInput = { line: { wavelength: '532e-9', mode: 'continuous', power: '0.37', beamDiameter: '2.1e-3', beamDiameterDefinition: '1/e', divergence: '1.3e-3', divergenceDefinition: '1/e' }, elements: [{ kind: 'propagate', length: '5' }], points: [{ id: 'p', position: '1.7', tissue: 'eye', kind: 'intrabeam', exposureDuration: '0.25' }, { id: 'q', position: '1.7', tissue: 'eye', kind: 'diffuse', exposureDuration: '0.25', reflectance: '0.5', viewingDistance: '0.2' }], limits, nohd: { exposureDuration: '0.25' } };
+			for (const D of [AssessmentDec, Dec]) {
+				const out = assessAtPrecision(input, D);
+				if (!out.ok) throw new Error('unexpected');
+				const r = out.result;
+				expect(r.points[0].checks[0].decidingLimit?.id).toBe(limits[0].id);
+				expect(r.points[1].diffuseHazardDistance?.decidingLimit.id).toBe(limits[0].id);
+				expect(r.nohd.decidingLimit?.id).toBe(limits[0].id);
+			}
+			expect(JSON.stringify(assessAtPrecision(input, AssessmentDec))).toBe(JSON.stringify(assessAtPrecision(input, Dec)));
+		}
+	});
+
 	it('assess() is the 25-digit run', () => {
 		fc.assert(
 			fc.property(assessmentArb, (input) => {

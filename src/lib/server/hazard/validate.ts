@@ -265,9 +265,6 @@ function validatePoint(raw: unknown, i: number, errors: ErrorList, interner: Int
 	};
 }
 
-/** The fields of a limit input, in the order of its cache key. */
-const LIMIT_FIELDS = ['id', 'version', 'label', 'citation', 'tissue', 'wavelengthMin', 'wavelengthMax', 'durationMin', 'durationMax', 'quantity', 'k', 'n', 'limitingAperture', 'pulseBasis', 'pulseTrainExponent'] as const;
-
 /**
  * A register offers the same few limits to every assessment. A valid limit is normalised once per
  * content and clone: the cache is keyed by the whole content (every field, compared by type and
@@ -284,14 +281,10 @@ interface CachedLimit {
 const LIMIT_CACHE_MAX = 512;
 const limitCaches = new Map<DecimalClone, Map<number, CachedLimit[]>>();
 
-/** The limit's field values in LIMIT_FIELDS order, or null when one is not a plain string or number. */
+/** Every field of the limit input (id … pulseTrainExponent), or null when one is not a plain string or number. */
 function limitFields(raw: Record<string, unknown>): unknown[] | null {
-	const out: unknown[] = new Array(LIMIT_FIELDS.length);
-	for (let i = 0; i < LIMIT_FIELDS.length; i++) {
-		const v = raw[LIMIT_FIELDS[i]];
-		if (typeof v !== 'string' && typeof v !== 'number' && v !== undefined && v !== null) return null;
-		out[i] = v;
-	}
+	const out = [raw.id, raw.version, raw.label, raw.citation, raw.tissue, raw.wavelengthMin, raw.wavelengthMax, raw.durationMin, raw.durationMax, raw.quantity, raw.k, raw.n, raw.limitingAperture, raw.pulseBasis, raw.pulseTrainExponent];
+	for (const v of out) if (typeof v !== 'string' && typeof v !== 'number' && v !== undefined && v !== null) return null;
 	return out;
 }
 
