@@ -23,7 +23,7 @@ use_database() { # use_database NAME: exports DATABASE_URL and DATABASE_OWNER_UR
 start_fake_mail() { # start_fake_mail PORT DIR: the local SMTP server that keeps what it receives
 	export FAKE_SMTP_PORT=$1 BEAMWARDEN_MAILBOX_DIR=$2 SMTP_HOST=127.0.0.1 SMTP_PORT=$1
 	mkdir -p "$2"
-	npx tsx scripts/fake-mail.ts &
+	node_modules/.bin/tsx scripts/fake-mail.ts &
 	FAKE_MAIL_PID=$!
 	for _ in $(seq 1 50); do
 		(exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null && return 0
