@@ -9,6 +9,8 @@ import { failure, fieldsNeedAttention, notFound, notYours, type Failure } from '
 import { isUuid } from '$lib/server/lasers';
 import { needsReview } from '$lib/server/assessments';
 import { notify, officerIds } from '$lib/server/notifications';
+import * as jobs from '$lib/server/jobs';
+import { queues } from '$lib/server/jobs/queues';
 import type { DecisionForm } from '$lib/schemas/reviews';
 import { parseQuantity } from '$lib/units';
 
@@ -153,7 +155,7 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 		return p.ok ? p.value.toString() : null;
 	});
 	if (Object.keys(fields).length) return fieldsNeedAttention(fields);
-	return db.transaction(async (tx) => {
+	const outcome = await db.transaction(async (tx) => {
 		const [path] = await tx.select().from(table.beamPath).where(eq(table.beamPath.id, pathId)).for('update');
 		if (!path) return notFound('beam path');
 		const [latest] = await tx.select().from(table.assessment).where(eq(table.assessment.pathId, pathId)).orderBy(desc(table.assessment.createdAt)).limit(1);
@@ -204,6 +206,9 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 		});
 		return { ok: true, decisionId: decision.id } as const;
 	});
+	// The researcher's mail goes out now rather than at the next minute's sweep.
+	if (outcome.ok) await jobs.nudge(queues.mailDeliver);
+	return outcome;
 }
 
 /** The researcher answers a returned review (they then change the path and save it). */
