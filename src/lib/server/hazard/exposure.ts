@@ -29,7 +29,7 @@ import { cosAcute, sqrt } from './fastmath';
 import { Working, type StepInput } from './breakdown';
 import { requiredOpticalDensity, writeOd } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
-import { fmt, fmtOrNull, toSignificantString } from './format';
+import { fmt, toSignificantString } from './format';
 import { limitReciprocal, limitRef, limitValueAt, memoPow, pulseCount, type LimitIndex } from './limits';
 import type { NormLimit, NormLine, NormPoint } from './validate';
 import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Tissue, Verdict } from './types';
@@ -107,6 +107,8 @@ export interface LimitInPlan {
 	inverse: Decimal;
 	/** 1/natural (hazard distances), formed when first needed. */
 	inverseNatural?: Decimal;
+	/** 1/(π·D_f²/4) × t (or ÷ t): exposure over the aperture and in the limit's quantity in one product. */
+	apertureFactor?: Decimal;
 	/** Written value and train factor, once per assessment. */
 	valueText?: string;
 	trainFactorText?: string;
@@ -132,6 +134,11 @@ export function evaluateLimit(limit: NormLimit, plan: CheckPlan, t: Decimal): Li
 	lim = { value, natural, trainFactor, inverse };
 	memo.set(limit, lim);
 	return lim;
+}
+
+/** 1/(π·D_f²/4) × factor (t or 1/t), once per assessment and limit. */
+function apertureFactor(lim: LimitInPlan, limit: NormLimit, factor: Decimal): Decimal {
+	return (lim.apertureFactor ??= limit.perApertureArea!.times(factor));
 }
 
 /** 1/t of the plan, once per assessment. */
@@ -379,9 +386,12 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 
 		for (const limit of limits) {
 			const sid = w.enabled ? `${plan.kind}.limit${limit.index}` : '';
-			let exposureNat: Decimal;
-			let exposureNatText: string;
+			// The exposure in the plan's measure (E or H, for the breakdown) and in the limit's quantity.
+			const converts = limit.quantity !== plan.measure;
+			let exposureNat: Decimal | null;
+			let exposureNatText: string | null;
 			let averagingText: string | null = null;
+			let overAperture = false;
 			if (diffuse) {
 				exposureNat = atBeam!;
 				exposureNatText = atBeamText!;
@@ -390,27 +400,34 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 				const overBeam = compare(D, limit.limitingAperture) >= 0;
 				averagingText = overBeam ? dText : apertureText(limit);
 				if (w.enabled) w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', dText, 'm'], ['D_f', apertureText(limit), 'm']], averagingText, 'm');
-				// Over D itself the exposure is the beam's own; over D_f, X × 1/(π·D_f²/4) of the limit.
+				// Over D itself the exposure is the beam's own; over D_f, X × 1/(π·D_f²/4) of the limit
+				// (with a conversion to the limit's quantity, X × that × t in one product below).
+				overAperture = !overBeam;
 				if (overBeam) {
 					exposureNat = atBeam!;
 					exposureNatText = atBeamText!;
-				} else {
+				} else if (!converts || w.enabled) {
 					exposureNat = x.times(limit.perApertureArea!);
 					exposureNatText = fmt(exposureNat);
-				}
-				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, xText, plan.sourceUnit], ['D_avg', averagingText, 'm']], exposureNatText, natUnit);
-			}
-			let exposure = exposureNat;
-			let exposureText = exposureNatText;
-			if (limit.quantity !== plan.measure) {
-				if (plan.measure === 'irradiance') {
-					exposure = exposureNat.times(t);
-					exposureText = fmt(exposure);
-					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNatText, 'W/m²'], [plan.durationSymbol, tText, 's']], exposureText, 'J/m²');
 				} else {
-					exposure = exposureNat.times(perDuration(plan, t));
-					exposureText = fmt(exposure);
-					if (w.enabled) w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNatText, 'J/m²'], ['τ', tText, 's']], exposureText, 'W/m²');
+					exposureNat = null;
+					exposureNatText = null;
+				}
+				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, xText, plan.sourceUnit], ['D_avg', averagingText, 'm']], exposureNatText!, natUnit);
+			}
+			let exposure: Decimal;
+			let exposureText: string;
+			if (!converts) {
+				exposure = exposureNat!;
+				exposureText = exposureNatText!;
+			} else {
+				const toIrradiance = plan.measure !== 'irradiance';
+				const factor = toIrradiance ? perDuration(plan, t) : t;
+				exposure = overAperture ? x.times(apertureFactor(evaluateLimit(limit, plan, t), limit, factor)) : exposureNat!.times(factor);
+				exposureText = fmt(exposure);
+				if (w.enabled) {
+					if (!toIrradiance) w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNatText!, 'W/m²'], [plan.durationSymbol, tText, 's']], exposureText, 'J/m²');
+					else w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNatText!, 'J/m²'], ['τ', tText, 's']], exposureText, 'W/m²');
 				}
 			}
 			const lim = limitForPlan(limit, plan, t, w, w.enabled ? `${sid}.limit` : '');

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { Dec, OUTPUT_SIGNIFICANT_DIGITS } from './constants';
+import { AssessmentDec, Dec, OUTPUT_SIGNIFICANT_DIGITS } from './constants';
 import { fmt, NonFiniteResultError, toSignificantString } from './format';
 
 describe('writing decimals', () => {
@@ -17,6 +17,24 @@ describe('writing decimals', () => {
 		for (const t of ['1.000000000005', '1.000000000015', '1.0000000000050001', '9.9999999999995', '999999999999.5', '9.9999999999999e14', '9.99999999999951e-8', '-2.5e-7', '1e15', '123456789012345', '0.1', '0']) {
 			const d = new Dec(t);
 			expect(toSignificantString(d, 12), t).toBe(d.toSignificantDigits(12).toString());
+		}
+	});
+
+	it('writes any number of significant digits as decimal.js does, for both clones', () => {
+		const digitText = fc.stringMatching(/^[1-9][0-9]{0,44}$/);
+		fc.assert(
+			fc.property(digitText, fc.integer({ min: -40, max: 40 }), fc.boolean(), fc.integer({ min: 1, max: 20 }), fc.constantFrom(Dec, AssessmentDec), (digits, exp, negative, sd, D) => {
+				// Computed values (rounded to the clone's precision) as well as entered ones.
+				const entered = new D(`${negative ? '-' : ''}${digits}e${exp}`);
+				const computed = entered.div(7);
+				for (const d of [entered, computed]) expect(toSignificantString(d, sd)).toBe(d.toSignificantDigits(sd).toString());
+			}),
+			{ numRuns: 2000 }
+		);
+		// Groups of zeros inside and at the end of the digits, and carries at every position.
+		for (const t of ['100000000000', '1000000000001', '10203040506070', '99999999999949', '99999999999950', '0.000000123456789012', '120000000000000', '1.5', '25', '0.25', '7.000000000000500001']) {
+			const d = new AssessmentDec(t);
+			for (let sd = 1; sd <= 14; sd++) expect(toSignificantString(d, sd), `${t} @ ${sd}`).toBe(d.toSignificantDigits(sd).toString());
 		}
 	});
 

@@ -12,21 +12,17 @@ export class NonFiniteResultError extends Error {
 	}
 }
 
-// The same decimal is often written several times within a few lines (a step's value is the next
-// step.s input, a duration or an aperture is written with every comparison). A ring of the last 32
-// written instances, compared by identity from the most recent, catches those repeats; a WeakMap
-// costs more on a miss than the formatting it saves.
+// The engine writes each value once and passes the text on wherever the value appears again (see
+// StepValue in breakdown.ts). A ring of the last 32 written instances, compared by identity from the
+// most recent, catches the remaining repeats; a WeakMap costs more on a miss than it saves.
 const RING = 32;
 const ringKeys: (Decimal | null)[] = new Array(RING).fill(null);
 const ringValues: string[] = new Array(RING).fill('');
 let ringNext = 0;
 
-export const STATS = { calls: 0, misses: 0 };
 export function fmt(d: Decimal, what = 'the computation'): string {
-	STATS.calls++;
 	for (let i = ringNext - 1; i >= 0; i--) if (ringKeys[i] === d) return ringValues[i];
 	for (let i = RING - 1; i >= ringNext; i--) if (ringKeys[i] === d) return ringValues[i];
-	STATS.misses++;
 	if (!d.isFinite()) throw new NonFiniteResultError(what);
 	const s = toSignificantString(d, OUTPUT_SIGNIFICANT_DIGITS);
 	ringKeys[ringNext] = d;
