@@ -31,3 +31,42 @@ test('POST /api/admin/users and PATCH /api/admin/users/[userId] never answer 5xx
 	);
 	expect(await count()).toBe(before);
 });
+
+test('every JSON write of the register answers 4xx to arbitrary bodies and writes nothing', async () => {
+	const officer = await signedInClient(demo('officer'));
+	const inventory = await (await officer.get('/api/lasers?q=Solace')).json();
+	const laser = await (await officer.get(`/api/lasers/${inventory.items[0].id}`)).json();
+	const { limits } = await (await officer.get('/api/limits')).json();
+	const writes: [string, string][] = [
+		['post', '/api/lasers'],
+		['patch', `/api/lasers/${laser.laser.id}`],
+		['post', `/api/lasers/${laser.laser.id}/paths`],
+		['put', `/api/paths/${laser.paths[0].id}`],
+		['post', '/api/limits'],
+		['put', `/api/limits/${limits[0].limitId}`],
+		['post', '/api/assessments/preview']
+	];
+	const counts = async () => {
+		const all = await (await officer.get('/api/lasers?pageSize=1&status=active')).json();
+		const lib = await (await officer.get('/api/limits')).json();
+		const one = await (await officer.get(`/api/paths/${laser.paths[0].id}`)).json();
+		return { lasers: all.total, limits: lib.limits.length, pathVersion: one.path.version };
+	};
+	const before = await counts();
+	const body = fc.oneof(
+		fc.anything(),
+		fc.record({ labId: fc.anything(), lineId: fc.anything(), line: fc.anything(), elements: fc.anything(), points: fc.anything(), k: fc.anything(), version: fc.anything() }, { requiredKeys: [] }),
+		fc.string({ maxLength: 2000 })
+	);
+	for (const [method, url] of writes) {
+		await fc.assert(
+			fc.asyncProperty(body, async (data) => {
+				const res = await officer.fetch(url, { method, data: JSON.stringify(data) ?? 'null', headers: { 'content-type': 'application/json' } });
+				expect(res.status(), `${method} ${url} ${JSON.stringify(data)?.slice(0, 200)}`).toBeGreaterThanOrEqual(400);
+				expect(res.status()).toBeLessThan(500);
+			}),
+			{ numRuns: 40 }
+		);
+	}
+	expect(await counts()).toEqual(before);
+});

@@ -93,6 +93,7 @@ export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
 		{ kind: 'pulse_train', label: 'Pulse train', basis: 'single_pulse', duration: line.pulseDuration!, durationSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, sourceSymbol: 'Q₀', pointSymbol: 'Q', sourceUnit: 'J', pulseCount: count, needsTrainExponent: true, optional: true, missingT }
 	];
 }
+
 export const MEASURE_UNIT: Record<LimitQuantity, 'W/m²' | 'J/m²'> = { irradiance: 'W/m²', radiant_exposure: 'J/m²' };
 export const MEASURE_SYMBOL: Record<LimitQuantity, 'E' | 'H'> = { irradiance: 'E', radiant_exposure: 'H' };
 
