@@ -62,10 +62,15 @@ export interface BeamState {
 	waistSquared?: Decimal;
 }
 
+/** False where the beam is its waist: no divergence, or at the waist itself. */
+export function spreadsAt(state: BeamState, z: Decimal): boolean {
+	return !state.divergence.isZero() && compare(z, state.waistPosition) !== 0;
+}
+
 /** D(z)² = D_w² + (φ·(z − z_w))². */
 export function diameterSquaredAt(state: BeamState, z: Decimal): Decimal {
 	const w2 = state.waistSquared ?? state.waistDiameter.times(state.waistDiameter);
-	if (state.divergence.isZero() || compare(z, state.waistPosition) === 0) return w2;
+	if (!spreadsAt(state, z)) return w2;
 	const spread = state.divergence.times(z.minus(state.waistPosition));
 	return w2.plus(spread.times(spread));
 }
@@ -76,8 +81,7 @@ export function diameterAt(state: BeamState, z: Decimal): Decimal {
 
 /** D(z) from D(z)²: the waist diameter itself where the beam has not spread, else the square root. */
 export function diameterFromSquare(state: BeamState, z: Decimal, d2: Decimal): Decimal {
-	if (state.divergence.isZero() || compare(z, state.waistPosition) === 0) return state.waistDiameter;
-	return sqrt(d2);
+	return spreadsAt(state, z) ? sqrt(d2) : state.waistDiameter;
 }
 
 /** D(r) = √(D₀² + (r·φ)²). */

@@ -44,6 +44,8 @@ export interface BeamSnapshot {
 	factors: { index: number; symbol: string; value: Decimal }[];
 	/** Index of the element that produced this beam; null = the aperture. */
 	afterElement: number | null;
+	/** The breakdown's formula for `transmission`, formed when first needed. */
+	transmissionFormula?: string;
 }
 
 export interface EnclosedStretch {
@@ -116,8 +118,9 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
 		switch (e.kind) {
 			case 'propagate':
 			case 'enclosure': {
-				if (e.kind === 'enclosure' && !e.length.isZero()) enclosures.push({ index: e.index, from: z, to: z.plus(e.length) });
-				z = z.plus(e.length);
+				const end = e.end ?? z.plus(e.length);
+				if (e.kind === 'enclosure' && !e.length.isZero()) enclosures.push({ index: e.index, from: z, to: end });
+				z = end;
 				current.to = z;
 				break;
 			}

@@ -23,13 +23,13 @@
  */
 import type Decimal from 'decimal.js';
 import { numbersOf, type Numbers } from './constants';
-import { diameterFromSquare, diameterSquaredAt } from './beam';
+import { diameterFromSquare, diameterSquaredAt, spreadsAt } from './beam';
 import { compare } from './digits';
-import { cosAcute, sqrt } from './fastmath';
+import { cosAcute, compareClear, roughSqrt, ROUGH_SQRT_ERROR, sqrt } from './fastmath';
 import { Working, type StepInput } from './breakdown';
 import { requiredOpticalDensity, writeOd } from './density';
 import { beamsAt, enclosureAt, type BeamSnapshot, type PathModel } from './elements';
-import { fmt, toSignificantString } from './format';
+import { clearText, fmt, toSignificantString } from './format';
 import { limitReciprocal, limitRef, limitValueAt, memoPow, pulseCount, type LimitIndex } from './limits';
 import type { NormLimit, NormLine, NormPoint } from './validate';
 import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitQuantity, PointResult, PulseBasis, Tissue, Verdict } from './types';
@@ -75,6 +75,7 @@ export interface CheckPlan {
 	durationText?: string;
 	pulseCountText?: string;
 	perDuration?: Decimal;
+	stepTexts?: Map<NormLimit, StepTexts>;
 }
 
 export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
@@ -154,6 +155,51 @@ export function inverseNatural(lim: LimitInPlan, plan: CheckPlan, limit: NormLim
 	const inv = limit.quantity === plan.measure ? lim.inverse : plan.measure === 'irradiance' ? lim.inverse.times(t) : lim.inverse.times(perDuration(plan, t));
 	lim.inverseNatural = inv;
 	return inv;
+}
+
+/** Ids, labels and formulas of the steps of one comparison: the same for every point of an assessment. */
+interface StepTexts {
+	averaging: string;
+	exposure: string;
+	convert: string;
+	limit: string;
+	ratio: string;
+	averagingLabel: string;
+	averagedLabel: string;
+	averagedFormula: string;
+	diffuseLabel: string;
+	diffuseFormula: string;
+	convertLabel: string;
+	convertFormula: string;
+	ratioLabel: string;
+	ratioFormula: string;
+}
+function stepTexts(plan: CheckPlan, limit: NormLimit): StepTexts {
+	const byLimit = (plan.stepTexts ??= new Map());
+	let st = byLimit.get(limit);
+	if (!st) {
+		const sid = `${plan.kind}.limit${limit.index}`;
+		const nat = MEASURE_SYMBOL[plan.measure];
+		const xs = plan.pointSymbol;
+		st = {
+			averaging: `${sid}.averaging`,
+			exposure: `${sid}.exposure`,
+			convert: `${sid}.convert`,
+			limit: `${sid}.limit`,
+			ratio: `${sid}.ratio`,
+			averagingLabel: `${plan.label}: averaging diameter`,
+			averagedLabel: `${plan.label}: exposure averaged over D_avg`,
+			averagedFormula: `${nat} = ${xs} / (π·D_avg²/4)`,
+			diffuseLabel: `${plan.label}: exposure at the viewer`,
+			diffuseFormula: `${nat} = ρ·${xs}·cosθ / (π·r²)`,
+			convertLabel: plan.measure === 'irradiance' ? `${plan.label}: radiant exposure over ${plan.durationSymbol}` : `${plan.label}: irradiance during the pulse`,
+			convertFormula: `H = E·${plan.durationSymbol}`,
+			ratioLabel: `${plan.label}: ratio to “${limit.label}”`,
+			ratioFormula: `ratio = ${MEASURE_SYMBOL[limit.quantity]} / EL`
+		};
+		byLimit.set(limit, st);
+	}
+	return st;
 }
 
 /** Written forms of values that recur in every comparison (formed once, then shared). */
@@ -273,13 +319,18 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	const tPathText = fmt(tPath);
 	const unattenuated = beam.factors.length === 0;
 	if (w.enabled) {
-		if (!unattenuated) w.add('transmission', 'Transmission of the path up to the point', `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`, beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPathText, '');
+		if (!unattenuated) w.add('transmission', 'Transmission of the path up to the point', (beam.transmissionFormula ??= `T_path = ${beam.factors.map((f) => f.symbol).join('·')}`), beam.factors.map((f) => [f.symbol, f.value, ''] as const), tPathText, '');
 		else w.add('transmission', 'Transmission of the path up to the point', 'T_path = 1 (no attenuating element before the point)', [], tPathText, '');
 	}
 	const s = beam.state;
 	const D2 = diameterSquaredAt(s, z);
-	const D = diameterFromSquare(s, z, D2);
-	const dText = fmt(D);
+	// D is only written and compared with apertures: its 15-digit root does when its text and those
+	// comparisons are certain (see roughSqrt); the full root is formed otherwise.
+	const rough = spreadsAt(s, z) ? roughSqrt(D2) : null;
+	const roughText = rough && clearText(rough, ROUGH_SQRT_ERROR);
+	const D = roughText ? rough! : diameterFromSquare(s, z, D2);
+	const dText = roughText || fmt(D);
+	let exactD: Decimal | null = roughText ? null : D;
 	const zText = fmt(z);
 	const divergenceText = fmt(s.divergence);
 	if (w.enabled) w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', divergenceText, 'rad'], ['z', zText, 'm'], ['z_w', s.waistPosition, 'm']], dText, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
@@ -379,14 +430,13 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 		const atBeam = byPower ? irradiance : pulseH;
 		const atBeamText = byPower ? irradianceText : pulseHText;
 		const xs = plan.pointSymbol;
-		const nat = MEASURE_SYMBOL[plan.measure];
 		const natUnit = MEASURE_UNIT[plan.measure];
 		const tText = durationText(plan, t);
 		const comparisons: Comparison[] = [];
 		let best: { ratio: Decimal; text: string; limit: NormLimit; index: number } | null = null;
 
 		for (const limit of limits) {
-			const sid = w.enabled ? `${plan.kind}.limit${limit.index}` : '';
+			const st = w.enabled ? stepTexts(plan, limit) : null;
 			// The exposure in the plan's measure (E or H, for the breakdown) and in the limit's quantity.
 			const converts = limit.quantity !== plan.measure;
 			let exposureNat: Decimal | null;
@@ -396,11 +446,14 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 			if (diffuse) {
 				exposureNat = atBeam!;
 				exposureNatText = atBeamText!;
-				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${xs}·cosθ / (π·r²)`, [['ρ', diffuseTexts![0], ''], [xs, xText, plan.sourceUnit], ['θ', diffuseTexts![1], 'rad'], ['r', diffuseTexts![2], 'm']], exposureNatText, natUnit, 'Lambertian surface; no aperture averaging.');
+				if (st) w.add(st.exposure, st.diffuseLabel, st.diffuseFormula, [['ρ', diffuseTexts![0], ''], [xs, xText, plan.sourceUnit], ['θ', diffuseTexts![1], 'rad'], ['r', diffuseTexts![2], 'm']], exposureNatText, natUnit, 'Lambertian surface; no aperture averaging.');
 			} else {
-				const overBeam = compare(D, limit.limitingAperture) >= 0;
+				const df = limit.limitingAperture;
+				let side = exactD ? 0 : compareClear(D, df, ROUGH_SQRT_ERROR);
+				if (side === 0) side = compare((exactD ??= sqrt(D2)), df);
+				const overBeam = side >= 0;
 				averagingText = overBeam ? dText : apertureText(limit);
-				if (w.enabled) w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', dText, 'm'], ['D_f', apertureText(limit), 'm']], averagingText, 'm');
+				if (st) w.add(st.averaging, st.averagingLabel, 'D_avg = max(D, D_f)', [['D', dText, 'm'], ['D_f', apertureText(limit), 'm']], averagingText, 'm');
 				// Over D itself the exposure is the beam's own; over D_f, X × 1/(π·D_f²/4) of the limit
 				// (with a conversion to the limit's quantity, X × that × t in one product below).
 				overAperture = !overBeam;
@@ -414,7 +467,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 					exposureNat = null;
 					exposureNatText = null;
 				}
-				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, `${nat} = ${xs} / (π·D_avg²/4)`, [[xs, xText, plan.sourceUnit], ['D_avg', averagingText, 'm']], exposureNatText!, natUnit);
+				if (st) w.add(st.exposure, st.averagedLabel, st.averagedFormula, [[xs, xText, plan.sourceUnit], ['D_avg', averagingText, 'm']], exposureNatText!, natUnit);
 			}
 			let exposure: Decimal;
 			let exposureText: string;
@@ -426,17 +479,17 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 				const factor = toIrradiance ? perDuration(plan, t) : t;
 				exposure = overAperture ? x.times(apertureFactor(evaluateLimit(limit, plan, t), limit, factor)) : exposureNat!.times(factor);
 				exposureText = fmt(exposure);
-				if (w.enabled) {
-					if (!toIrradiance) w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.durationSymbol}`, `H = E·${plan.durationSymbol}`, [['E', exposureNatText!, 'W/m²'], [plan.durationSymbol, tText, 's']], exposureText, 'J/m²');
-					else w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNatText!, 'J/m²'], ['τ', tText, 's']], exposureText, 'W/m²');
+				if (st) {
+					if (!toIrradiance) w.add(st.convert, st.convertLabel, st.convertFormula, [['E', exposureNatText!, 'W/m²'], [plan.durationSymbol, tText, 's']], exposureText, 'J/m²');
+					else w.add(st.convert, st.convertLabel, 'E = H / τ', [['H', exposureNatText!, 'J/m²'], ['τ', tText, 's']], exposureText, 'W/m²');
 				}
 			}
-			const lim = limitForPlan(limit, plan, t, w, w.enabled ? `${sid}.limit` : '');
+			const lim = limitForPlan(limit, plan, t, w, st ? st.limit : '');
 			const ratio = exposure.times(lim.inverse);
 			const ratioText = fmt(ratio);
 			const q = MEASURE_SYMBOL[limit.quantity];
 			const unit = MEASURE_UNIT[limit.quantity];
-			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${q} / EL`, [[q, exposureText, unit], ['EL', valueText(lim), unit]], ratioText, '');
+			if (st) w.add(st.ratio, st.ratioLabel, st.ratioFormula, [[q, exposureText, unit], ['EL', valueText(lim), unit]], ratioText, '');
 
 			const exceeds = compare(ratio, K.ONE) > 0;
 			const cmp: Comparison = {

@@ -54,6 +54,35 @@ export function sqrt(a: Decimal): Decimal {
 	return s.plus(wide ? new K.D(correction) : decimalFromFloat(K.D, correction));
 }
 
+/** Relative error bound of roughSqrt (≤ 5.6e-15: the float64 root, then 15 digits), with margin. */
+export const ROUGH_SQRT_ERROR = 1e-14;
+
+/**
+ * √a to 15 significant digits (relative error below ROUGH_SQRT_ERROR), for a value that is only
+ * written and compared, never computed with: the caller checks that its written digits and its
+ * comparisons are the same for every value within the error (clearText, compareClear) and forms
+ * the exact root otherwise. null in clones of 30 digits or more (a reference run forms every root
+ * exactly) and outside float64's comfortable range.
+ */
+export function roughSqrt(a: Decimal): Decimal | null {
+	const K = numbersOf(a);
+	if (K.precision >= 30 || !a.isPositive() || a.isZero()) return null;
+	const seed = Math.sqrt(approxNumber(a));
+	return seed > 1e-150 && seed < 1e150 ? decimalFromFloat(K.D, seed) : null;
+}
+
+/**
+ * Sign of a − b when it holds for every value within a relative distance `rel` of a (b exact);
+ * 0 when that is not certain.
+ */
+export function compareClear(a: Decimal, b: Decimal, rel: number): number {
+	const x = approxNumber(a);
+	const y = approxNumber(b);
+	// approxNumber itself is within ~1e-15 of each value.
+	const margin = (rel + 4e-15) * Math.abs(x) + 4e-15 * Math.abs(y);
+	return x - y > margin ? 1 : y - x > margin ? -1 : 0;
+}
+
 /** All significant digits of a finite non-zero decimal, as a string. */
 function digitString(w: number[]): string {
 	let out = String(w[0]);

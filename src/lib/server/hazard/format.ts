@@ -137,7 +137,47 @@ export function toSignificantString(d: Decimal, sd: number): string {
 			e += 1;
 		}
 	}
-	return place(integerDigits(q), e, d.isNegative());
+	return place(integerDigits(q), e, (d as unknown as { s: number }).s < 0);
+}
+
+// '0.', '0.0', '0.00', … for values below 1 written without exponent; 'e-7', 'e+15', … otherwise.
+const FRACTION_PREFIX = Array.from({ length: 16 }, (_, k) => '0.' + ZEROS.slice(0, k));
+const EXPONENT_SUFFIX = new Map<number, string>();
+function exponentSuffix(e: number): string {
+	let s = EXPONENT_SUFFIX.get(e);
+	if (s === undefined) {
+		s = (e < 0 ? 'e' : 'e+') + e;
+		EXPONENT_SUFFIX.set(e, s);
+	}
+	return s;
+}
+
+/**
+ * The written text (12 digits) of every value within a relative distance `rel` of x, when that is
+ * one text; else null. Rounding to nearest changes only across a half-way point, so the text is
+ * certain unless the digits after the 12th lie within rel·x of one half of the 12th digit's unit.
+ */
+export function clearText(x: Decimal, rel: number): string | null {
+	const words = (x as unknown as { d: number[] }).d;
+	const w0 = words[0];
+	if (w0 === 0) return '0';
+	const n = words.length;
+	const sd = OUTPUT_SIGNIFICANT_DIGITS;
+	const k = w0 >= 1e4 ? (w0 >= 1e6 ? 7 : w0 >= 1e5 ? 6 : 5) : w0 >= 100 ? (w0 >= 1e3 ? 4 : 3) : w0 >= 10 ? 2 : 1;
+	const w1 = n > 1 ? words[1] : 0;
+	// f: the digits after the 12th as a fraction of its unit (to ~1e-7, ample here).
+	let f: number;
+	if (k + 7 >= sd) {
+		const p = POW10[k + 7 - sd];
+		const hi = w0 * 1e7 + w1;
+		f = (hi - Math.floor(hi / p) * p) / p + (n > 2 ? words[2] / 1e7 / p : 0);
+	} else {
+		const p = POW10[7 - (sd - k - 7)];
+		const w2 = n > 2 ? words[2] : 0;
+		f = (w2 - Math.floor(w2 / p) * p) / p + (n > 3 ? words[3] / 1e7 / p : 0);
+	}
+	// x is below 10^12 units of its 12th digit, so rel·x is below rel·10^12 of them.
+	return Math.abs(f - 0.5) > rel * 1e12 ? toSignificantString(x, sd) : null;
 }
 
 /** Lays out significant digits with decimal exponent e as decimal.js's toString does. */
@@ -145,15 +185,15 @@ function place(digits: string, e: number, negative: boolean): string {
 	let out: string;
 	const len = digits.length;
 	if (e <= Dec.toExpNeg || e >= Dec.toExpPos) {
-		out = (len > 1 ? `${digits[0]}.${digits.slice(1)}` : digits) + (e < 0 ? 'e' : 'e+') + e;
+		out = (len > 1 ? digits[0] + '.' + digits.slice(1) : digits) + exponentSuffix(e);
 	} else if (e < 0) {
-		out = '0.' + ZEROS.slice(0, -e - 1) + digits;
+		out = FRACTION_PREFIX[-e - 1] + digits;
 	} else if (e + 1 >= len) {
 		out = e + 1 === len ? digits : digits + ZEROS.slice(0, e + 1 - len);
 	} else {
-		out = `${digits.slice(0, e + 1)}.${digits.slice(e + 1)}`;
+		out = digits.slice(0, e + 1) + '.' + digits.slice(e + 1);
 	}
-	return negative ? `-${out}` : out;
+	return negative ? '-' + out : out;
 }
 
 /** The general case (more than 14 significant digits), from digit strings. */

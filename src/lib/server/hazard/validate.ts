@@ -50,8 +50,8 @@ export interface NormLine {
 }
 
 export type NormElement = { index: number; label: string } & (
-	| { kind: 'propagate'; length: Decimal }
-	| { kind: 'enclosure'; length: Decimal }
+	| { kind: 'propagate'; length: Decimal; end?: Decimal }
+	| { kind: 'enclosure'; length: Decimal; end?: Decimal }
 	| { kind: 'transmission'; factor: Decimal }
 	| { kind: 'mirror'; factor: Decimal }
 	| { kind: 'expander'; magnification: Decimal }
@@ -471,7 +471,8 @@ export function validate(raw: unknown, D: DecimalClone = Dec): Validated {
 	}
 	if (elements && points) {
 		let length = numbersFor(D).ZERO;
-		for (const e of elements) if (e.kind === 'propagate' || e.kind === 'enclosure') length = length.plus(e.length);
+		// The running sum is kept on each element (its end along the path) for the path walk.
+		for (const e of elements) if (e.kind === 'propagate' || e.kind === 'enclosure') e.end = length = length.plus(e.length);
 		for (const p of points) {
 			if (compare(p.position, length) > 0) {
 				errors.add(`points.${p.index}.position`, `The point lies past the end of the path: position ${p.position.toString()} m, path length ${length.toString()} m.`);
