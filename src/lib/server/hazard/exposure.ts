@@ -71,11 +71,12 @@ export interface CheckPlan {
 	 * applicable limits by tissue, each limit evaluated for the plan, the written duration and 1/t.
 	 */
 	applicable?: Partial<Record<Tissue, NormLimit[]>>;
-	evaluated?: Map<NormLimit, LimitInPlan>;
+	/** By limit index (the limits of one assessment). */
+	evaluated?: (LimitInPlan | undefined)[];
 	durationText?: string;
 	pulseCountText?: string;
 	perDuration?: Decimal;
-	stepTexts?: Map<NormLimit, StepTexts>;
+	stepTexts?: (StepTexts | undefined)[];
 }
 
 export function planChecks(line: NormLine, T: Decimal | null): CheckPlan[] {
@@ -118,8 +119,8 @@ export interface LimitInPlan {
 
 /** The limit for a plan, once per assessment: memoised on the plan (see CheckPlan). */
 export function evaluateLimit(limit: NormLimit, plan: CheckPlan, t: Decimal): LimitInPlan {
-	const memo = (plan.evaluated ??= new Map());
-	let lim = memo.get(limit);
+	const memo = (plan.evaluated ??= []);
+	let lim = memo[limit.index];
 	if (lim) return lim;
 	const base = limitValueAt(limit, t);
 	let value = base;
@@ -134,7 +135,7 @@ export function evaluateLimit(limit: NormLimit, plan: CheckPlan, t: Decimal): Li
 	}
 	const natural = limit.quantity === plan.measure ? value : plan.measure === 'irradiance' ? value.times(perDuration(plan, t)) : value.times(t);
 	lim = { value, natural, trainFactor, inverse };
-	memo.set(limit, lim);
+	memo[limit.index] = lim;
 	return lim;
 }
 
@@ -175,8 +176,8 @@ interface StepTexts {
 	ratioFormula: string;
 }
 function stepTexts(plan: CheckPlan, limit: NormLimit): StepTexts {
-	const byLimit = (plan.stepTexts ??= new Map());
-	let st = byLimit.get(limit);
+	const byLimit = (plan.stepTexts ??= []);
+	let st = byLimit[limit.index];
 	if (!st) {
 		const sid = `${plan.kind}.limit${limit.index}`;
 		const nat = MEASURE_SYMBOL[plan.measure];
@@ -197,7 +198,7 @@ function stepTexts(plan: CheckPlan, limit: NormLimit): StepTexts {
 			ratioLabel: `${plan.label}: ratio to “${limit.label}”`,
 			ratioFormula: `ratio = ${MEASURE_SYMBOL[limit.quantity]} / EL`
 		};
-		byLimit.set(limit, st);
+		byLimit[limit.index] = st;
 	}
 	return st;
 }

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import Decimal from 'decimal.js';
 import { AssessmentDec, Dec, HALF_PI } from './constants';
-import { asin, cosAcute, log10, sqrt } from './fastmath';
+import { asin, compareClear, cosAcute, log10, roughSqrt, ROUGH_SQRT_ERROR, sqrt } from './fastmath';
 
 describe('fast elementary functions', () => {
 	it('sqrt has at least 30 correct significant digits', () => {
@@ -33,6 +33,27 @@ describe('fast elementary functions', () => {
 			{ numRuns: 500 }
 		);
 		for (const [x, root] of [['4', '2'], ['1e-6', '0.001'], ['2.25', '1.5'], ['0.000025', '0.005'], ['6.25e10', '250000']]) expect(sqrt(new AssessmentDec(x)).toString()).toBe(root);
+	});
+
+	it('roughSqrt is within its stated error; compareClear decides only when the error cannot change the order', () => {
+		const Wide = Decimal.clone({ precision: 60 });
+		fc.assert(
+			fc.property(fc.double({ min: 1e-30, max: 1e30, noNaN: true }), fc.integer({ min: 1, max: 999 }), fc.double({ min: 0.98, max: 1.02, noNaN: true }), (x, tail, near) => {
+				const a = new AssessmentDec(x).times(`1.${tail}`).div(7);
+				const r = roughSqrt(a)!;
+				const exact = new Wide(a).sqrt();
+				expect(new Wide(r).minus(exact).abs().div(exact).lt(ROUGH_SQRT_ERROR)).toBe(true);
+				// A limit close to the root: a decided comparison holds for the exact root.
+				const b = new AssessmentDec(new Wide(r).times(near).toSignificantDigits(3).toString());
+				const side = compareClear(r, b, ROUGH_SQRT_ERROR);
+				if (side !== 0) expect(side).toBe(exact.cmp(b));
+			}),
+			{ numRuns: 1000 }
+		);
+		expect(compareClear(new AssessmentDec('0.007'), new AssessmentDec('0.007'), ROUGH_SQRT_ERROR)).toBe(0);
+		expect(compareClear(new AssessmentDec('0.0070000000001'), new AssessmentDec('0.007'), ROUGH_SQRT_ERROR)).toBe(1);
+		// The reference clone forms every root exactly.
+		expect(roughSqrt(new Dec(2))).toBeNull();
 	});
 
 	it('log10 is within 1e-14 and exact on powers of ten', () => {

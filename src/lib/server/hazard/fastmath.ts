@@ -7,7 +7,9 @@
  *  • sqrt: a float64 seed refined by one correction from the exact decimal residual a − s² (see
  *    sqrt below): ≥ 29 significant digits (≥ 30 in clones of 30 digits or more) or the clone's
  *    precision, whichever is lower — far beyond the 12 reported. Exact squares of short decimals
- *    come out exact.
+ *    come out exact. roughSqrt: the 15-digit float root alone, for a value that is only written
+ *    and compared (the beam diameter at a point), where its written digits and comparisons are
+ *    certain; the caller forms the full root otherwise.
  *  • log₁₀ (optical density only): the decimal exponent is taken exactly from the decimal and only
  *    the mantissa m ∈ [1, 10) goes through float64 (correctly rounded from all its digits):
  *    log₁₀(x) = e + log₁₀(m), absolute error below 1e-15 (reported with 12 significant digits);
@@ -19,8 +21,6 @@
 import type Decimal from 'decimal.js';
 import { Dec, numbersOf } from './constants';
 import { approxNumber, decimalFromFloat, parseDecimalText } from './digits';
-
-export { approxNumber } from './digits';
 
 type Words = { d: number[] | null; e: number; s: number };
 

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { AssessmentDec, Dec, OUTPUT_SIGNIFICANT_DIGITS } from './constants';
-import { fmt, NonFiniteResultError, toSignificantString } from './format';
+import Decimal from 'decimal.js';
+import { clearText, fmt, NonFiniteResultError, toSignificantString } from './format';
 
 describe('writing decimals', () => {
 	it('writes exactly what decimal.js writes for toSignificantDigits(12).toString()', () => {
@@ -36,6 +37,31 @@ describe('writing decimals', () => {
 			const d = new AssessmentDec(t);
 			for (let sd = 1; sd <= 14; sd++) expect(toSignificantString(d, sd), `${t} @ ${sd}`).toBe(d.toSignificantDigits(sd).toString());
 		}
+	});
+
+	it('gives a text only when every value within the stated relative distance writes it', () => {
+		const Wide = Decimal.clone({ precision: 60 });
+		const rel = 1e-14;
+		let certain = 0;
+		fc.assert(
+			fc.property(fc.stringMatching(/^[1-9][0-9]{14}$/), fc.integer({ min: -30, max: 30 }), fc.integer({ min: -1000, max: 1000 }), (digits, exp, u) => {
+				// 15-digit values, half of them placed next to a half-way point of the 12th digit.
+				const x = new AssessmentDec(`${digits.slice(0, 12)}${u % 2 ? '50' + digits.slice(14) : digits.slice(12)}e${exp}`);
+				const text = clearText(x, rel);
+				if (text === null) return;
+				certain++;
+				expect(text).toBe(toSignificantString(x, 12));
+				for (const t of [-1, -0.5, u / 1000, 0.5, 1]) {
+					const v = new Wide(x).times(new Wide(1).plus(new Wide(rel).times(t)));
+					expect(toSignificantString(v, 12)).toBe(text);
+				}
+			}),
+			{ numRuns: 2000 }
+		);
+		expect(certain).toBeGreaterThan(900);
+		// Next to a half-way point the text is uncertain.
+		expect(clearText(new AssessmentDec('1.23456789012500'), rel)).toBeNull();
+		expect(clearText(new AssessmentDec('1.23456789012400'), rel)).toBe('1.23456789012');
 	});
 
 	it('refuses to write a non-finite value', () => {

@@ -13,9 +13,9 @@ export class NonFiniteResultError extends Error {
 }
 
 // The engine writes each value once and passes the text on wherever the value appears again (see
-// StepValue in breakdown.ts). A ring of the last 32 written instances, compared by identity from the
+// StepValue in breakdown.ts). A ring of the last 8 written instances, compared by identity from the
 // most recent, catches the remaining repeats; a WeakMap costs more on a miss than it saves.
-const RING = 32;
+const RING = 8;
 const ringKeys: (Decimal | null)[] = new Array(RING).fill(null);
 const ringValues: string[] = new Array(RING).fill('');
 let ringNext = 0;

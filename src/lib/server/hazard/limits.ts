@@ -135,12 +135,10 @@ export function applicableLimits(limits: NormLimit[], q: LimitQuery): NormLimit[
 }
 
 /**
- * Applicable limits for one assessment (one wavelength), memoised by tissue, basis and duration
- * instance: the points of a path share a handful of durations.
+ * Applicable limits for one assessment (one wavelength). The check plans of an assessment keep what
+ * they found (see applicableLimits in exposure.ts), so each query is made once per plan and tissue.
  */
 export class LimitIndex {
-	// By tissue × basis × pulse-train flag (8 slots), then by duration instance.
-	private readonly memo: (Map<Decimal, NormLimit[]> | undefined)[] = new Array(8);
 	private readonly atWavelength: NormLimit[];
 	constructor(
 		readonly all: NormLimit[],
@@ -150,18 +148,10 @@ export class LimitIndex {
 	}
 
 	find(tissue: Tissue, basis: PulseBasis, duration: Decimal, needsTrainExponent: boolean): NormLimit[] {
-		const slot = (tissue === 'eye' ? 0 : 4) + (basis === 'continuous' ? 0 : 2) + (needsTrainExponent ? 1 : 0);
-		let byDuration = this.memo[slot];
-		if (!byDuration) {
-			byDuration = new Map();
-			this.memo[slot] = byDuration;
-		}
-		let hit = byDuration.get(duration);
-		if (!hit) {
-			hit = this.atWavelength.filter((l) => limitApplies(l, { tissue, basis, duration, wavelength: this.wavelength, needsTrainExponent }));
-			byDuration.set(duration, hit);
-		}
-		return hit;
+		const q: LimitQuery = { tissue, basis, duration, wavelength: this.wavelength, needsTrainExponent };
+		const out: NormLimit[] = [];
+		for (const l of this.atWavelength) if (limitApplies(l, q)) out.push(l);
+		return out;
 	}
 }
 
