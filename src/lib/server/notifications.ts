@@ -1,6 +1,6 @@
 // In-app notifications (the mail issue sends them as e-mail too). Written inside the caller's
 // transaction, so a decision and the word of it commit together.
-import { and, desc, eq, isNull, inArray } from 'drizzle-orm';
+import { and, desc, eq } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 
@@ -19,13 +19,4 @@ export async function officerIds(tx: Tx): Promise<string[]> {
 
 export async function recent(userId: string, limit = 20) {
 	return db.select().from(table.notification).where(eq(table.notification.userId, userId)).orderBy(desc(table.notification.createdAt)).limit(limit);
-}
-
-export async function unreadCount(userId: string): Promise<number> {
-	return db.$count(table.notification, and(eq(table.notification.userId, userId), isNull(table.notification.readAt)));
-}
-
-export async function markRead(userId: string, ids: string[]): Promise<void> {
-	if (ids.length === 0) return;
-	await db.update(table.notification).set({ readAt: new Date() }).where(and(eq(table.notification.userId, userId), inArray(table.notification.id, ids), isNull(table.notification.readAt)));
 }

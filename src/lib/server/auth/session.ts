@@ -4,7 +4,6 @@
 import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle';
 import type { Cookies } from '@sveltejs/kit';
 import { createHash } from 'node:crypto';
-import { eq } from 'drizzle-orm';
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession } from 'lucia';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
@@ -77,10 +76,6 @@ export async function validateSessionToken(token: string) {
 
 export async function invalidateSession(token: string) {
 	await lucia.invalidateSession(token);
-}
-
-export async function invalidateUserSessions(userId: string) {
-	await db.delete(table.session).where(eq(table.session.userId, userId));
 }
 
 export function setSessionCookie(cookies: Cookies, token: string) {
