@@ -10,6 +10,7 @@ test('a reset link is mailed, the admin reads the mail, and the link works once'
 
 	await page.goto('/signin');
 	await page.getByRole('link', { name: 'Forgot your password?' }).click();
+	await expect(page.getByRole('heading', { name: 'Reset your password' })).toBeVisible();
 	await page.getByLabel('E-mail address').fill(person.email);
 	await page.getByRole('button', { name: 'Send me a link' }).click();
 	await expect(page.getByRole('status')).toContainText('If an active account uses this address');
