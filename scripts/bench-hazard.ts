@@ -18,12 +18,18 @@
  * --workers=N (default 2, the machine's cores) also times the register split over N worker
  * threads of this process, each warmed up the same way; single-thread figures come first.
  * --reference=M compares the first M results, every written number, with the engine at 40 digits.
+ * --floor=K (default 2000) records every decimal.js arithmetic call the engine makes on K paths
+ * (untimed) and replays exactly those calls, on the same operands, with nothing else: the time that
+ * decimal.js itself needs for the register's arithmetic, scaled to the whole register. No engine
+ * built on decimal.js can be faster than that, so it bounds what the ratio to float64 can reach.
  */
 import os from 'node:os';
+import type Decimal from 'decimal.js';
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { assess } from '../src/lib/server/hazard/index';
 import { assessAtPrecision } from '../src/lib/server/hazard/assess';
-import { ASSESSMENT_PRECISION, Dec, WORKING_PRECISION } from '../src/lib/server/hazard/constants';
+import { ASSESSMENT_PRECISION, AssessmentDec, Dec, OUTPUT_SIGNIFICANT_DIGITS, WORKING_PRECISION } from '../src/lib/server/hazard/constants';
+import { toSignificantString } from '../src/lib/server/hazard/format';
 import type { AssessmentInput, ElementInput, LimitInput, PointInput } from '../src/lib/server/hazard/index';
 
 const args = process.argv.slice(2);
@@ -35,6 +41,7 @@ const PATHS = Number(args.find((a) => !a.startsWith('--')) ?? (isMainThread ? 10
 const RUNS = flag('runs', 3);
 const WORKERS = flag('workers', 2);
 const REFERENCE = flag('reference', 500);
+const FLOOR = flag('floor', 2000);
 const WARM_UP_PATHS = 2000;
 
 // ------------------------------------------------------------------ seeded data
@@ -303,6 +310,72 @@ async function timeAsync<T>(fn: () => Promise<T>): Promise<[T, Timing]> {
 	return [out, { wall, cpu: (c.user + c.system) / 1000 }];
 }
 const best = (ts: Timing[]) => ts.reduce((a, b) => (b.wall < a.wall ? b : a));
+/** The decimal.js arithmetic of `paths` (with breakdown), recorded and then replayed alone; see --floor. */
+function decimalFloor(paths: AssessmentInput[]): { calls: number; perPath: Record<string, number>; best: number; writing: number } {
+	type Call = [name: string, x: Record<string, (y?: unknown) => unknown>, y: unknown];
+	const proto = AssessmentDec.prototype as unknown as Record<string, (this: unknown, y?: unknown) => unknown>;
+	const names = ['times', 'div', 'plus', 'minus', 'sqrt', 'pow', 'toNumber', 'cmp', 'lt', 'gte', 'lte'];
+	const originals = names.map((n) => proto[n]);
+	const calls: Call[] = [];
+	const produced: Decimal[] = [];
+	let depth = 0; // only the engine's own calls, not those decimal.js makes inside one
+	names.forEach((n, i) => {
+		proto[n] = function (this: unknown, y?: unknown) {
+			const outer = depth === 0;
+			if (outer) calls.push([n, this as Call[1], y]);
+			depth++;
+			try {
+				const out = originals[i].call(this, y);
+				if (outer && out instanceof AssessmentDec && out.isFinite()) produced.push(out);
+				return out;
+			} finally {
+				depth--;
+			}
+		};
+	});
+	try {
+		for (const p of paths) assess(p);
+	} finally {
+		names.forEach((n, i) => (proto[n] = originals[i]));
+	}
+	const perPath: Record<string, number> = {};
+	for (const [n] of calls) perPath[n] = (perPath[n] ?? 0) + 1 / paths.length;
+	// Replayed through direct calls (one switch), as cheap a dispatch as the engine's own code.
+	const code = calls.map(([n]) => names.indexOf(n));
+	const xs = calls.map((c) => c[1] as unknown as Decimal);
+	const ys = calls.map((c) => c[2] as Decimal);
+	const replay = () => {
+		for (let i = 0; i < code.length; i++) {
+			const x = xs[i];
+			const y = ys[i];
+			switch (code[i]) {
+				case 0: x.times(y); break;
+				case 1: x.div(y); break;
+				case 2: x.plus(y); break;
+				case 3: x.minus(y); break;
+				case 4: x.sqrt(); break;
+				case 5: x.pow(y); break;
+				case 6: x.toNumber(); break;
+				case 7: x.cmp(y); break;
+				case 8: x.lt(y); break;
+				case 9: x.gte(y); break;
+				default: x.lte(y);
+			}
+		}
+	};
+	replay();
+	const times = Array.from({ length: 5 }, () => time(replay)[1].wall);
+	// Writing each value produced once with the engine's 12-digit formatter (the results write
+	// about as many numbers as the arithmetic produces).
+	const write = () => {
+		for (let i = 0; i < produced.length; i++) toSignificantString(produced[i], OUTPUT_SIGNIFICANT_DIGITS);
+	};
+	write();
+	const writes = Array.from({ length: 5 }, () => time(write)[1].wall);
+	const scale = PATHS / paths.length;
+	return { calls: calls.length, perPath, best: Math.min(...times) * scale, writing: Math.min(...writes) * scale };
+}
+
 const list = (ts: Timing[]) => ts.map((t) => t.wall.toFixed(0)).join(', ');
 
 async function main(): Promise<void> {
@@ -412,6 +485,8 @@ async function main(): Promise<void> {
 		}
 	}
 
+	const floor = FLOOR > 0 ? decimalFloor(register.slice(0, Math.min(FLOOR, PATHS))) : null;
+
 	const rssMB = process.resourceUsage().maxRSS / 1024;
 	const avgKB = sized.reduce((a, s) => a + s.bytes, 0) / sized.length / 1024;
 	const f = best(passes.f64);
@@ -432,6 +507,13 @@ async function main(): Promise<void> {
 		const won = best(workerOn);
 		const woff = best(workerOff);
 		console.log(`${WORKERS} worker threads in this process, best of ${RUNS}: with breakdown ${won.wall.toFixed(0)} ms wall [runs: ${list(workerOn)}], breakdown off ${woff.wall.toFixed(0)} ms wall [runs: ${list(workerOff)}]`);
+	}
+	if (floor) {
+		const ops = Object.entries(floor.perPath)
+			.sort((a, b) => b[1] - a[1])
+			.map(([n, c]) => `${n} ${c.toFixed(1)}`)
+			.join(', ');
+		console.log(`decimal.js floor: the engine's own decimal.js calls per path (${ops}; ${(floor.calls / Math.min(FLOOR, PATHS)).toFixed(0)} in all), replayed alone on the same operands: ${floor.best.toFixed(0)} ms for the register = ${(floor.best / f.wall).toFixed(1)}× the float64 baseline; writing each value they produce once (12 digits): ${floor.writing.toFixed(0)} ms more; together ${((floor.best + floor.writing) / f.wall).toFixed(1)}× (best of 5, scaled from ${Math.min(FLOOR, PATHS)} paths)`);
 	}
 	console.log(`worst ratios vs float64: max relative difference ${maxRel.toExponential(2)}, null mismatches ${nullMismatch}`);
 	console.log(`against the engine at ${WORKING_PRECISION} digits (first ${Math.min(REFERENCE, PATHS)} paths, ${written} written numbers): ${differing} strings differ`);
