@@ -1,14 +1,16 @@
 #!/usr/bin/env bash
 # Project-owned PostgreSQL cluster on loopback: scripts/db.sh start|stop|status|env
-# Data lives under .data/ (git-ignored). The server runs as the `postgres` user because
+# Data lives under .data/ (git-ignored; BEAMWARDEN_PGDIR and BEAMWARDEN_PGPORT give a second,
+# separate cluster, as the durability test does). The server runs as the `postgres` user because
 # PostgreSQL refuses to run as root.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 ROOT=$(pwd)
 PGPORT=${BEAMWARDEN_PGPORT:-54329}
-DATA="$ROOT/.data/pg"
-SOCK="$ROOT/.data/pg-socket"
-LOG="$ROOT/.data/pg.log"
+DIR=${BEAMWARDEN_PGDIR:-$ROOT/.data}
+DATA="$DIR/pg"
+SOCK="$DIR/pg-socket"
+LOG="$DIR/pg.log"
 PG_BIN=${PG_BIN:-$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1 || true)}
 
 as_pg() {
@@ -28,8 +30,8 @@ running() { [ -n "$PG_BIN" ] && [ -x "$PG_BIN/pg_isready" ] && "$PG_BIN/pg_isrea
 
 start() {
 	ensure_binaries
-	mkdir -p "$ROOT/.data" "$SOCK"
-	chmod 755 "$ROOT/.data"
+	mkdir -p "$ROOT/.data" "$DIR" "$SOCK"
+	chmod 755 "$ROOT/.data" "$DIR"
 	if [ "$(id -u)" = 0 ]; then chown postgres:postgres "$SOCK"; fi
 	if [ ! -s "$DATA/PG_VERSION" ]; then
 		mkdir -p "$DATA"

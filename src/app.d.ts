@@ -12,6 +12,8 @@ declare global {
 		interface Locals {
 			user: SessionValidationResult['user'];
 			session: SessionValidationResult['session'];
+			/** Set by handleError when the database could not be reached: the answer becomes a 503. */
+			databaseUnavailable?: boolean;
 		}
 	}
 }

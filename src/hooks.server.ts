@@ -2,12 +2,13 @@ import { building } from '$app/environment';
 import { error, json, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { client } from '$lib/server/db';
-import { isDatabaseUnavailable } from '$lib/server/db/errors';
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable } from '$lib/server/db/errors';
 import { readConfig } from '$lib/server/config';
 import { startJobs, stopJobs } from '$lib/server/jobs';
 import * as auth from '$lib/server/auth/session';
 import { allows, ruleFor } from '$lib/server/auth/policy';
 import { forbidden } from '$lib/server/auth/guard';
+import { apiError } from '$lib/server/api';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -33,11 +34,25 @@ function startJobsWhenReady(delay = 1000) {
 }
 
 const isApi = (path: string) => path.startsWith('/api/');
-const unavailable = () =>
-	new Response('The register is unavailable for a moment; try again shortly.', {
-		status: 503,
-		headers: { 'content-type': 'text/plain; charset=utf-8', 'retry-after': '5' }
-	});
+/** 503 while the database cannot be reached: the API's error shape for /api, plain text otherwise. */
+const unavailable = (path: string) => {
+	if (isApi(path)) {
+		const res = apiError(503, DATABASE_UNAVAILABLE);
+		res.headers.set('retry-after', '5');
+		return res;
+	}
+	return new Response(DATABASE_UNAVAILABLE, { status: 503, headers: { 'content-type': 'text/plain; charset=utf-8', 'retry-after': '5' } });
+};
+
+// A load or action that fails because the database is down is rendered by SvelteKit as a 500;
+// handleError marks it, and the answer goes out as a 503 that says to try again.
+const handleUnavailable: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	if (!event.locals.databaseUnavailable || response.status !== 500) return response;
+	const headers = new Headers(response.headers);
+	headers.set('retry-after', '5');
+	return new Response(response.body, { status: 503, headers });
+};
 
 const handleSession: Handle = async ({ event, resolve }) => {
 	const token = event.cookies.get(auth.sessionCookieName);
@@ -51,7 +66,7 @@ const handleSession: Handle = async ({ event, resolve }) => {
 			event.locals.user = user;
 			event.locals.session = session;
 		} catch (e) {
-			if (isDatabaseUnavailable(e)) return unavailable();
+			if (isDatabaseUnavailable(e)) return unavailable(event.url.pathname);
 			throw e;
 		}
 	}
@@ -102,11 +117,13 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(securityHeaders, handleSession, handleJsonOrigin, handleGuard);
+export const handle = sequence(securityHeaders, handleUnavailable, handleSession, handleJsonOrigin, handleGuard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
-	if (isDatabaseUnavailable(error))
-		return { message: 'The register is unavailable for a moment; try again shortly.' };
+	if (isDatabaseUnavailable(error)) {
+		event.locals.databaseUnavailable = true;
+		return { message: DATABASE_UNAVAILABLE };
+	}
 	if (status >= 500) console.error('Unhandled error', event.route.id, error);
 	return { message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message };
 };

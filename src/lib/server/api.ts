@@ -1,7 +1,7 @@
 // One shape for every JSON API answer that is not a success: { message, fields? } with a 4xx/5xx.
 import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
-import { isDatabaseUnavailable } from './db/errors';
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable } from './db/errors';
 
 export type ApiError = App.Error;
 
@@ -18,7 +18,7 @@ export function endpoint<H extends RequestHandler<any, any>>(handler: H): H {
 		} catch (e) {
 			if (isRedirect(e)) throw e;
 			if (isHttpError(e)) return json(e.body, { status: e.status });
-			if (isDatabaseUnavailable(e)) return apiError(503, 'The register is unavailable for a moment; try again shortly.');
+			if (isDatabaseUnavailable(e)) return apiError(503, DATABASE_UNAVAILABLE);
 			console.error('API failure', event.route.id, e);
 			return apiError(500, 'Something went wrong on our side; it has been logged.');
 		}

@@ -13,6 +13,9 @@ const unavailableCodes = new Set([
 	'57P03' // cannot_connect_now
 ]);
 
+/** What users are told while the database cannot be reached (with a 503). */
+export const DATABASE_UNAVAILABLE = 'The register is unavailable for a moment; try again shortly.';
+
 export function isDatabaseUnavailable(e: unknown): boolean {
 	for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
 		const code = (cur as { code?: unknown }).code;

@@ -8,7 +8,11 @@ import * as schema from './schema';
 export const client = postgres(process.env.DATABASE_URL ?? 'postgres://unset@127.0.0.1:1/unset', {
 	max: Number(process.env.DATABASE_POOL_SIZE ?? 10),
 	onnotice: () => {},
-	connection: { application_name: 'beamwarden' }
+	connection: { application_name: 'beamwarden' },
+	// While the database is down a request should get its 503 within a second, not wait for the
+	// library's default reconnect backoff (which grows to 20 s); a hung connect gives up after 10 s.
+	backoff: (retries: number) => Math.min(0.05 * 2 ** retries, 1),
+	connect_timeout: 10
 });
 
 export const db = drizzle(client, { schema });
