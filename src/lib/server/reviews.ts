@@ -48,16 +48,18 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 	const state = filter.state ?? 'awaiting_review';
 	if (state === 'all') where.push(sql`${table.beamPath.reviewState} <> 'not_needed'`);
 	else where.push(eq(table.beamPath.reviewState, state));
+	// The latest snapshot of each listed path only (a lateral join on the path's index), never a
+	// pass over every snapshot ever taken.
 	const latest = db
-		.selectDistinctOn([table.assessment.pathId], {
-			pathId: table.assessment.pathId,
+		.select({
 			worstRatio: table.assessment.worstRatio,
 			requiredOd: table.assessment.requiredOd,
-			verdict: table.assessment.verdict,
-			createdAt: table.assessment.createdAt
+			verdict: table.assessment.verdict
 		})
 		.from(table.assessment)
-		.orderBy(table.assessment.pathId, desc(table.assessment.createdAt))
+		.where(eq(table.assessment.pathId, table.beamPath.id))
+		.orderBy(desc(table.assessment.createdAt))
+		.limit(1)
 		.as('latest');
 	return db
 		.select({
@@ -80,7 +82,7 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
 		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
 		.innerJoin(table.emissionLine, eq(table.emissionLine.id, table.beamPath.lineId))
-		.leftJoin(latest, eq(latest.pathId, table.beamPath.id))
+		.leftJoinLateral(latest, sql`true`)
 		.where(and(...where))
 		.orderBy(asc(sql`coalesce(${table.beamPath.awaitingSince}, ${table.beamPath.updatedAt})`))
 		.limit(500);
