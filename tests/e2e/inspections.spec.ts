@@ -2,8 +2,20 @@
 // export; an officer records an inspection with a photo, and the next due date moves.
 import { expect, test } from '@playwright/test';
 import { addMonths, format } from 'date-fns';
+import { demoUsers } from '../../seed/demo';
 import { png } from '../../seed/png';
 import { demo, expectAccessible, signIn } from './helpers';
+
+test('a researcher sees the inspections of the areas she answers for on her overview', async ({ page }) => {
+	await signIn(page, demoUsers.find((u) => u.email.startsWith('priya'))!); // responsible for UFL and SPX areas
+	const mine = page.getByRole('region', { name: 'Your inspections' });
+	await expect(mine.getByRole('row', { name: /Ultrafast LCA M2.14/ })).toContainText('overdue');
+	await expect(mine.getByRole('row', { name: /Ultrafast LCA M2.14/ })).toContainText('late');
+	await expect(mine.getByRole('row', { name: /Spectroscopy LCA M1.07/ })).toContainText('due soon');
+	await expect(mine.getByRole('row', { name: /Spectroscopy LCA M1.07/ })).toContainText('responsible');
+	await expect(mine.getByRole('row', { name: /Pulse Hall/ })).toHaveCount(0);
+	await expectAccessible(page);
+});
 
 test('the manager sees overdue and due-soon inspections, the chart and the export', async ({ page }) => {
 	await signIn(page, demo('manager'));

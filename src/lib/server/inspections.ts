@@ -30,6 +30,7 @@ export type ScheduleRow = {
 	completedOn: string | null;
 	inspectorId: string | null;
 	inspectorName: string | null;
+	responsibleId: string | null;
 	responsibleName: string | null;
 	intervalMonths: number;
 	version: number;
@@ -48,6 +49,7 @@ export async function schedule(scope: Scope, today: string): Promise<ScheduleRow
 			completedOn: table.inspection.completedOn,
 			inspectorId: table.inspection.inspectorId,
 			inspectorName: inspectorUser.name,
+			responsibleId: table.area.responsibleId,
 			responsibleName: responsibleUser.name,
 			intervalMonths: table.area.inspectionIntervalMonths,
 			version: table.inspection.version

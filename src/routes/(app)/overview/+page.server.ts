@@ -1,15 +1,22 @@
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
+import * as inspections from '$lib/server/inspections';
 import * as notifications from '$lib/server/notifications';
+import { todayISO } from '$lib/inspectionState';
 import * as reviews from '$lib/server/reviews';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {
 	const user = requireUser(locals);
 	const scope = await scopeOf(user);
-	const [counts, recent] = await Promise.all([reviews.counts(scope), notifications.recent(user.id, 10)]);
+	const today = todayISO();
+	const [counts, recent, open] = await Promise.all([reviews.counts(scope), notifications.recent(user.id, 10), inspections.schedule(scope, today)]);
+	// The open inspections this person answers for: as the area's responsible person or as its inspector.
+	const mine = open.filter((r) => r.responsibleId === user.id || r.inspectorId === user.id);
 	return {
 		counts,
+		today,
+		inspections: mine.map((r) => ({ id: r.id, areaName: r.areaName, labCode: r.labCode, dueOn: r.dueOn, state: r.state, as: r.inspectorId === user.id ? (r.responsibleId === user.id ? 'responsible and inspector' : 'inspector') : 'responsible' })),
 		notifications: recent.map((n) => ({ id: n.id, title: n.title, body: n.body, pathId: n.pathId, kind: n.kind, createdAt: n.createdAt.toISOString(), read: n.readAt !== null }))
 	};
 };
