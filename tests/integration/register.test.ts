@@ -1,4 +1,5 @@
 import { eq, sql } from 'drizzle-orm';
+import postgres from 'postgres';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
@@ -102,6 +103,69 @@ describe('beam paths and their assessment snapshots', () => {
 		expect(found.ok && found.detail.path.name).toBe('Renamed once');
 	});
 
+	it('a point key naming another path’s point is not taken over', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const a = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id, { name: 'Path A' }));
+		const b = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id, { name: 'Path B' }));
+		if (!a.ok || !b.ok) throw new Error('save');
+		const pointsOf = async (id: string) => (await db.select().from(table.pointOfConcern).where(eq(table.pointOfConcern.pathId, id))).map((p) => p.id).sort();
+		const bPoints = await pointsOf(b.id);
+		const form = pathForm(laser.lines[0].id, { name: 'Path A', version: a.version });
+		form.points[0].key = bPoints[0];
+		expect(await paths.save(researcher, laser.laser.id, a.id, form)).toMatchObject({ ok: true });
+		form.points[1].key = bPoints[0]; // the same key twice: refused, not a failed insert
+		expect(await paths.save(researcher, laser.laser.id, a.id, { ...form, version: a.version + 1 })).toMatchObject({ ok: false, status: 400 });
+		expect(await pointsOf(b.id)).toEqual(bPoints);
+		expect((await pointsOf(a.id)).filter((id) => bPoints.includes(id))).toEqual([]);
+	});
+
+	it('a save waits for a line edit in progress and snapshots the edited line', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const first = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));
+		if (!first.ok) throw new Error('save');
+		const other = postgres(process.env.DATABASE_URL!, { max: 1, onnotice: () => {} });
+		let saving: ReturnType<typeof paths.save> | undefined;
+		let settled = false;
+		try {
+			await other.begin(async (t) => {
+				await t`SELECT id FROM emission_line WHERE id = ${laser.lines[0].id} FOR UPDATE`;
+				saving = paths.save(researcher, laser.laser.id, first.id, pathForm(laser.lines[0].id, { name: 'Saved during a line edit', version: first.version }));
+				void saving.then(() => (settled = true));
+				await new Promise((r) => setTimeout(r, 300));
+				expect(settled, 'the save waits for the line edit').toBe(false);
+				await t`UPDATE emission_line SET power = 0.05 WHERE id = ${laser.lines[0].id}`;
+			});
+		} finally {
+			await other.end();
+		}
+		expect(await saving).toMatchObject({ ok: true });
+		const [latest] = await db.execute<{ power: string }>(sql`SELECT inputs->'line'->>'power' AS power FROM assessment WHERE path_id = ${first.id} ORDER BY created_at DESC LIMIT 1`);
+		expect(Number(latest.power)).toBe(0.05);
+	});
+
+	it('a save waits for a review decision in progress and reopens the review it would otherwise hide', async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const first = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));
+		if (!first.ok) throw new Error('save');
+		const [before] = await db.select().from(table.beamPath).where(eq(table.beamPath.id, first.id));
+		expect(before.reviewState).toBe('awaiting_review');
+		const other = postgres(process.env.DATABASE_URL!, { max: 1, onnotice: () => {} });
+		let saving: ReturnType<typeof paths.save> | undefined;
+		try {
+			// An officer's decision, committed while the researcher's save is under way.
+			await other.begin(async (t) => {
+				await t`UPDATE beam_path SET review_state = 'cleared' WHERE id = ${first.id}`;
+				saving = paths.save(researcher, laser.laser.id, first.id, pathForm(laser.lines[0].id, { name: 'Changed while being cleared', version: first.version }));
+				await new Promise((r) => setTimeout(r, 300));
+			});
+		} finally {
+			await other.end();
+		}
+		expect(await saving).toMatchObject({ ok: true });
+		const [after] = await db.select().from(table.beamPath).where(eq(table.beamPath.id, first.id));
+		expect(after.reviewState, 'the change after the clearance is back on the desk').toBe('awaiting_review');
+	});
+
 	it('a new limit makes covered paths stale; the re-evaluation snapshots them against it', async () => {
 		const laser = await newLaser(researcher, labA.id);
 		const saved = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));
@@ -131,6 +195,11 @@ describe('beam paths and their assessment snapshots', () => {
 		await paths.reassessStale();
 		found = await paths.find(officer, saved.id);
 		expect(found.ok && found.detail.latest?.limitVersions).toContainEqual({ id: created.id, version: '2' });
+	});
+
+	it('a malformed limit id is “no such limit”, not a database error', async () => {
+		expect(await limits.revise(officerId, 'abc', limitForm())).toMatchObject({ ok: false, status: 404 });
+		expect(await limits.retire(officerId, 'abc', 1)).toMatchObject({ ok: false, status: 404 });
 	});
 
 	it('an infrared limit leaves a green path alone', async () => {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isCalendarDay } from './dates';
 import { parseQuantity } from '$lib/units';
 
 export const eyewearConditions = ['good', 'worn', 'damaged'] as const;
@@ -42,7 +43,7 @@ export const eyewearSchema = z
 			.string()
 			.trim()
 			.default('')
-			.refine((t) => t === '' || (/^\d{4}-\d{2}-\d{2}$/.test(t) && !Number.isNaN(Date.parse(t))), 'Enter a date as YYYY-MM-DD.'),
+			.refine((t) => t === '' || isCalendarDay(t), 'Enter a date as YYYY-MM-DD.'),
 		bands: z.array(bandSchema).min(1, 'Enter at least one wavelength band with its optical density.').max(20),
 		version: z.coerce.number().int().nonnegative().default(0)
 	})

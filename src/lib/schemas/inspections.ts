@@ -1,10 +1,11 @@
 import { z } from 'zod';
+import { isCalendarDay } from './dates';
 
 const isoDate = (what: string) =>
 	z
 		.string()
 		.trim()
-		.refine((t) => /^\d{4}-\d{2}-\d{2}$/.test(t) && !Number.isNaN(Date.parse(t)), `Enter ${what} as YYYY-MM-DD.`);
+		.refine(isCalendarDay, `Enter ${what} as YYYY-MM-DD.`);
 
 export const checkOutcomes = ['pass', 'fail', 'not_applicable'] as const;
 export const outcomeWords: Record<(typeof checkOutcomes)[number], string> = { pass: 'pass', fail: 'fail', not_applicable: 'not applicable' };
@@ -35,7 +36,7 @@ export const recordInspectionSchema = z
 							.string()
 							.trim()
 							.default('')
-							.refine((t) => t === '' || (/^\d{4}-\d{2}-\d{2}$/.test(t) && !Number.isNaN(Date.parse(t))), 'Enter a date as YYYY-MM-DD.')
+							.refine((t) => t === '' || isCalendarDay(t), 'Enter a date as YYYY-MM-DD.')
 					})
 					.strict()
 			)

@@ -1,5 +1,6 @@
 // The exposure-limit form: values typed with their units, checked the same way in browser and server.
 import { z } from 'zod';
+import { isCalendarDay } from './dates';
 import { parseQuantity, type QuantityKind } from '$lib/units';
 import { tissues } from './register';
 
@@ -29,7 +30,7 @@ const date = z
 	.string()
 	.trim()
 	.default('')
-	.refine((t) => t === '' || (/^\d{4}-\d{2}-\d{2}$/.test(t) && !Number.isNaN(Date.parse(t))), 'Enter a date as YYYY-MM-DD.');
+	.refine((t) => t === '' || isCalendarDay(t), 'Enter a date as YYYY-MM-DD.');
 
 export const limitFormSchema = z
 	.object({

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isCalendarDay } from './dates';
 import { parseQuantity } from '$lib/units';
 
 export const controlKinds = ['eyewear', 'enclosure', 'interlock', 'signage', 'beam_stop', 'procedure', 'training', 'other'] as const;
@@ -54,7 +55,7 @@ export const decisionSchema = z
 			.string()
 			.trim()
 			.default('')
-			.refine((t) => t === '' || (/^\d{4}-\d{2}-\d{2}$/.test(t) && !Number.isNaN(Date.parse(t))), 'Enter a date as YYYY-MM-DD.'),
+			.refine((t) => t === '' || isCalendarDay(t), 'Enter a date as YYYY-MM-DD.'),
 		controls: z.array(controlSchema).max(30).default([])
 	})
 	.strict()

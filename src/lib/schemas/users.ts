@@ -13,7 +13,7 @@ export const newUserSchema = z
 		name: z.string().trim().min(1, 'Enter the person’s name.').max(120),
 		email,
 		role: z.enum(roles, { error: 'Choose one of the four roles.' }),
-		labIds: z.array(z.uuid({ error: 'Unknown lab.' })).max(50).default([]),
+		labIds: z.array(z.uuid({ error: 'Unknown lab.' })).max(50).refine((ids) => new Set(ids).size === ids.length, 'Each lab can be chosen once.').default([]),
 		password: z.string().min(12, 'Use at least 12 characters.').max(256, 'Use at most 256 characters.')
 	})
 	.strict();
@@ -21,7 +21,7 @@ export const newUserSchema = z
 export const updateUserSchema = z
 	.object({
 		role: z.enum(roles, { error: 'Choose one of the four roles.' }),
-		labIds: z.array(z.uuid({ error: 'Unknown lab.' })).max(50).default([]),
+		labIds: z.array(z.uuid({ error: 'Unknown lab.' })).max(50).refine((ids) => new Set(ids).size === ids.length, 'Each lab can be chosen once.').default([]),
 		disabled: z.boolean().default(false),
 		version: z.coerce.number().int().positive()
 	})

@@ -63,6 +63,7 @@ export async function create(actorId: string, form: LimitForm): Promise<{ ok: tr
 
 /** A new version; `form.version` must be the version the officer was looking at. */
 export async function revise(actorId: string, limitId: string, form: LimitForm): Promise<{ ok: true; version: number; staleMarked: number } | Failure> {
+	if (!isUuid(limitId)) return notFound('limit');
 	const values = limitToSI(form);
 	const out = await db.transaction(async (tx) => {
 		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
@@ -92,6 +93,7 @@ export async function revise(actorId: string, limitId: string, form: LimitForm):
 }
 
 export async function retire(actorId: string, limitId: string, version: number): Promise<{ ok: true; staleMarked: number } | Failure> {
+	if (!isUuid(limitId)) return notFound('limit');
 	const out = await db.transaction(async (tx) => {
 		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
 		if (!found.length) return notFound('limit');

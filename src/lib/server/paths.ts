@@ -86,12 +86,22 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 	if (!laserRow) return notFound('laser');
 	if (!canRead(scope, laserRow.labId)) return notYours('laser');
 	if (!canEdit(scope, laserRow.labId) || laserRow.status === 'retired') return notYours('laser');
-	const [line] = await db.select().from(table.emissionLine).where(and(eq(table.emissionLine.id, form.lineId), eq(table.emissionLine.laserId, laserId)));
-	if (!line) return fieldsNeedAttention({ lineId: 'Choose one of this laser’s emission lines.' });
 	const si = pathToSI(form);
 	if (!si.ok) return fieldsNeedAttention(si.errors);
+	if (pathId !== null && !isUuid(pathId)) return notFound('beam path');
 
 	return db.transaction(async (tx) => {
+		// Locks in the order a line edit takes them (line, then its paths): the line is read under a
+		// share lock, so an edit of it cannot commit between this read and the snapshot (which would
+		// leave the path looking current); the path row is locked before its review state is read, so
+		// a decision committed meanwhile is seen, never overwritten.
+		const [line] = await tx
+			.select()
+			.from(table.emissionLine)
+			.where(and(eq(table.emissionLine.id, form.lineId), eq(table.emissionLine.laserId, laserId)))
+			.for('share');
+		if (!line) return fieldsNeedAttention({ lineId: 'Choose one of this laser’s emission lines.' });
+		if (pathId !== null) await tx.select({ id: table.beamPath.id }).from(table.beamPath).where(eq(table.beamPath.id, pathId)).for('update');
 		const limits = await currentLimits(tx);
 		const { input, outcome } = evaluate({ line, ...si.value }, limits);
 		if (!outcome.ok) {
@@ -112,6 +122,8 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		let id: string;
 		let version: number;
 		let previous: table.BeamPath;
+		// Point ids kept from the form: only ids of this path's own points (never another path's).
+		let ownPointIds = new Set<string>();
 		const status = { verdict: result.verdict, flagged: needsReview(result.verdict), stale: false, updatedBy: scope.userId, updatedAt: now };
 		const common = { lineId: line.id, name: form.name, purpose: form.purpose, nohdExposureDuration: si.value.nohdExposureDuration, ...status };
 		if (pathId === null) {
@@ -120,9 +132,9 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			version = created.version;
 			previous = created;
 		} else {
-			if (!isUuid(pathId)) return notFound('beam path');
 			const old = await loadPath(pathId, tx);
 			if (!old || old.path.laserId !== laserId) return notFound('beam path');
+			ownPointIds = new Set(old.points.map((p) => p.id));
 			before = { path: old.path, elements: old.elements.map(elementFromRow), points: old.points.map(pointFromRow) };
 			const [updated] = await tx
 				.update(table.beamPath)
@@ -138,10 +150,10 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		}
 		if (si.value.elements.length)
 			await tx.insert(table.pathElement).values(si.value.elements.map((e, i) => ({ pathId: id, sequence: i, ...e, label: e.label })));
-		const keptIds = si.value.points.map((p) => (isUuid(p.key) ? p.key : null));
+		const keptIds = si.value.points.map((p) => (ownPointIds.delete(p.key) ? p.key : null)); // each id once
 		const pointRows = await tx
 			.insert(table.pointOfConcern)
-			.values(si.value.points.map((p, i) => ({ ...(keptIds[i] && pathId ? { id: keptIds[i]! } : {}), pathId: id, sequence: i, label: p.label, kind: p.kind, tissue: p.tissue, position: p.position!, exposureDuration: p.exposureDuration, reflectance: p.reflectance, viewingAngle: p.viewingAngle, viewingDistance: p.viewingDistance })))
+			.values(si.value.points.map((p, i) => ({ ...(keptIds[i] ? { id: keptIds[i]! } : {}), pathId: id, sequence: i, label: p.label, kind: p.kind, tissue: p.tissue, position: p.position!, exposureDuration: p.exposureDuration, reflectance: p.reflectance, viewingAngle: p.viewingAngle, viewingDistance: p.viewingDistance })))
 			.returning({ id: table.pointOfConcern.id });
 		await tx.insert(table.assessment).values({
 			pathId: id,
