@@ -220,3 +220,13 @@ export const demoInspections: { area: string; interval: number; lastDoneDaysAgo:
 	{ area: 'Pulse Hall K0.02', interval: 6, lastDoneDaysAgo: 200, dueInDays: -17 },
 	{ area: 'Processing bay K0.11', interval: 12, lastDoneDaysAgo: 120, dueInDays: 245 }
 ];
+
+/** Training records of the demo people, dated relative to the day the demo is loaded (invented). */
+export const demoTraining: { person: string; topic: string; completedDaysAgo: number; validDays: number | null; notes: string }[] = [
+	{ person: 'priya.raman@northgate.example', topic: 'Laser safety induction', completedDaysAgo: 345, validDays: 365, notes: 'Centre induction, half day.' },
+	{ person: 'priya.raman@northgate.example', topic: 'Authorised user, Class 4, Ultrafast LCA M2.14', completedDaysAgo: 200, validDays: 730, notes: '' },
+	{ person: 'tomas.weir@northgate.example', topic: 'Laser safety induction', completedDaysAgo: 370, validDays: 365, notes: 'Renewal booked.' },
+	{ person: 'tomas.weir@northgate.example', topic: 'Authorised user, Class 4, Pulse Hall K0.02', completedDaysAgo: 90, validDays: 730, notes: '' },
+	{ person: 'helen.achter@northgate.example', topic: 'Laser safety officer course', completedDaysAgo: 500, validDays: null, notes: 'Five-day course with examination.' },
+	{ person: 'ines.varga@northgate.example', topic: 'Laser safety officer course', completedDaysAgo: 120, validDays: null, notes: '' }
+];

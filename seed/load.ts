@@ -9,8 +9,9 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
-import { demoAreas, demoChecklist, demoClearance, demoEyewear, demoInspections, demoLabs, demoLasers, demoLimits, demoUsers } from './demo';
+import { demoAreas, demoChecklist, demoClearance, demoEyewear, demoInspections, demoLabs, demoLasers, demoLimits, demoTraining, demoUsers } from './demo';
 import * as inspections from '$lib/server/inspections';
+import * as training from '$lib/server/training';
 import { addDays, format } from 'date-fns';
 import { createHash } from 'node:crypto';
 import { png } from './png';
@@ -134,6 +135,17 @@ async function loadInspections(officerId: string) {
 	}
 }
 
+async function loadTraining(officerId: string) {
+	const [any] = await db.select({ id: table.trainingRecord.id }).from(table.trainingRecord).limit(1);
+	if (any) return;
+	const day = (offset: number) => format(addDays(new Date(), offset), 'yyyy-MM-dd');
+	for (const t of demoTraining) {
+		const person = await userByEmail(t.person);
+		const result = await training.record(officerId, { userId: person.id, topic: t.topic, completedOn: day(-t.completedDaysAgo), expiresOn: t.validDays === null ? '' : day(t.validDays - t.completedDaysAgo), notes: t.notes }, day(0));
+		if (!result.ok) throw new Error(`demo training: ${JSON.stringify(result)}`);
+	}
+}
+
 export async function loadDemo(): Promise<{ labs: number; users: number; limits: number; lasers: number }> {
 	const people = await loadPeople();
 	const officer = await userByEmail(demoUsers.find((u) => u.role === 'officer')!.email);
@@ -143,6 +155,7 @@ export async function loadDemo(): Promise<{ labs: number; users: number; limits:
 	await paths.reassessStale(1000);
 	await loadEyewearAndClearance(officer.id);
 	await loadInspections(officer.id);
+	await loadTraining(officer.id);
 	return { ...people, limits: limitCount, lasers: laserCount };
 }
 

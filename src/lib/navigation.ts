@@ -9,6 +9,7 @@ export const navigation: NavItem[] = [
 	{ href: '/reviews', label: 'Review desk', icon: 'scale' },
 	{ href: '/inspections', label: 'Inspection rota', icon: 'calendar' },
 	{ href: '/eyewear', label: 'Eyewear store', icon: 'eye' },
+	{ href: '/training', label: 'Training', icon: 'badge' },
 	{ href: '/limits', label: 'Limit library', icon: 'list' },
 	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: ['admin'] },
 	{ href: '/admin/mail', label: 'Sent mail', icon: 'list', roles: ['admin'] }

@@ -38,6 +38,15 @@ export const inspectionWords: Record<string, StateWord> = {
 	done: { word: 'done', icon: 'ok', tone: 'calm', hint: 'Recorded as done.' }
 };
 
+export const trainingWords: Record<string, StateWord> = {
+	current: { word: 'current', icon: 'ok', tone: 'calm', hint: 'Valid for more than 30 days.' },
+	expires_soon: { word: 'expires soon', icon: 'clock', tone: 'caution', hint: 'Expires within 30 days.' },
+	expired: { word: 'expired', icon: 'alert', tone: 'alert', hint: 'Past its expiry date: renew it.' },
+	no_expiry: { word: 'no expiry', icon: 'ok', tone: 'quiet', hint: 'Recorded without an expiry date.' },
+	renewed: { word: 'renewed', icon: 'ok', tone: 'quiet', hint: 'A later record of the same training replaces it.' },
+	withdrawn: { word: 'withdrawn', icon: 'list', tone: 'quiet', hint: 'Withdrawn by an officer; kept for the record.' }
+};
+
 export const laserStatusWords: Record<string, string> = { active: 'in use', in_storage: 'in storage', retired: 'retired' };
 export const modeWords: Record<string, string> = { continuous: 'continuous', single_pulse: 'single pulse', repetitive: 'repetitively pulsed' };
 export const elementWords: Record<string, string> = {

@@ -2,13 +2,13 @@
 // given day and puts them in the mail ledger; it never sends (outbox.deliver does). Because the
 // ledger key is (kind, record, due key, step, recipient), running it again, late, or in two
 // processes at once adds nothing that is already there.
-import { and, eq, gte, inArray, isNotNull, isNull, lt, lte, notExists, or, sql } from 'drizzle-orm';
+import { aliasedTable, and, eq, gt, gte, inArray, isNotNull, isNull, lt, lte, notExists, or, sql } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import { readMailConfig } from '$lib/server/mail/config';
 import * as outbox from '$lib/server/mail/outbox';
 import type { MailInput } from '$lib/server/mail/outbox';
-import { inspectionStep, reviewWaitStep, shiftDay, startOfUtcDay, toIsoDay } from '$lib/server/mail/schedule';
+import { inspectionStep, reviewWaitStep, shiftDay, startOfUtcDay, toIsoDay, trainingStep } from '$lib/server/mail/schedule';
 import * as templates from '$lib/server/mail/templates';
 
 /** In-app notifications younger than this are mailed; older ones are history, not news. */
@@ -19,6 +19,8 @@ export type DailyCounts = {
 	inspectionDue: number;
 	inspectionOverdue: number;
 	reviewWaiting: number;
+	trainingExpiring: number;
+	trainingExpired: number;
 	notifications: number;
 	/** Of the new rows, how many wait for a digest. */
 	held: number;
@@ -136,6 +138,50 @@ export async function reviewWaitingMails(today: string, appUrl: string): Promise
 	return mails;
 }
 
+/**
+ * Training records expiring within 30 days (to the person) or expired in the last seven days (to the
+ * person and every officer). A record renewed by a later one of the same topic is not reminded.
+ */
+export async function trainingMails(today: string, appUrl: string): Promise<MailInput[]> {
+	const t = table.trainingRecord;
+	const later = aliasedTable(t, 'later');
+	const rows = await db
+		.select({ id: t.id, userId: t.userId, topic: t.topic, completedOn: t.completedOn, expiresOn: t.expiresOn })
+		.from(t)
+		.where(
+			and(
+				isNull(t.withdrawnAt),
+				isNotNull(t.expiresOn),
+				gte(t.expiresOn, shiftDay(today, -7)),
+				lte(t.expiresOn, shiftDay(today, 30)),
+				notExists(
+					db
+						.select({ one: sql`1` })
+						.from(later)
+						.where(and(eq(later.userId, t.userId), sql`lower(${later.topic}) = lower(${t.topic})`, isNull(later.withdrawnAt), gt(later.completedOn, t.completedOn)))
+				)
+			)
+		);
+	if (rows.length === 0) return [];
+	const people = await activeUsers({ ids: [...new Set(rows.map((r) => r.userId))], roles: ['officer'] });
+	const byId = new Map(people.map((p) => [p.id, p]));
+	const officers = people.filter((p) => p.role === 'officer');
+	const mails: MailInput[] = [];
+	for (const r of rows) {
+		const step = trainingStep(r.expiresOn!, today);
+		const person = byId.get(r.userId);
+		if (!step || !person) continue; // a disabled account is not reminded
+		const to = new Recipients();
+		to.add(person, 'This is your own training record.');
+		if (step.kind === 'training.expired') for (const o of officers) to.add(o, 'You are a laser safety officer: an expired training or authorisation is passed on to you.');
+		for (const { person: recipient, reason } of to.list()) {
+			const body = templates.trainingReminder({ appUrl, personName: person.name, topic: r.topic, completedOn: r.completedOn, expiresOn: r.expiresOn!, daysUntil: step.daysUntil, reason });
+			mails.push({ kind: step.kind, recordId: r.id, dueKey: r.expiresOn!, step: step.kind === 'training.expiring' ? 'before' : 'after', recipientId: recipient.id, recipientEmail: recipient.email, ...mailBody(body), reason });
+		}
+	}
+	return mails;
+}
+
 /** One mail per in-app notification created in [from, to). */
 export async function notificationMailsBetween(from: Date, to: Date, appUrl: string): Promise<MailInput[]> {
 	const n = table.notification;
@@ -189,6 +235,9 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 	const due = await enqueueAll(inspections.filter((m) => m.kind === 'inspection.due'));
 	const overdue = await enqueueAll(inspections.filter((m) => m.kind === 'inspection.overdue'));
 	const reviews = await enqueueAll(await reviewWaitingMails(day, appUrl));
+	const trainings = await trainingMails(day, appUrl);
+	const expiring = await enqueueAll(trainings.filter((m) => m.kind === 'training.expiring'));
+	const expired = await enqueueAll(trainings.filter((m) => m.kind === 'training.expired'));
 	const start = startOfUtcDay(shiftDay(day, -NOTIFICATION_WINDOW_DAYS));
 	const notes = await enqueueAll(await notificationMailsBetween(start, startOfUtcDay(shiftDay(day, 1)), appUrl));
 	const digests = await outbox.assembleDigests(day);
@@ -198,8 +247,10 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 		inspectionDue: due.inserted,
 		inspectionOverdue: overdue.inserted,
 		reviewWaiting: reviews.inserted,
+		trainingExpiring: expiring.inserted,
+		trainingExpired: expired.inserted,
 		notifications: notes.inserted,
-		held: due.held + overdue.held + reviews.held + notes.held,
+		held: due.held + overdue.held + reviews.held + expiring.held + expired.held + notes.held,
 		digests: digests.digests,
 		digestItems: digests.items
 	};

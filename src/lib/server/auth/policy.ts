@@ -40,6 +40,7 @@ export const routePolicy: Record<string, RouteRule> = {
 	'/(app)/inspections/export.csv': { read: ['manager', 'officer', 'admin'], write: nobody },
 	'/(app)/documents/[documentId]': { read: everyone, write: nobody },
 	'/(app)/eyewear': { read: everyone, write: nobody },
+	'/(app)/training': { read: everyone, write: officers },
 	'/(app)/eyewear/new': { read: officers, write: officers },
 	'/(app)/eyewear/[eyewearId]': { read: officers, write: officers },
 	'/(app)/limits': { read: everyone, write: nobody },

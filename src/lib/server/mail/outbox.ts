@@ -14,7 +14,7 @@ import { toIsoDay } from './schedule';
 import * as templates from './templates';
 import { createSender, describeError, isConnectionError, type MailSender } from './transport';
 
-export const mailKinds = ['inspection.due', 'inspection.overdue', 'review.waiting', 'notification', 'digest', 'password.reset'] as const;
+export const mailKinds = ['inspection.due', 'inspection.overdue', 'review.waiting', 'training.expiring', 'training.expired', 'notification', 'digest', 'password.reset'] as const;
 export type MailKind = (typeof mailKinds)[number];
 
 /** Kinds that go out on their own even for digest readers. */

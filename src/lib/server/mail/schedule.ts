@@ -64,3 +64,15 @@ export function reviewWaitStep(awaitingSinceDay: string, today: string): { step:
 	if (daysWaiting <= REVIEW_WAIT_DAYS) return null;
 	return { step: String(Math.floor((daysWaiting - 1) / REVIEW_WAIT_DAYS)), daysWaiting };
 }
+
+/**
+ * The one reminder a training record is in for, on `today` (a record is valid up to and including
+ * its expiry day):
+ *   expiring   in the 30 days up to and including the expiry day (one mail)
+ *   expired    in the seven days after it (one mail, catch-up), officers told as well
+ */
+export function trainingStep(expiresOn: string, today: string): { kind: 'training.expiring' | 'training.expired'; daysUntil: number } | null {
+	const daysUntil = daysBetween(today, expiresOn);
+	if (daysUntil > 30 || daysUntil < -7) return null;
+	return { kind: daysUntil >= 0 ? 'training.expiring' : 'training.expired', daysUntil };
+}

@@ -193,6 +193,39 @@ export function inspectionOverdue(i: InspectionOverdueInput): Rendered {
 // ---------------------------------------------------------------------------------------------
 // Reviews
 
+export type TrainingInput = {
+	appUrl: string;
+	personName: string;
+	topic: string;
+	completedOn: string;
+	expiresOn: string;
+	daysUntil: number;
+	reason: string;
+};
+
+export function trainingReminder(i: TrainingInput): Rendered {
+	const d = i.daysUntil;
+	const expired = d < 0;
+	const when = expired ? `expired on ${longDate(i.expiresOn)}` : d === 0 ? 'expires today' : `expires in ${plural(d, 'day')}`;
+	return render(`Training ${when}: ${i.topic} (${i.personName})`, {
+		appUrl: i.appUrl,
+		heading: `Training ${when}`,
+		paragraphs: [
+			expired
+				? `The record “${i.topic}” of ${i.personName} expired on ${longDate(i.expiresOn)}. Until it is renewed, the work it covers should not go on; the laser safety officer decides.`
+				: `The record “${i.topic}” of ${i.personName} is valid until ${longDate(i.expiresOn)}. Please arrange the renewal with the laser safety officer in good time.`
+		],
+		facts: [
+			['Person', i.personName],
+			['Training or authorisation', i.topic],
+			['Completed', longDate(i.completedOn)],
+			['Valid until', longDate(i.expiresOn)]
+		],
+		action: { label: 'Open the training records', url: link(i.appUrl, 'training') },
+		reason: i.reason
+	});
+}
+
 export type ReviewWaitingInput = {
 	appUrl: string;
 	pathId: string;

@@ -5,3 +5,4 @@ export * from './register';
 export * from './limits';
 export * from './reviews';
 export * from './inspections';
+export * from './training';
