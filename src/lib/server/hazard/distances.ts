@@ -150,7 +150,7 @@ export function hazardDistance(ctx: PointContext, exposureDuration: Decimal | nu
 		const t = deciding.plan.duration!;
 		const lim = limitForPlan(deciding.limit, deciding.plan, t, w, `${prefix}.limit`);
 		if (deciding.plan.measure !== deciding.limit.quantity) {
-			w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? 'EL_E = EL_H / T' : 'EL_H = EL_E·τ', [['EL', (lim.valueText ??= fmt(lim.value)), MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, (deciding.plan.durationText ??= fmt(t)), 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
+			w.add(`${prefix}.limit-measure`, 'Limit in the measure of the source', deciding.plan.measure === 'irradiance' ? `EL_E = EL_H / ${deciding.plan.durationSymbol}` : `EL_H = EL_E·${deciding.plan.durationSymbol}`, [['EL', (lim.valueText ??= fmt(lim.value)), MEASURE_UNIT[deciding.limit.quantity]], [deciding.plan.durationSymbol, (deciding.plan.durationText ??= fmt(t)), 's']], deciding.el, MEASURE_UNIT[deciding.plan.measure]);
 		}
 		w.add(`${prefix}.critical-diameter`, 'Diameter at which the exposure equals the limit', `D_c = √(4·${deciding.plan.pointSymbol} / (π·EL))`, dcInputs, decidingWritten.criticalDiameter, 'm');
 	}

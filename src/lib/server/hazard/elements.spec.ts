@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { Dec, PI } from './constants';
 import { diameterAt } from './beam';
-import { beamsAt, enclosureAt, focalSpotDiameter, walkPath } from './elements';
+import { beamsAt, enclosureAt, FIBRE_MODEL_NOTE, focalSpotDiameter, walkPath } from './elements';
 import { assess } from './assess';
 import { cwLine, eyePoint, scenario } from './fixtures';
 import { validate, type NormInput } from './validate';
@@ -103,6 +103,16 @@ describe('path elements', () => {
 		expect(diameterAt(out.state, new Dec(0)).toString()).toBe('0.00005');
 		expect(out.state.divergence.minus(new Dec('0.22').asin().times(2)).abs().lt('1e-15')).toBe(true);
 		expect(out.transmission.toString()).toBe('0.8');
+	});
+
+	it('every point fed by a fibre output says how the fibre was modelled, also past later elements', () => {
+		const elements: ElementInput[] = [{ kind: 'propagate', length: '1' }, { kind: 'fibre', coreDiameter: '8e-6', numericalAperture: '0.14' }, { kind: 'propagate', length: '1' }, { kind: 'mirror' }, { kind: 'propagate', length: '1' }];
+		const out = assess(scenario({ points: [eyePoint('before', '0.5'), eyePoint('after', '1.5'), eyePoint('past-mirror', '2.5')] }, elements));
+		if (!out.ok) throw new Error(JSON.stringify(out.errors));
+		const note = (id: string) => out.result.points.find((p) => p.id === id)!.breakdown.find((b) => b.id === 'diameter')!.note ?? '';
+		expect(note('before')).not.toContain('single-mode');
+		expect(note('after')).toContain(FIBRE_MODEL_NOTE);
+		expect(note('past-mirror')).toContain(FIBRE_MODEL_NOTE);
 	});
 
 	it('offers both sides of a zero-length element to a point placed on it, and the worse side is used', () => {

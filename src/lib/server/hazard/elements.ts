@@ -21,7 +21,8 @@
  *    whenever the focus is a real focus (d₀ ≪ D_lens).
  *  • fibre (core diameter, numerical aperture NA): the output beam starts at the fibre end with
  *    diameter = core diameter and full divergence 2·asin(NA); both are taken as 1/e values. The
- *    optional coupling transmission multiplies the power.
+ *    optional coupling transmission multiplies the power. Right for a filled multimode fibre; for a
+ *    single-mode fibre it understates the exposure, which every later point says (FIBRE_MODEL_NOTE).
  *  • enclosure (length L): propagates like free space; points strictly inside it are not
  *    accessible. Points on its entry or exit plane are accessible (the conservative reading).
  */
@@ -46,7 +47,18 @@ export interface BeamSnapshot {
 	afterElement: number | null;
 	/** The breakdown's formula for `transmission`, formed when first needed. */
 	transmissionFormula?: string;
+	/** A caution about how the beam was modelled, carried to every later beam (fibre output). */
+	modelNote?: string;
 }
+
+/**
+ * The fibre model fills the core and the NA cone. A single-mode fibre's mode is wider than its core
+ * and spreads far less than its NA, so its real exposure can be several times higher (about 4× in
+ * the far field for a typical telecom fibre); an NA quoted at the 5 % points also overstates the 1/e
+ * angle. Said wherever such a beam is used.
+ */
+export const FIBRE_MODEL_NOTE =
+	'Fibre output modelled as filling its core and its NA cone (1/e). For a single-mode fibre, or an NA quoted at 5 % of the peak, the real beam spreads less and the exposure can be several times higher: describe such an output as a beam with its mode-field diameter and divergence instead.';
 
 export interface EnclosedStretch {
 	index: number;
@@ -90,7 +102,8 @@ function nextSnapshot(current: BeamSnapshot, z: Decimal, index: number, state: B
 		// The first factor is the transmission itself (1 × T = T).
 		transmission: factor ? (current.factors.length === 0 ? factor.value : current.transmission.times(factor.value)) : current.transmission,
 		factors: factor ? [...current.factors, { index, symbol: factor.symbol, value: factor.value }] : current.factors,
-		afterElement: index
+		afterElement: index,
+		modelNote: current.modelNote
 	};
 }
 
@@ -153,6 +166,7 @@ export function walkPath(line: NormLine, elements: NormElement[]): PathModel {
 			case 'fibre': {
 				const divergence = TWO.times(asin(e.numericalAperture));
 				current = nextSnapshot(current, z, e.index, stateOf(e.coreDiameter, z, divergence), { symbol: `T${subscript(e.index)}`, value: e.factor });
+				current.modelNote = FIBRE_MODEL_NOTE;
 				snapshots.push(current);
 				break;
 			}

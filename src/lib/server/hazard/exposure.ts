@@ -334,7 +334,7 @@ function evaluateWithBeam(ctx: PointContext, point: NormPoint, beam: BeamSnapsho
 	let exactD: Decimal | null = roughText ? null : D;
 	const zText = fmt(z);
 	const divergenceText = fmt(s.divergence);
-	if (w.enabled) w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', divergenceText, 'rad'], ['z', zText, 'm'], ['z_w', s.waistPosition, 'm']], dText, 'm', beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`);
+	if (w.enabled) w.add('diameter', 'Beam diameter at the point (1/e)', 'D = √(D_w² + (φ·(z − z_w))²)', [['D_w', s.waistDiameter, 'm'], ['φ', divergenceText, 'rad'], ['z', zText, 'm'], ['z_w', s.waistPosition, 'm']], dText, 'm', (beam.afterElement === null ? 'Beam as it leaves the aperture.' : `Beam after element ${beam.afterElement}.`) + (beam.modelNote ? ` ${beam.modelNote}` : ''));
 
 	// T_path = 1 exactly when no element attenuates: the source itself reaches the point.
 	const powerAtPoint = line.averagePower ? (unattenuated ? line.averagePower : tPath.times(line.averagePower)) : null;
