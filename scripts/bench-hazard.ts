@@ -68,34 +68,56 @@ function registerOf(n: number, seed: number): AssessmentInput[] {
 const WAVELENGTHS = ['405e-9', '532e-9', '800e-9', '1064e-9', '1550e-9', '10.6e-6'];
 const DEFS = ['1/e', '1/e2', 'fwhm'] as const;
 
+// Inputs are built as the product builds them (src/lib/server/assessments.ts: lineInput,
+// elementInput, pointInput, limitInput): one object literal per kind, every field present (null
+// when absent), so the engine sees the object shapes it sees in production.
+type LimitFields = Pick<LimitInput, 'id' | 'label' | 'tissue' | 'durationMin' | 'durationMax' | 'quantity' | 'k' | 'n' | 'limitingAperture' | 'pulseBasis'> & { version: number; pulseTrainExponent?: string };
+const limit = (l: LimitFields): LimitInput => ({
+	id: l.id,
+	version: String(l.version),
+	label: l.label,
+	tissue: l.tissue,
+	wavelengthMin: '1.8e-7',
+	wavelengthMax: '1e-3',
+	durationMin: l.durationMin,
+	durationMax: l.durationMax,
+	quantity: l.quantity,
+	k: l.k,
+	n: l.n,
+	limitingAperture: l.limitingAperture,
+	pulseBasis: l.pulseBasis,
+	pulseTrainExponent: l.pulseTrainExponent ?? null,
+	citation: 'synthetic benchmark data'
+});
+
 function limitsFor(wl: string, mode: string): LimitInput[] {
 	// Invented synthetic limits: shaped like real ones (k·tⁿ), values are not from any code.
-	const base = { wavelengthMin: '1.8e-7', wavelengthMax: '1e-3', citation: 'synthetic benchmark data' };
-	const eyeCw: LimitInput = { ...base, id: `eye-cw-${wl}`, version: 1, label: 'eye continuous', tissue: 'eye', durationMin: '1e-6', durationMax: '3e4', quantity: 'radiant_exposure', k: '18', n: '0.75', limitingAperture: '7e-3', pulseBasis: 'continuous' };
-	const eyeSp: LimitInput = { ...base, id: `eye-sp-${wl}`, version: 2, label: 'eye single pulse', tissue: 'eye', durationMin: '1e-13', durationMax: '1e-3', quantity: 'radiant_exposure', k: '0.05', n: '0', limitingAperture: '7e-3', pulseBasis: 'single_pulse', pulseTrainExponent: '-0.25' };
-	const skin: LimitInput = { ...base, id: `skin-${mode}`, version: 1, label: 'skin', tissue: 'skin', durationMin: '1e-13', durationMax: '3e4', quantity: mode === 'continuous' ? 'irradiance' : 'radiant_exposure', k: mode === 'continuous' ? '2000' : '200', n: mode === 'continuous' ? '0' : '0.25', limitingAperture: '3.5e-3', pulseBasis: mode === 'continuous' ? 'continuous' : 'single_pulse' };
-	const eyeCw2: LimitInput = { ...eyeCw, id: `eye-cw-irr-${wl}`, quantity: 'irradiance', k: '10', n: '0', durationMin: '10', durationMax: '3e4', limitingAperture: '1e-3' };
+	const eyeCw = limit({ id: `eye-cw-${wl}`, version: 1, label: 'eye continuous', tissue: 'eye', durationMin: '1e-6', durationMax: '3e4', quantity: 'radiant_exposure', k: '18', n: '0.75', limitingAperture: '7e-3', pulseBasis: 'continuous' });
+	const eyeSp = limit({ id: `eye-sp-${wl}`, version: 2, label: 'eye single pulse', tissue: 'eye', durationMin: '1e-13', durationMax: '1e-3', quantity: 'radiant_exposure', k: '0.05', n: '0', limitingAperture: '7e-3', pulseBasis: 'single_pulse', pulseTrainExponent: '-0.25' });
+	const skin = limit({ id: `skin-${mode}`, version: 1, label: 'skin', tissue: 'skin', durationMin: '1e-13', durationMax: '3e4', quantity: mode === 'continuous' ? 'irradiance' : 'radiant_exposure', k: mode === 'continuous' ? '2000' : '200', n: mode === 'continuous' ? '0' : '0.25', limitingAperture: '3.5e-3', pulseBasis: mode === 'continuous' ? 'continuous' : 'single_pulse' });
+	const eyeCw2 = limit({ id: `eye-cw-irr-${wl}`, version: 1, label: 'eye continuous', tissue: 'eye', durationMin: '10', durationMax: '3e4', quantity: 'irradiance', k: '10', n: '0', limitingAperture: '1e-3', pulseBasis: 'continuous' });
 	return mode === 'continuous' ? [eyeCw, eyeCw2, skin] : [eyeSp, eyeCw, skin];
 }
 
 function makePath(i: number): AssessmentInput {
 	const mode = pick(['continuous', 'continuous', 'single_pulse', 'repetitive', 'repetitive'] as const);
 	const wl = pick(WAVELENGTHS);
-	const line: AssessmentInput['line'] = {
-		wavelength: wl,
-		mode,
-		beamDiameter: logU(0.5e-3, 10e-3),
-		beamDiameterDefinition: pick(DEFS),
-		divergence: rnd() < 0.05 ? '0' : logU(0.1e-3, 5e-3),
-		divergenceDefinition: pick(DEFS),
-		beamQuality: (1 + rnd()).toFixed(2)
-	};
-	if (mode === 'continuous') line.power = logU(1e-3, 100);
+	const beamDiameter = logU(0.5e-3, 10e-3);
+	const beamDiameterDefinition = pick(DEFS);
+	const divergence = rnd() < 0.05 ? '0' : logU(0.1e-3, 5e-3);
+	const divergenceDefinition = pick(DEFS);
+	const beamQuality = (1 + rnd()).toFixed(2);
+	let power: string | null = null;
+	let pulseEnergy: string | null = null;
+	let pulseDuration: string | null = null;
+	let repetitionRate: string | null = null;
+	if (mode === 'continuous') power = logU(1e-3, 100);
 	else {
-		line.pulseEnergy = logU(1e-6, 1);
-		line.pulseDuration = logU(30e-15, 1e-6);
-		if (mode === 'repetitive') line.repetitionRate = pick(['10', '1000', '80e6'].filter((f) => Number(line.pulseDuration) * Number(f) < 0.5));
+		pulseEnergy = logU(1e-6, 1);
+		pulseDuration = logU(30e-15, 1e-6);
+		if (mode === 'repetitive') repetitionRate = pick(['10', '1000', '80e6'].filter((f) => Number(pulseDuration) * Number(f) < 0.5));
 	}
+	const line: AssessmentInput['line'] = { mode, wavelength: wl, power, pulseEnergy, pulseDuration, repetitionRate, beamDiameter, beamDiameterDefinition, divergence, divergenceDefinition, beamQuality };
 	const elements: ElementInput[] = [];
 	let length = 0;
 	const nEl = 2 + Math.floor(rnd() * 4);
@@ -104,31 +126,29 @@ function makePath(i: number): AssessmentInput {
 		if (r < 0.35) {
 			const L = Number(logU(0.1, 5));
 			length += L;
-			elements.push({ kind: 'propagate', length: String(L) });
+			elements.push({ kind: 'propagate', length: String(L), label: null });
 		} else if (r < 0.5) elements.push({ kind: 'transmission', transmission: rnd().toFixed(3), label: 'attenuator' });
-		else if (r < 0.65) elements.push({ kind: 'mirror', reflectance: (0.9 + rnd() / 10).toFixed(3) });
-		else if (r < 0.75) elements.push({ kind: 'expander', magnification: pick(['0.5', '2', '3', '5']) });
-		else if (r < 0.82) elements.push({ kind: 'lens', focalLength: pick(['0.05', '0.1', '0.25', '0.5']) });
+		else if (r < 0.65) elements.push({ kind: 'mirror', reflectance: (0.9 + rnd() / 10).toFixed(3), label: null });
+		else if (r < 0.75) elements.push({ kind: 'expander', magnification: pick(['0.5', '2', '3', '5']), label: null });
+		else if (r < 0.82) elements.push({ kind: 'lens', focalLength: pick(['0.05', '0.1', '0.25', '0.5']), label: null });
 		else {
 			const L = Number(logU(0.2, 2));
 			length += L;
-			elements.push({ kind: 'enclosure', length: String(L) });
+			elements.push({ kind: 'enclosure', length: String(L), label: null });
 		}
 	}
-	elements.push({ kind: 'propagate', length: '2' });
+	elements.push({ kind: 'propagate', length: '2', label: null });
 	length += 2;
 	const points: PointInput[] = [];
 	for (let p = 0; p < 4; p++) {
 		const z = (rnd() * length).toFixed(3);
 		const diffuse = rnd() < 0.25;
-		points.push({
-			id: `p${p}`,
-			position: z,
-			tissue: rnd() < 0.8 ? 'eye' : 'skin',
-			exposureDuration: pick(['0.25', '10', '100', '30000']),
-			kind: diffuse ? 'diffuse' : 'intrabeam',
-			...(diffuse ? { reflectance: rnd().toFixed(2), viewingAngle: (rnd() * 1.2).toFixed(3), viewingDistance: logU(0.2, 3) } : {})
-		});
+		const tissue = rnd() < 0.8 ? 'eye' : 'skin';
+		const exposureDuration = pick(['0.25', '10', '100', '30000']);
+		const reflectance = diffuse ? rnd().toFixed(2) : null;
+		const viewingAngle = diffuse ? (rnd() * 1.2).toFixed(3) : null;
+		const viewingDistance = diffuse ? logU(0.2, 3) : null;
+		points.push({ id: `p${p}`, label: `point ${p}`, position: z, tissue, exposureDuration, kind: diffuse ? 'diffuse' : 'intrabeam', reflectance, viewingAngle, viewingDistance });
 	}
 	return { line, elements, points, limits: limitsFor(wl, mode), nohd: { exposureDuration: i % 2 ? '0.25' : '10' } };
 }
