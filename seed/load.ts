@@ -104,7 +104,7 @@ async function loadEyewearAndClearance(officerId: string) {
 	const [path] = await db.select().from(table.beamPath).where(eq(table.beamPath.name, demoClearance.path));
 	if (path && path.reviewState === 'awaiting_review') {
 		const [latest] = await db.select().from(table.assessment).where(eq(table.assessment.pathId, path.id)).orderBy(desc(table.assessment.createdAt)).limit(1);
-		const r = await reviews.decide(scope, path.id, { assessmentId: latest.id, decision: 'cleared', comments: demoClearance.comments, reviewBy: '2027-06-30', controls: demoClearance.controls });
+		const r = await reviews.decide(scope, path.id, { assessmentId: latest.id, afterDecisionId: '', decision: 'cleared', comments: demoClearance.comments, reviewBy: '2027-06-30', controls: demoClearance.controls });
 		if (!r.ok) throw new Error(`demo clearance: ${JSON.stringify(r)}`);
 	}
 }

@@ -5,6 +5,7 @@ import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import { hashPassword, passwordProblem, verifyPassword } from '$lib/server/auth/password';
 import * as auth from '$lib/server/auth/session';
+import * as passwordResets from '$lib/server/passwordResets';
 import * as users from '$lib/server/users';
 import { makeLab, makeUser } from './factories';
 
@@ -172,5 +173,37 @@ describe('people, labs and the audit log', () => {
 		expect(await denied(db.execute(sql`DELETE FROM audit_log WHERE entity_id = ${u.id}`))).toBe('42501');
 		expect(await denied(db.execute(sql`TRUNCATE audit_log`))).toBe('42501');
 		expect(await db.$count(table.auditLog, eq(table.auditLog.entityId, u.id))).toBe(1);
+	});
+});
+
+describe('the last active administrator', () => {
+	it('cannot be demoted or disabled, so the register never loses its administration', async () => {
+		const a = await makeUser('admin');
+		const b = await makeUser('admin');
+		// Only a and b are active administrators from here on (files run one after another).
+		await db.execute(sql`UPDATE "user" SET disabled = true WHERE role = 'admin' AND id NOT IN (${a.id}, ${b.id})`);
+		const version = async (id: string) => (await users.find(id))!.version;
+		expect((await users.update(a.id, b.id, { role: 'admin', labIds: [], disabled: true, version: await version(b.id) })).ok).toBe(true);
+		const demote = await users.update(b.id, a.id, { role: 'officer', labIds: [], disabled: false, version: await version(a.id) });
+		expect(demote).toMatchObject({ ok: false, status: 409 });
+		expect((await users.find(a.id))!.role).toBe('admin');
+	});
+});
+
+describe('password reset links', () => {
+	it('using one link, or an administrator setting the password, ends every other link of the person', async () => {
+		const u = await makeUser('researcher');
+		const sha = (t: string) => createHash('sha256').update(t).digest('hex');
+		const expiresAt = new Date(Date.now() + 30 * 60_000);
+		const link = async (t: string) => db.insert(table.passwordReset).values({ tokenHash: sha(t), userId: u.id, expiresAt });
+		await link('first-link-token');
+		await link('second-link-token');
+		expect(await passwordResets.complete('first-link-token', 'a fresh and long passphrase 1')).toEqual({ ok: true });
+		expect(await passwordResets.isUsable('second-link-token')).toBe(false);
+		expect(await passwordResets.complete('second-link-token', 'another long passphrase 22')).toMatchObject({ ok: false, status: 400 });
+
+		await link('third-link-token');
+		await users.setPassword(null, u.id, 'set by an administrator 333');
+		expect(await passwordResets.isUsable('third-link-token')).toBe(false);
 	});
 });

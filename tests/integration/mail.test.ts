@@ -9,6 +9,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as outbox from '$lib/server/mail/outbox';
+import type { MailSender } from '$lib/server/mail/transport';
 import { listMailbox, readMailboxDir, readMailboxMessage, type StoredMail } from '$lib/server/mail/mailbox';
 import * as templates from '$lib/server/mail/templates';
 import { createSender } from '$lib/server/mail/transport';
@@ -133,6 +134,31 @@ describe('the ledger', () => {
 
 	it('waits 1, 2, 4 … minutes between attempts, never more than an hour', () => {
 		expect([1, 2, 3, 4, 6, 7, 20].map((n) => outbox.backoffMs(n) / 60_000)).toEqual([1, 2, 4, 8, 32, 60, 60]);
+	});
+
+	it('a batch behind a slow server is not sent twice when another worker reclaims rows that look stuck', async () => {
+		await outbox.deliverAll(); // what other tests left due
+		const [m1, m2] = [mail(person), mail(person)];
+		await enqueue([m1, m2]);
+		const [r1, r2] = (await rowsFor([m1.recordId, m2.recordId])).sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime() || (a.recordId === m1.recordId ? -1 : 1));
+		const sends: string[] = [];
+		const quick: MailSender = { send: async (m) => void sends.push(m.messageId), close: () => {} };
+		const slow: MailSender = {
+			async send(m) {
+				sends.push(m.messageId);
+				if (sends.length > 1) return;
+				// Meanwhile the second row has waited in the batch past the reclaim time, and another
+				// worker runs: it takes that row as stuck and sends it.
+				await db.update(table.mailOutbox).set({ claimedAt: new Date(Date.now() - outbox.RECLAIM_AFTER_MS - minutes(1)) }).where(inArray(table.mailOutbox.id, [r1.id, r2.id].filter((id) => id !== idOf(m.messageId))));
+				await outbox.deliver({ sender: quick });
+			},
+			close: () => {}
+		};
+		const idOf = (messageId: string) => [r1, r2].find((r) => outbox.messageIdFor(r.id) === messageId)!.id;
+		await outbox.deliver({ sender: slow });
+		const ours = sends.filter((id) => id === outbox.messageIdFor(r1.id) || id === outbox.messageIdFor(r2.id));
+		expect(ours.sort()).toEqual([outbox.messageIdFor(r1.id), outbox.messageIdFor(r2.id)].sort()); // each once
+		expect((await rowsFor([m1.recordId, m2.recordId])).map((r) => r.status)).toEqual(['sent', 'sent']);
 	});
 
 	it('never adds a second row for the same key', async () => {

@@ -35,8 +35,9 @@ async function flaggedPath(by: Scope = researcher) {
 	return { laserId: created.id, lineId: found.detail.lines[0].id, pathId: saved.id, detail: p.detail };
 }
 
-const clearance = (assessmentId: string): DecisionForm => ({
+const clearance = (assessmentId: string, afterDecisionId = ''): DecisionForm => ({
 	assessmentId,
+	afterDecisionId,
 	decision: 'cleared',
 	comments: 'Enclose above bench height.',
 	reviewBy: '',
@@ -119,7 +120,7 @@ describe('review decisions', () => {
 
 	it('a returned path waits for its researcher, who answers and changes it', async () => {
 		const p = await flaggedPath();
-		const r = await reviews.decide(officer, p.pathId, { assessmentId: p.detail.latest!.id, decision: 'returned', comments: 'Add a beam stop after the lens.', reviewBy: '', controls: [] });
+		const r = await reviews.decide(officer, p.pathId, { assessmentId: p.detail.latest!.id, afterDecisionId: '', decision: 'returned', comments: 'Add a beam stop after the lens.', reviewBy: '', controls: [] });
 		expect(r.ok).toBe(true);
 		expect((await reviews.reply(researcher, p.pathId, 'Beam stop added at 1.9 m.')).ok).toBe(true);
 		await paths.reassessStale();
@@ -131,6 +132,17 @@ describe('review decisions', () => {
 		expect(now.ok && now.detail.path.reviewState).toBe('awaiting_review');
 		const h = await reviews.history(p.pathId);
 		expect(h[0].replies.map((x) => x.body)).toEqual(['Beam stop added at 1.9 m.']);
+	});
+
+	it('a second officer deciding on what the first already decided gets 409; deciding after reading it works', async () => {
+		const p = await flaggedPath();
+		const first = await reviews.decide(officer, p.pathId, clearance(p.detail.latest!.id));
+		if (!first.ok) throw new Error('decide');
+		const returning = { assessmentId: p.detail.latest!.id, afterDecisionId: '', decision: 'returned' as const, comments: 'Needs a beam stop.', reviewBy: '', controls: [] };
+		expect(await reviews.decide(secondOfficer, p.pathId, returning)).toMatchObject({ ok: false, status: 409 });
+		expect((await reviews.history(p.pathId)).map((d) => d.decision)).toEqual(['cleared']);
+		expect((await reviews.decide(secondOfficer, p.pathId, { ...returning, afterDecisionId: first.decisionId })).ok).toBe(true);
+		expect((await reviews.history(p.pathId)).map((d) => d.decision)).toEqual(['returned', 'cleared']);
 	});
 
 	it('a decision cannot be altered after the fact, only superseded', async () => {

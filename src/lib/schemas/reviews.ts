@@ -49,6 +49,8 @@ export const controlSchema = z
 export const decisionSchema = z
 	.object({
 		assessmentId: z.uuid({ error: 'Reload the page: the assessment you read is unknown.' }),
+		/** The newest decision on the path when the officer opened it ('' for none): another officer's decision meanwhile is a 409. */
+		afterDecisionId: z.string().trim().max(64).default(''),
 		decision: z.enum(['cleared', 'returned'], { error: 'Choose to clear with controls or to return.' }),
 		comments: z.string().trim().max(4000).default(''),
 		reviewBy: z

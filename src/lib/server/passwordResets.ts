@@ -55,6 +55,8 @@ export async function complete(token: string, password: string, now = new Date()
 		const [row] = await tx.update(table.passwordReset).set({ usedAt: now }).where(usable).returning();
 		if (!row) return failure(400, 'This link has expired or was already used. Ask for a new one.');
 		await tx.update(table.user).set({ passwordHash, updatedAt: now }).where(eq(table.user.id, row.userId));
+		// Any other link still open for this person dies with this one.
+		await tx.update(table.passwordReset).set({ usedAt: now }).where(and(eq(table.passwordReset.userId, row.userId), isNull(table.passwordReset.usedAt)));
 		await tx.delete(table.session).where(eq(table.session.userId, row.userId));
 		await audit.record(tx, { actorId: row.userId, action: 'password.reset', entity: 'user', entityId: row.userId });
 		return { ok: true } as const;

@@ -165,6 +165,9 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 		if (latest.id !== form.assessmentId)
 			return failure(409, 'The assessment changed while you were reviewing it. Nothing was saved; read the new working and decide again.');
 		if (path.stale) return failure(409, 'This assessment is stale and is being re-evaluated. Decide once the new result is in.');
+		const [newest] = await tx.select({ id: table.reviewDecision.id }).from(table.reviewDecision).where(eq(table.reviewDecision.pathId, pathId)).orderBy(desc(table.reviewDecision.decidedAt)).limit(1);
+		if ((newest?.id ?? '') !== form.afterDecisionId)
+			return failure(409, 'Another officer decided on this path while you were reviewing it. Nothing was saved; reload to read their decision, then decide again if needed.');
 		const self = selfReviewReason(path, officer.userId, latest.createdBy);
 		if (self) return failure(403, self);
 		const [decision] = await tx

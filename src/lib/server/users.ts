@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
@@ -85,8 +85,19 @@ export async function update(actorId: string, userId: string, input: UpdateUserI
 	if (actorId === userId && (input.disabled || input.role !== 'admin'))
 		return { ok: false, status: 400, message: 'You cannot disable yourself or remove your own administrator role.' };
 	return db.transaction(async (tx) => {
+		// The active administrators are locked first, always in the same order, so that two admins
+		// demoting each other at once are serialised and the second sees that none would remain.
+		const admins = await tx
+			.select({ id: table.user.id })
+			.from(table.user)
+			.where(and(eq(table.user.role, 'admin'), eq(table.user.disabled, false)))
+			.orderBy(asc(table.user.id))
+			.for('update');
 		const [before] = await tx.select(summaryColumns).from(table.user).where(eq(table.user.id, userId)).for('update');
 		if (!before) return { ok: false, status: 404, message: 'No such user.' } as Failure;
+		const removesAdmin = admins.some((a) => a.id === userId) && (input.role !== 'admin' || input.disabled);
+		if (removesAdmin && admins.length <= 1)
+			return { ok: false, status: 409, message: 'This is the last active administrator: make someone else an administrator first.' } as Failure;
 		const updated = await tx
 			.update(table.user)
 			.set({ role: input.role, disabled: input.disabled, version: before.version + 1, updatedAt: new Date() })
@@ -133,7 +144,10 @@ export async function authenticate(emailInput: string, password: string, address
 export async function setPassword(actorId: string | null, userId: string, password: string): Promise<void> {
 	const passwordHash = await hashPassword(password);
 	await db.transaction(async (tx) => {
-		await tx.update(table.user).set({ passwordHash, updatedAt: new Date() }).where(eq(table.user.id, userId));
+		const now = new Date();
+		await tx.update(table.user).set({ passwordHash, updatedAt: now }).where(eq(table.user.id, userId));
+		// A new password ends the person's sessions and any reset link still open.
+		await tx.update(table.passwordReset).set({ usedAt: now }).where(and(eq(table.passwordReset.userId, userId), isNull(table.passwordReset.usedAt)));
 		await tx.delete(table.session).where(eq(table.session.userId, userId));
 		await audit.record(tx, { actorId, action: 'user.password', entity: 'user', entityId: userId });
 	});

@@ -132,8 +132,23 @@ export async function deliver(opts: { now?: Date; limit?: number; sender?: MailS
 		unreachable = describeError(e);
 	}
 
+	const started = Date.now();
 	try {
 		for (const row of claimed) {
+			// The claim is renewed row by row just before sending: a batch behind a slow server would
+			// otherwise look stuck to another worker, which would reclaim and send the same rows. A row
+			// another worker has taken meanwhile is skipped; the marks below check the claim too.
+			const claim = new Date(now.getTime() + (Date.now() - started));
+			const [still] = await db
+				.update(t)
+				.set({ claimedAt: claim })
+				.where(and(eq(t.id, row.id), eq(t.status, 'sending'), eq(t.claimedAt, row.claimedAt!)))
+				.returning({ id: t.id });
+			if (!still) {
+				result.claimed--;
+				continue;
+			}
+			row.claimedAt = claim;
 			if (unreachable === null && sender) {
 				try {
 					await sender.send({ messageId: messageIdFor(row.id), to: row.recipientEmail, subject: row.subject, text: row.textBody, html: row.htmlBody, kind: row.kind });
@@ -165,7 +180,7 @@ async function markSent(row: table.MailOutbox, now: Date) {
 	await db
 		.update(t)
 		.set({ status: 'sent', sentAt: now, claimedAt: null, lastError: null, attempts: sql`${t.attempts} + 1`, ...redact })
-		.where(and(eq(t.id, row.id), eq(t.status, 'sending')));
+		.where(and(eq(t.id, row.id), eq(t.status, 'sending'), eq(t.claimedAt, row.claimedAt!)));
 }
 
 async function markFailedAttempt(row: table.MailOutbox, now: Date, error: string): Promise<'pending' | 'failed'> {
@@ -175,7 +190,7 @@ async function markFailedAttempt(row: table.MailOutbox, now: Date, error: string
 	await db
 		.update(t)
 		.set({ status, attempts, lastError: error, claimedAt: null, nextAttemptAt: new Date(now.getTime() + backoffMs(attempts)) })
-		.where(and(eq(t.id, row.id), eq(t.status, 'sending')));
+		.where(and(eq(t.id, row.id), eq(t.status, 'sending'), eq(t.claimedAt, row.claimedAt!)));
 	return status;
 }
 

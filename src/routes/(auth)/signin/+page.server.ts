@@ -3,13 +3,9 @@ import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { signInSchema } from '$lib/schemas/users';
 import * as auth from '$lib/server/auth/session';
+import { safeNext } from '$lib/server/auth/next';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
-
-/** Only same-site paths: never an open redirect. */
-function safeNext(next: string | null): string {
-	return next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : '/overview';
-}
 
 export const load: PageServerLoad = async () => {
 	return { form: await superValidate(zod4(signInSchema)) };
@@ -30,6 +26,6 @@ export const actions: Actions = {
 		if (event.locals.session) await auth.invalidateSession(event.locals.session.id);
 		const session = await auth.createSession(outcome.userId);
 		auth.setSessionCookie(event.cookies, session.id);
-		redirect(303, safeNext(event.url.searchParams.get('next')));
+		redirect(303, safeNext(event.url.searchParams.get('next'), event.url.origin));
 	}
 };

@@ -50,6 +50,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const worstOd = result?.requiredOpticalDensity?.roundedUpWhole ?? null;
 	const start: DecisionForm = {
 		assessmentId: latest.id,
+		afterDecisionId: history[0]?.id ?? '',
 		decision: 'cleared',
 		comments: '',
 		reviewBy: '',
