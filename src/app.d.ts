@@ -14,6 +14,8 @@ declare global {
 			session: SessionValidationResult['session'];
 			/** Set by handleError when the database could not be reached: the answer becomes a 503. */
 			databaseUnavailable?: boolean;
+			/** Set by handleError when the database refused a value: the answer becomes this 4xx. */
+			refusedStatus?: 400 | 409;
 		}
 	}
 }

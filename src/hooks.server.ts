@@ -2,7 +2,7 @@ import { building } from '$app/environment';
 import { error, json, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { client } from '$lib/server/db';
-import { DATABASE_UNAVAILABLE, isDatabaseUnavailable } from '$lib/server/db/errors';
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from '$lib/server/db/errors';
 import { readConfig } from '$lib/server/config';
 import { startJobs, stopJobs } from '$lib/server/jobs';
 import * as auth from '$lib/server/auth/session';
@@ -44,14 +44,19 @@ const unavailable = (path: string) => {
 	return new Response(DATABASE_UNAVAILABLE, { status: 503, headers: { 'content-type': 'text/plain; charset=utf-8', 'retry-after': '5' } });
 };
 
-// A load or action that fails because the database is down is rendered by SvelteKit as a 500;
-// handleError marks it, and the answer goes out as a 503 that says to try again.
+// A load or action that fails because the database is down, or because it refused a value, is
+// rendered by SvelteKit as a 500; handleError marks which, and the answer goes out as a 503 that
+// says to try again, or as the 4xx of the refused value.
 const handleUnavailable: Handle = async ({ event, resolve }) => {
 	const response = await resolve(event);
-	if (!event.locals.databaseUnavailable || response.status !== 500) return response;
+	if (response.status !== 500) return response;
 	const headers = new Headers(response.headers);
-	headers.set('retry-after', '5');
-	return new Response(response.body, { status: 503, headers });
+	if (event.locals.databaseUnavailable) {
+		headers.set('retry-after', '5');
+		return new Response(response.body, { status: 503, headers });
+	}
+	if (event.locals.refusedStatus) return new Response(response.body, { status: event.locals.refusedStatus, headers });
+	return response;
 };
 
 const handleSession: Handle = async ({ event, resolve }) => {
@@ -123,6 +128,12 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 	if (isDatabaseUnavailable(error)) {
 		event.locals.databaseUnavailable = true;
 		return { message: DATABASE_UNAVAILABLE };
+	}
+	const refused = refusedInput(error);
+	if (refused) {
+		console.error('Input refused by the database', event.route.id, (error as Error).message);
+		event.locals.refusedStatus = refused.status;
+		return { message: refused.message };
 	}
 	if (status >= 500) console.error('Unhandled error', event.route.id, error);
 	return { message: status >= 500 ? 'Something went wrong on our side; it has been logged.' : message };

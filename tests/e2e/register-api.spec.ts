@@ -58,6 +58,20 @@ test('lasers: documented answers, lab scope and field messages', async () => {
 	expect(Object.keys(fields)).toEqual(expect.arrayContaining(['maker', 'laserClass', 'line.power', '(body)']));
 });
 
+test('values the database cannot take are a 4xx with a message, and nothing is saved', async () => {
+	const count = async () => (await (await officer.get('/api/lasers?pageSize=1')).json()).total;
+	const before = await count();
+	// A NUL character in a search, a power beyond what PostgreSQL's numeric holds, an unknown lab.
+	expect((await mine.get('/api/lasers?q=%00')).status()).toBe(400);
+	const huge = await mine.post('/api/lasers', { data: { labId, maker: 'Test', model: 'Huge', serial: '', laserClass: '4', status: 'active', notes: '', line: { ...line, power: '1e200000 W' } } });
+	expect(huge.status()).toBe(400);
+	expect((await huge.json()).message).toMatch(/not accepted|Some fields/);
+	const moved = await officer.patch(`/api/lasers/${laserId}`, { data: { labId: '00000000-0000-4000-8000-000000000000', maker: 'Test', model: 'HeNe 20', serial: '', laserClass: '3B', status: 'active', notes: '', version: 999 } });
+	expect(moved.status()).toBe(400);
+	expect((await moved.json()).fields).toHaveProperty('labId');
+	expect(await count()).toBe(before);
+});
+
 test('lasers: a stale edit answers 409 and loses nothing', async () => {
 	const edit = (model: string) => ({ labId, maker: 'Test', model, serial: '', laserClass: '3B', status: 'active', notes: '', version: 1 });
 	const first = await mine.patch(`/api/lasers/${laserId}`, { data: edit('HeNe 20 (renamed)') });

@@ -6,6 +6,7 @@ import * as table from '$lib/server/db/schema';
 import * as paths from '$lib/server/paths';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
+import { currentLimits } from '$lib/server/assessments';
 import type { Scope } from '$lib/server/auth/scope';
 import { laserForm, limitForm, makeLab, makeUser, pathForm, scopeFor } from './factories';
 
@@ -200,6 +201,35 @@ describe('beam paths and their assessment snapshots', () => {
 	it('a malformed limit id is “no such limit”, not a database error', async () => {
 		expect(await limits.revise(officerId, 'abc', limitForm())).toMatchObject({ ok: false, status: 404 });
 		expect(await limits.retire(officerId, 'abc', 1)).toMatchObject({ ok: false, status: 404 });
+	});
+
+	it('a limit that lapses or comes into force by date makes the paths it covers stale, once', async () => {
+		await paths.reassessStale(1000);
+		// A narrow band of its own, so that only this test's path is covered.
+		const band = { wavelengthMin: '455 nm', wavelengthMax: '456 nm' };
+		const lapsing = await limits.create(officerId, limitForm({ label: 'Test fixture: lapses', ...band, validUntil: '2030-01-01' }));
+		const coming = await limits.create(officerId, limitForm({ label: 'Test fixture: comes into force', ...band, validFrom: '2030-06-01' }));
+		const laser = await newLaser(researcher, labA.id);
+		const lineId = laser.lines[0].id;
+		await db.update(table.emissionLine).set({ wavelength: '4.555e-7' }).where(eq(table.emissionLine.id, lineId));
+		const saved = await paths.save(researcher, laser.laser.id, null, pathForm(lineId));
+		if (!saved.ok) throw new Error(JSON.stringify(saved));
+		const stale = async () => (await db.select({ stale: table.beamPath.stale }).from(table.beamPath).where(eq(table.beamPath.id, saved.id)))[0].stale;
+		// In force through its last day (UTC), gone the day after.
+		const inForce = async (iso: string) => (await currentLimits(db, new Date(iso))).map((l) => l.limitId);
+		expect(await inForce('2030-01-01T23:59:00Z')).toContain(lapsing.id);
+		expect(await inForce('2030-01-02T00:00:01Z')).not.toContain(lapsing.id);
+		expect(await inForce('2030-05-31T23:59:00Z')).not.toContain(coming.id);
+
+		// The path was assessed now (2026 or so): both boundaries lie ahead.
+		await paths.markStaleByLimitDates(new Date('2030-01-01T12:00:00Z'));
+		expect(await stale()).toBe(false);
+		expect(await paths.markStaleByLimitDates(new Date('2030-01-02T00:00:01Z'))).toBeGreaterThanOrEqual(1);
+		expect(await stale()).toBe(true);
+		expect(await paths.markStaleByLimitDates(new Date('2030-01-02T00:00:01Z'))).toBe(0); // already stale: nothing new
+		const [entry] = await db.select().from(table.auditLog).where(eq(table.auditLog.action, 'limits.dates-passed'));
+		expect(entry.after).toMatchObject({ paths: expect.arrayContaining([saved.id]) });
+		for (const id of [lapsing.id, coming.id]) await limits.retire(officerId, id, 1);
 	});
 
 	it('an infrared limit leaves a green path alone', async () => {

@@ -30,6 +30,19 @@ function body(): AssessmentPreviewRequest {
 }
 
 describe('assessment preview body', () => {
+	it('bounds the work of one request: at most 100 points, 50 limits and 2000 point × limit pairs', () => {
+		const b = body();
+		const point = b.points[0];
+		const limit = b.limits![0];
+		const withCounts = (points: number, limits: number) => ({ ...b, points: Array.from({ length: points }, (_, i) => ({ ...point, id: `p${i}` })), limits: Array.from({ length: limits }, (_, i) => ({ ...limit, id: `l${i}` })) });
+		expect(assessmentPreviewSchema.safeParse(withCounts(100, 20)).success).toBe(true);
+		const tooMany = assessmentPreviewSchema.safeParse(withCounts(100, 21));
+		expect(tooMany.success).toBe(false);
+		expect(tooMany.error!.issues.map((x) => x.path.join('.'))).toContain('limits');
+		expect(assessmentPreviewSchema.safeParse(withCounts(101, 1)).success).toBe(false);
+		expect(assessmentPreviewSchema.safeParse(withCounts(1, 51)).success).toBe(false);
+	});
+
 	it('accepts numbers and numeric strings and keeps them as exact decimal strings', () => {
 		const parsed = assessmentPreviewSchema.parse(body());
 		expect(parsed.line.wavelength).toBe('532e-9');

@@ -94,17 +94,26 @@ export const limitSchema = z
 	})
 	.strict();
 
+/** Points × limits in one preview request (a path of 100 points against 20 limits). */
+export const PREVIEW_COMPARISONS_MAX = 2000;
+
 export const assessmentPreviewSchema = z
 	.object({
 		line: lineSchema,
 		elements: z.array(elementSchema).max(200, 'At most 200 path elements.').default([]),
-		points: z.array(pointSchema).max(200, 'At most 200 points of concern.'),
+		// The same bounds as a saved path (schemas/register.ts): a preview is one path, not a batch.
+		points: z.array(pointSchema).max(100, 'At most 100 points of concern.'),
 		/** Omitted: the route uses the limits in force in the library. */
-		limits: z.array(limitSchema).max(500, 'At most 500 limits.').optional(),
+		limits: z.array(limitSchema).max(50, 'At most 50 limits in one preview.').optional(),
 		nohd: z.object({ exposureDuration: optionalNumber }).strict().nullish(),
 		options: z.object({ breakdown: z.boolean().optional() }).strict().nullish()
 	})
-	.strict();
+	.strict()
+	// Every point is compared with every limit: the product bounds the work of one request.
+	.refine((b) => !b.limits || b.points.length * b.limits.length <= PREVIEW_COMPARISONS_MAX, {
+		path: ['limits'],
+		message: `Too much for one preview: points × limits may be at most ${PREVIEW_COMPARISONS_MAX}.`
+	});
 
 export type AssessmentPreviewBody = z.infer<typeof assessmentPreviewSchema>;
 /** The body as sent (numbers may be JSON numbers). */

@@ -7,7 +7,7 @@ export const inventorySorts = ['model', 'maker', 'class', 'lab', 'status', 'upda
 /** Query string of GET /api/lasers; empty values mean "any". */
 export const inventoryQuerySchema = z
 	.object({
-		q: z.string().trim().max(100, 'Search with at most 100 characters.').optional(),
+		q: z.string().trim().max(100, 'Search with at most 100 characters.').refine((t) => !t.includes('\u0000'), 'Search text cannot hold a NUL character.').optional(),
 		lab: z.uuid({ error: 'Unknown lab.' }).optional(),
 		class: z.enum(laserClasses, { error: 'Unknown laser class.' }).optional(),
 		status: z.enum(laserStatuses, { error: 'Unknown status.' }).optional(),

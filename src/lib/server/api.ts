@@ -1,7 +1,7 @@
 // One shape for every JSON API answer that is not a success: { message, fields? } with a 4xx/5xx.
 import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
-import { DATABASE_UNAVAILABLE, isDatabaseUnavailable } from './db/errors';
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from './db/errors';
 
 export type ApiError = App.Error;
 
@@ -19,6 +19,11 @@ export function endpoint<H extends RequestHandler<any, any>>(handler: H): H {
 			if (isRedirect(e)) throw e;
 			if (isHttpError(e)) return json(e.body, { status: e.status });
 			if (isDatabaseUnavailable(e)) return apiError(503, DATABASE_UNAVAILABLE);
+			const refused = refusedInput(e);
+			if (refused) {
+				console.error('API input refused by the database', event.route.id, (e as Error).message);
+				return apiError(refused.status, refused.message);
+			}
 			console.error('API failure', event.route.id, e);
 			return apiError(500, 'Something went wrong on our side; it has been logged.');
 		}

@@ -5,7 +5,7 @@ import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, type Scope } from '$lib/server/auth/scope';
-import { changedMeanwhile, notFound, notYours, type Failure } from '$lib/server/failure';
+import { changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import { adequacy, type AdequacyResult, type BandOnRecord } from '$lib/server/eyewearAdequacy';
 import type { EyewearForm } from '$lib/schemas/eyewear';
@@ -47,6 +47,8 @@ export async function save(scope: Scope, eyewearId: string | null, form: Eyewear
 	};
 	const bands = form.bands.map((b) => ({ wavelengthMin: si(b.wavelengthMin), wavelengthMax: si(b.wavelengthMax), od: b.od }));
 	return db.transaction(async (tx) => {
+		const [labRow] = await tx.select({ id: table.lab.id }).from(table.lab).where(eq(table.lab.id, form.labId));
+		if (!labRow) return fieldsNeedAttention({ labId: 'Unknown lab.' });
 		let id: string;
 		let before: unknown = null;
 		if (eyewearId === null) {

@@ -248,6 +248,8 @@ export async function update(scope: Scope, laserId: string, input: z.infer<typeo
 	if (!found.ok) return found;
 	if (!found.editable || !canEdit(scope, input.labId)) return notYours('laser');
 	return db.transaction(async (tx) => {
+		const [labRow] = await tx.select({ id: table.lab.id }).from(table.lab).where(eq(table.lab.id, input.labId));
+		if (!labRow) return fieldsNeedAttention({ labId: 'Unknown lab.' });
 		const { version, ...fields } = input;
 		const [after] = await tx
 			.update(table.laser)

@@ -7,6 +7,7 @@ import * as audit from '$lib/server/audit';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
 import { changedMeanwhile, notFound, type Failure } from '$lib/server/failure';
+import { lockLimitLibrary } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
 import { limitToSI, type LimitForm } from '$lib/schemas/limits';
 
@@ -38,7 +39,7 @@ async function markStale(tx: Tx, ranges: { min: string; max: string }[], reason:
 	const marked = await tx.execute<{ id: string }>(sql`
 		UPDATE beam_path bp SET stale = true
 		FROM emission_line l
-		WHERE bp.line_id = l.id AND NOT bp.retired AND bp.verdict IS NOT NULL AND NOT bp.stale
+		WHERE bp.line_id = l.id AND NOT bp.retired AND bp.verdict IS NOT NULL
 			AND (${sql.join(overlaps, sql` OR `)})
 		RETURNING bp.id`);
 	if (marked.length)
@@ -51,6 +52,7 @@ async function markStale(tx: Tx, ranges: { min: string; max: string }[], reason:
 export async function create(actorId: string, form: LimitForm): Promise<{ ok: true; id: string; staleMarked: number }> {
 	const values = limitToSI(form);
 	const out = await db.transaction(async (tx) => {
+		await lockLimitLibrary(tx, 'change');
 		const [head] = await tx.insert(table.exposureLimit).values({}).returning();
 		const staleMarked = await markStale(tx, [{ min: values.wavelengthMin, max: values.wavelengthMax }], `New limit “${values.label}”`);
 		const [v] = await tx.insert(table.exposureLimitVersion).values({ limitId: head.id, version: 1, ...values, staleMarked, createdBy: actorId }).returning();
@@ -66,6 +68,7 @@ export async function revise(actorId: string, limitId: string, form: LimitForm):
 	if (!isUuid(limitId)) return notFound('limit');
 	const values = limitToSI(form);
 	const out = await db.transaction(async (tx) => {
+		await lockLimitLibrary(tx, 'change');
 		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
 		if (!found.length) return notFound('limit');
 		const head = found[0];
@@ -95,6 +98,7 @@ export async function revise(actorId: string, limitId: string, form: LimitForm):
 export async function retire(actorId: string, limitId: string, version: number): Promise<{ ok: true; staleMarked: number } | Failure> {
 	if (!isUuid(limitId)) return notFound('limit');
 	const out = await db.transaction(async (tx) => {
+		await lockLimitLibrary(tx, 'change');
 		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
 		if (!found.length) return notFound('limit');
 		if (found[0].currentVersion !== version || found[0].retired) return changedMeanwhile('limit');

@@ -6,7 +6,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
-import { currentLimits, evaluate, latestFor, needsReview, type PathSnapshotInput } from '$lib/server/assessments';
+import { currentLimits, evaluate, latestFor, lockLimitLibrary, needsReview, type PathSnapshotInput } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
 import * as reviews from '$lib/server/reviews';
 import { ENGINE_VERSION, type AssessmentResult } from '$lib/server/hazard';
@@ -91,10 +91,12 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 	if (pathId !== null && !isUuid(pathId)) return notFound('beam path');
 
 	return db.transaction(async (tx) => {
-		// Locks in the order a line edit takes them (line, then its paths): the line is read under a
-		// share lock, so an edit of it cannot commit between this read and the snapshot (which would
-		// leave the path looking current); the path row is locked before its review state is read, so
-		// a decision committed meanwhile is seen, never overwritten.
+		// The limit library first (shared; see lockLimitLibrary), then the line and the path in the
+		// order a line edit takes them (line, then its paths): the same order everywhere, no deadlock.
+		await lockLimitLibrary(tx, 'read');
+		// The line is read under a share lock, so an edit of it cannot commit between this read and the
+		// snapshot (which would leave the path looking current); the path row is locked before its
+		// review state is read, so a decision committed meanwhile is seen, never overwritten.
 		const [line] = await tx
 			.select()
 			.from(table.emissionLine)
@@ -203,6 +205,7 @@ export async function reassessStale(batch = 200): Promise<{ reassessed: number }
 	let reassessed = 0;
 	for (const { id } of stale) {
 		const done = await db.transaction(async (tx) => {
+			await lockLimitLibrary(tx, 'read'); // before the row, as every snapshot takes them
 			// Lock the row: two workers never snapshot the same path twice, and a concurrent save wins.
 			const [locked] = await tx.execute<{ id: string }>(sql`SELECT id FROM beam_path WHERE id = ${id} AND stale FOR UPDATE SKIP LOCKED`);
 			if (!locked) return false;
@@ -232,6 +235,39 @@ export async function reassessStale(batch = 200): Promise<{ reassessed: number }
 		if (done) reassessed++;
 	}
 	return { reassessed };
+}
+
+/**
+ * Limits also come into force and lapse by date (valid from / valid until, each a whole UTC day).
+ * Every live path whose latest snapshot was taken before such a boundary that has since passed, on
+ * a limit that covers its line, is marked stale, so the re-evaluation takes the library as it now
+ * stands. Run by the re-evaluation job (every five minutes): a late run catches up.
+ */
+export async function markStaleByLimitDates(now = new Date()): Promise<number> {
+	return db.transaction(async (tx) => {
+		await lockLimitLibrary(tx, 'change');
+		const at = now.toISOString();
+		const marked = await tx.execute<{ id: string }>(sql`
+			UPDATE beam_path bp SET stale = true
+			FROM emission_line l
+			WHERE bp.line_id = l.id AND NOT bp.retired AND NOT bp.stale AND bp.verdict IS NOT NULL
+				AND EXISTS (
+					SELECT 1 FROM exposure_limit el
+					JOIN exposure_limit_version v ON v.limit_id = el.id AND v.version = el.current_version
+					CROSS JOIN LATERAL (SELECT max(a.created_at) AS at FROM assessment a WHERE a.path_id = bp.id) latest
+					WHERE NOT el.retired
+						AND l.wavelength <= v.wavelength_max AND coalesce(l.wavelength_max, l.wavelength) >= v.wavelength_min
+						AND ((v.valid_from > latest.at AND v.valid_from <= ${at}::timestamptz)
+							OR (v.valid_until + interval '1 day' > latest.at AND v.valid_until + interval '1 day' <= ${at}::timestamptz)))
+			RETURNING bp.id`);
+		if (marked.length === 0) return 0;
+		const ids = sql.join(marked.map((m) => sql`${m.id}::uuid`), sql`, `);
+		await tx.execute(sql`
+			UPDATE assessment a SET stale = true, stale_reason = 'A limit came into force or lapsed by date'
+			WHERE a.id IN (SELECT DISTINCT ON (path_id) id FROM assessment WHERE path_id IN (${ids}) ORDER BY path_id, created_at DESC)`);
+		await audit.record(tx, { actorId: null, action: 'limits.dates-passed', entity: 'beam_path', entityId: 'many', after: { paths: marked.map((m) => m.id) } });
+		return marked.length;
+	});
 }
 
 export async function countStale(): Promise<number> {

@@ -24,3 +24,31 @@ export function isDatabaseUnavailable(e: unknown): boolean {
 	}
 	return false;
 }
+
+/**
+ * A database refusal of a value that validation let through (a safety net: the schemas and data
+ * modules should catch these first). The transaction has rolled back, so nothing was saved; the
+ * person gets a 4xx, never a 500.
+ */
+const refusedValueCodes = new Set([
+	'22001', // string_data_right_truncation
+	'22003', // numeric_value_out_of_range
+	'22007', // invalid_datetime_format
+	'22008', // datetime_field_overflow
+	'22021', // character_not_in_repertoire (e.g. a NUL byte in text)
+	'22P02', // invalid_text_representation
+	'22P05', // untranslatable_character
+	'23503', // foreign_key_violation (a reference to something that does not exist)
+	'23514' // check_violation
+]);
+
+export function refusedInput(e: unknown): { status: 400 | 409; message: string } | null {
+	for (let cur: unknown = e, depth = 0; cur && depth < 5; depth++) {
+		const code = (cur as { code?: unknown }).code;
+		if (code === '23505') return { status: 409, message: 'That record already exists or was just created by someone else. Reload and try again.' };
+		if (typeof code === 'string' && refusedValueCodes.has(code))
+			return { status: 400, message: 'A value was not accepted (it is out of range, refers to something that does not exist, or holds characters that cannot be stored). Nothing was saved.' };
+		cur = (cur as { cause?: unknown }).cause;
+	}
+	return null;
+}

@@ -11,7 +11,9 @@ let boss: PgBoss | null = null;
 
 const handlers: Record<QueueName, () => Promise<unknown>> = {
 	[queues.reassessPaths]: async () => {
-		// Drain in batches so one job clears a large backlog.
+		// Limits that came into force or lapsed since the paths were assessed, then the backlog, in
+		// batches so one job clears it.
+		await paths.markStaleByLimitDates();
 		let total = 0;
 		for (;;) {
 			const { reassessed } = await paths.reassessStale(200);
