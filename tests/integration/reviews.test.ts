@@ -1,4 +1,4 @@
-import { desc, eq, sql } from 'drizzle-orm';
+import { and, desc, eq, sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
@@ -71,8 +71,18 @@ describe('review decisions', () => {
 		const form = { labId: lab.id, label: 'G-1', location: 'door', frame: 'goggle', condition: 'good' as const, lastCheckedAt: '', version: 0 };
 		await eyewear.save(officer, null, { ...form, bands: [{ wavelengthMin: '520 nm', wavelengthMax: '540 nm', od: '4' }] });
 		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('inadequate');
-		await eyewear.save(officer, null, { ...form, label: 'G-2', bands: [{ wavelengthMin: '190 nm', wavelengthMax: '532 nm', od: '6' }] });
+		const g2 = await eyewear.save(officer, null, { ...form, label: 'G-2', bands: [{ wavelengthMin: '190 nm', wavelengthMax: '532 nm', od: '6' }] });
 		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('adequate');
+
+		// Withdrawn from use (lost): kept on record, no longer counted; a stale version is a 409.
+		if (!g2.ok) throw new Error('save');
+		expect(await eyewear.retire(officer, g2.id, 2)).toMatchObject({ ok: false, status: 409 });
+		expect(await eyewear.retire(researcher, g2.id, 1)).toMatchObject({ ok: false, status: 403 });
+		expect(await eyewear.retire(officer, g2.id, 1)).toEqual({ ok: true });
+		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('inadequate');
+		expect((await eyewear.find(officer, g2.id))?.retired).toBe(true);
+		const [entry] = await db.select().from(table.auditLog).where(and(eq(table.auditLog.action, 'eyewear.retire'), eq(table.auditLog.entityId, g2.id)));
+		expect(entry.actorId).toBe(officer.userId);
 	});
 
 	it('refuses self-clearance: the officer who registered or last changed the path', async () => {

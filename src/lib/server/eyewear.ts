@@ -120,3 +120,17 @@ export function worstOf(checks: EyewearCheck[] | undefined): AdequacyResult['sta
 	if (checks.some((c) => c.result.status === 'inadequate')) return 'inadequate';
 	return 'adequate';
 }
+
+/** Withdraw an item from use (lost, discarded): it stays on record and never counts again. */
+export async function retire(scope: Scope, eyewearId: string, version: number): Promise<{ ok: true } | Failure> {
+	if (!isUuid(eyewearId)) return notFound('eyewear');
+	return db.transaction(async (tx) => {
+		const [old] = await tx.select().from(table.eyewear).where(eq(table.eyewear.id, eyewearId)).for('update');
+		if (!old) return notFound('eyewear');
+		if (scope.role !== 'officer' || !canEdit(scope, old.labId)) return notYours('eyewear');
+		if (old.version !== version || old.retired) return changedMeanwhile('eyewear');
+		const [after] = await tx.update(table.eyewear).set({ retired: true, version: version + 1 }).where(eq(table.eyewear.id, eyewearId)).returning();
+		await audit.record(tx, { actorId: scope.userId, action: 'eyewear.retire', entity: 'eyewear', entityId: eyewearId, before: old, after });
+		return { ok: true } as const;
+	});
+}

@@ -15,7 +15,7 @@ export async function loadEyewearForm(locals: App.Locals, eyewearId: string | nu
 	const labList = await labs.list();
 	if (eyewearId === null) {
 		const start: EyewearForm = { labId: '', label: '', location: '', frame: '', condition: 'good', lastCheckedAt: '', bands: [{ wavelengthMin: '', wavelengthMax: '', od: '' }], version: 0 };
-		return { labs: labList, form: await superValidate(start, zod4(eyewearSchema), { errors: false }), label: null };
+		return { labs: labList, form: await superValidate(start, zod4(eyewearSchema), { errors: false }), label: null, retired: false, version: 0 };
 	}
 	const e = await eyewear.find(scope, eyewearId);
 	if (!e) error(404, { message: 'No such eyewear.' });
@@ -29,7 +29,7 @@ export async function loadEyewearForm(locals: App.Locals, eyewearId: string | nu
 		bands: e.bands.map((b) => ({ wavelengthMin: formatQuantity(b.wavelengthMin, 'wavelength', { significantDigits: 10 }), wavelengthMax: formatQuantity(b.wavelengthMax, 'wavelength', { significantDigits: 10 }), od: String(Number(b.od)) })),
 		version: e.version
 	};
-	return { labs: labList, form: await superValidate(values, zod4(eyewearSchema)), label: e.label };
+	return { labs: labList, form: await superValidate(values, zod4(eyewearSchema)), label: e.label, retired: e.retired, version: e.version };
 }
 
 export async function saveEyewearForm(locals: App.Locals, request: Request, eyewearId: string | null) {

@@ -1,3 +1,8 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { z } from 'zod';
+import { requireRole } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import * as eyewear from '$lib/server/eyewear';
 import { loadEyewearForm, saveEyewearForm } from '$lib/server/eyewearForms';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -6,5 +11,13 @@ export const load: PageServerLoad = ({ locals, params }) => loadEyewearForm(loca
 export const actions: Actions = {
 	save: async function saveEyewear({ locals, request, params }) {
 		return saveEyewearForm(locals, request, params.eyewearId);
+	},
+	retire: async function retireEyewear({ locals, request, params }) {
+		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(Object.fromEntries(await request.formData()));
+		if (!parsed.success) return fail(400, { retireError: 'Reload the page and try again.' });
+		const result = await eyewear.retire(scope, params.eyewearId, parsed.data.version);
+		if (!result.ok) return fail(result.status, { retireError: result.message });
+		redirect(303, '/eyewear');
 	}
 };
