@@ -140,4 +140,24 @@ describe('training expiry reminders', () => {
 		const rows = await db.select().from(table.mailOutbox).where(inArray(table.mailOutbox.recordId, Object.values(ids)));
 		expect(rows).toHaveLength(a.length + newRows.length);
 	});
+
+	it('a digest reader gets the reminder in the day’s digest, linked to the training records', async () => {
+		const saved = process.env.APP_URL;
+		process.env.APP_URL = APP_URL;
+		try {
+			const reader = await makeUser('researcher');
+			await db.insert(table.userPreference).values({ userId: reader.id, mailMode: 'digest' });
+			const r = await training.record(officer.id, form(reader.id, 'Digest reader induction', '2031-03-10', shiftDay(T, 10)), T);
+			if (!r.ok) throw new Error('record');
+			const mails = (await trainingMails(T, APP_URL)).filter((m) => m.recordId === r.id);
+			expect((await db.transaction((tx) => outbox.enqueue(tx, mails))).held).toBe(1);
+			await outbox.assembleDigests(T);
+			const [digest] = await db.select().from(table.mailOutbox).where(and(eq(table.mailOutbox.kind, 'digest'), eq(table.mailOutbox.recipientId, reader.id)));
+			expect(digest.textBody).toContain(`${APP_URL}/training`);
+			expect(digest.textBody).toContain('Digest reader induction');
+		} finally {
+			if (saved === undefined) delete process.env.APP_URL;
+			else process.env.APP_URL = saved;
+		}
+	});
 });

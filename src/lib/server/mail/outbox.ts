@@ -224,6 +224,7 @@ async function linksFor(tx: Tx, rows: table.MailOutbox[], appUrl: string): Promi
 	for (const r of rows) {
 		if (r.kind === 'inspection.due' || r.kind === 'inspection.overdue') out.set(r.id, templates.link(appUrl, 'inspections', r.recordId));
 		else if (r.kind === 'review.waiting') out.set(r.id, templates.link(appUrl, 'reviews', r.recordId));
+		else if (r.kind === 'training.expiring' || r.kind === 'training.expired') out.set(r.id, templates.link(appUrl, 'training'));
 		else if (r.kind === 'notification') {
 			const n = byId.get(r.recordId);
 			out.set(r.id, templates.notificationLink(appUrl, n?.kind ?? '', n?.pathId ?? null));
