@@ -3,6 +3,8 @@ import { differenceInCalendarDays, parseISO } from 'date-fns';
 
 /** Reminded from this many days before expiry; shown as "expires soon" from then on. */
 export const TRAINING_NOTICE_DAYS = 30;
+/** Reminded (with the officers) for this many days after expiry: a late daily run catches up. */
+export const TRAINING_EXPIRED_NOTICE_DAYS = 7;
 export type TrainingState = 'current' | 'expires_soon' | 'expired' | 'no_expiry' | 'renewed' | 'withdrawn';
 
 /**

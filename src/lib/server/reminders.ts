@@ -10,6 +10,7 @@ import * as outbox from '$lib/server/mail/outbox';
 import type { MailInput } from '$lib/server/mail/outbox';
 import { inspectionStep, reviewWaitStep, shiftDay, startOfUtcDay, toIsoDay, trainingStep } from '$lib/server/mail/schedule';
 import * as templates from '$lib/server/mail/templates';
+import { TRAINING_EXPIRED_NOTICE_DAYS, TRAINING_NOTICE_DAYS } from '$lib/trainingState';
 
 /** In-app notifications younger than this are mailed; older ones are history, not news. */
 export const NOTIFICATION_WINDOW_DAYS = 7;
@@ -152,8 +153,8 @@ export async function trainingMails(today: string, appUrl: string): Promise<Mail
 			and(
 				isNull(t.withdrawnAt),
 				isNotNull(t.expiresOn),
-				gte(t.expiresOn, shiftDay(today, -7)),
-				lte(t.expiresOn, shiftDay(today, 30)),
+				gte(t.expiresOn, shiftDay(today, -TRAINING_EXPIRED_NOTICE_DAYS)),
+				lte(t.expiresOn, shiftDay(today, TRAINING_NOTICE_DAYS)),
 				notExists(
 					db
 						.select({ one: sql`1` })

@@ -3,6 +3,7 @@
 // up the next time it runs; but a window names one step only, so a late run sends the current
 // step and never the older ones it missed.
 import { addDays, differenceInCalendarDays, formatISO, parseISO } from 'date-fns';
+import { TRAINING_EXPIRED_NOTICE_DAYS, TRAINING_NOTICE_DAYS } from '$lib/trainingState';
 
 export const REVIEW_WAIT_DAYS = 7;
 
@@ -73,6 +74,6 @@ export function reviewWaitStep(awaitingSinceDay: string, today: string): { step:
  */
 export function trainingStep(expiresOn: string, today: string): { kind: 'training.expiring' | 'training.expired'; daysUntil: number } | null {
 	const daysUntil = daysBetween(today, expiresOn);
-	if (daysUntil > 30 || daysUntil < -7) return null;
+	if (daysUntil > TRAINING_NOTICE_DAYS || daysUntil < -TRAINING_EXPIRED_NOTICE_DAYS) return null;
 	return { kind: daysUntil >= 0 ? 'training.expiring' : 'training.expired', daysUntil };
 }
