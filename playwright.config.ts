@@ -1,6 +1,13 @@
+import { execFileSync } from 'node:child_process';
 import { defineConfig } from '@playwright/test';
 
-const port = Number(process.env.E2E_PORT ?? 3100);
+// Free ports for the app and its mail server, chosen once by the main process; the workers inherit
+// them through the environment (the config is read again in each worker).
+const pickPort = () =>
+	execFileSync(process.execPath, ['-e', "const s=require('net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})"], { encoding: 'utf8' });
+process.env.E2E_PORT ??= pickPort();
+process.env.E2E_SMTP_PORT ??= pickPort();
+const port = Number(process.env.E2E_PORT);
 
 export default defineConfig({
 	testDir: 'tests/e2e',

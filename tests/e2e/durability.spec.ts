@@ -9,12 +9,14 @@ import { setTimeout as sleep } from 'node:timers/promises';
 import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
 import { demoUsers } from '../../seed/demo';
+import { freePort } from '../free-port';
 
-const PG_PORT = '54339';
 const PG_DIR = '.data/durability';
-const APP_PORT = 3310;
-const app = `http://127.0.0.1:${APP_PORT}`;
-const pgEnv = { ...process.env, BEAMWARDEN_PGPORT: PG_PORT, BEAMWARDEN_PGDIR: `${process.cwd()}/${PG_DIR}` };
+// Both ports are free ones, chosen when the test starts.
+let PG_PORT = '';
+let APP_PORT = 0;
+let app = '';
+let pgEnv: NodeJS.ProcessEnv = {};
 const db = (cmd: 'start' | 'stop') => execFileSync('bash', ['scripts/db.sh', cmd], { env: pgEnv, stdio: 'pipe' });
 
 let server: ChildProcess;
@@ -35,6 +37,10 @@ test.describe.configure({ timeout: 180_000 });
 
 test.beforeAll(async () => {
 	test.setTimeout(180_000);
+	PG_PORT = String(await freePort());
+	APP_PORT = await freePort();
+	app = `http://127.0.0.1:${APP_PORT}`;
+	pgEnv = { ...process.env, BEAMWARDEN_PGPORT: PG_PORT, BEAMWARDEN_PGDIR: `${process.cwd()}/${PG_DIR}` };
 	rmSync(PG_DIR, { recursive: true, force: true });
 	db('start');
 	execFileSync('node_modules/.bin/tsx', ['scripts/prepare-db.ts', 'beamwarden_durability', '--fresh', '--seed'], { env: pgEnv, stdio: 'pipe' });

@@ -18,10 +18,11 @@ import { nudge, startJobs, stopJobs } from '$lib/server/jobs';
 import { queueDefinitions, queues } from '$lib/server/jobs/queues';
 import { startFakeMailServer, type FakeMailServer } from '../../scripts/fake-mail';
 import { makeUser } from './factories';
+import { freePort } from '../free-port';
 
-const SMTP_PORT = 2626;
+let SMTP_PORT = 0;
 /** Nothing listens here: the "SMTP server is down" case. */
-const DEAD_PORT = 2627;
+let DEAD_PORT = 0;
 const APP_URL = 'http://beamwarden.test';
 
 let dir: string;
@@ -39,6 +40,7 @@ async function stopServer() {
 
 beforeAll(async () => {
 	dir = await mkdtemp(join(tmpdir(), 'beamwarden-mailbox-'));
+	[SMTP_PORT, DEAD_PORT] = [await freePort(), await freePort()];
 	process.env.APP_URL = APP_URL;
 	process.env.SMTP_HOST = '127.0.0.1';
 	await startServer();

@@ -14,8 +14,9 @@ import { shiftDay } from '$lib/server/mail/schedule';
 import { runDaily } from '$lib/server/reminders';
 import { startFakeMailServer, type FakeMailServer } from '../../scripts/fake-mail';
 import { makeLab, makeUser } from './factories';
+import { freePort } from '../free-port';
 
-const SMTP_PORT = 2626;
+let SMTP_PORT = 0;
 const APP_URL = 'http://beamwarden.test';
 /** Far from the real date, so rows other test files wrote at "now" are not in its windows. */
 const T = '2031-05-15';
@@ -33,6 +34,7 @@ let disabledPerson: Person;
 
 beforeAll(async () => {
 	dir = await mkdtemp(join(tmpdir(), 'beamwarden-reminders-'));
+	SMTP_PORT = await freePort();
 	Object.assign(process.env, { APP_URL, SMTP_HOST: '127.0.0.1', SMTP_PORT: String(SMTP_PORT) });
 	server = await startFakeMailServer({ port: SMTP_PORT, dir });
 	// Rows other test files left due are sent now, so the counts below are this file's own.
