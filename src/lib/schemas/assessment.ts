@@ -1,19 +1,24 @@
 /**
- * Body of POST /api/assessments/preview: an emission line, the path elements, the points of
- * concern and the exposure limits. Every object is strict (unknown keys are refused). Numbers are
- * SI values, given as JSON numbers or numeric strings ("5e-3"); they reach the engine as strings,
- * so no digit is lost to binary floating point. Ranges (λ within 180 nm – 1 mm, transmission 0–1,
- * …) are checked by the engine, which names the offending field.
+ * The one shape of a beam path in SI units, shared by the browser and the server: what the editor
+ * sends to the preview, what a save validates and stores (one column per field), what the
+ * re-evaluation reads back from the rows, and what the hazard engine takes. One schema, one mapper
+ * from rows (`beamPathFromRows`), no other copy.
+ *
+ * Numbers are SI decimal strings ("5e-3"), as PostgreSQL `numeric` holds them and as the unit parser
+ * writes them; a JSON number is accepted too and written as a string. Structure is checked here
+ * (every object strict: unknown keys are refused); physical ranges (λ within 180 nm – 1 mm,
+ * transmission 0–1, f ≥ 1 mm, …) are the engine's rules, which name the offending field.
  */
 import { z } from 'zod';
-import type { AssessmentInput, ElementInput, LimitInput, LineInput, PointInput } from '../server/hazard/types';
+import { beamDefinitions, beamProfiles, elementKinds, emissionModes, limitQuantities, pointKinds, pulseBases, tissues } from '../enums';
+import type { BeamDefinition, BeamProfile, ElementKind, EmissionMode, LimitQuantity, PointKind, PulseBasis, Tissue } from '../enums';
 
-const NUMERIC_TEXT = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+export const NUMERIC_TEXT = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 /** A finite number in SI units, as a JSON number or a numeric string; output is a decimal string. */
 export const siNumber = z
 	.union([
-		z.number({ error: 'Enter a number.' }),
+		z.number({ error: 'Enter a number.' }).refine(Number.isFinite, 'Enter a finite number.'),
 		z
 			.string()
 			.trim()
@@ -22,115 +27,260 @@ export const siNumber = z
 	])
 	.transform((v) => (typeof v === 'number' ? String(v) : v));
 
-const optionalNumber = siNumber.nullish();
-const label = z.string().trim().max(200).nullish();
-const definition = z.enum(['1/e', '1/e2', 'fwhm'], { error: 'Choose 1/e, 1/e2 or fwhm.' });
-const tissue = z.enum(['eye', 'skin'], { error: 'Choose eye or skin.' });
+/** An optional SI number: absent, null or a number; always null or a decimal string after parsing. */
+const siOrNull = siNumber.nullish().transform((v) => v ?? null);
+const text = (max: number) => z.string().trim().max(max, `At most ${max} characters.`).default('');
 
-const beam = {
-	wavelength: siNumber,
-	beamDiameter: siNumber,
-	beamDiameterDefinition: definition,
-	divergence: siNumber,
-	divergenceDefinition: definition,
-	beamQuality: optionalNumber
-};
-
-export const lineSchema = z.discriminatedUnion(
-	'mode',
-	[
-		z.object({ mode: z.literal('continuous'), power: siNumber, ...beam }).strict(),
-		z.object({ mode: z.literal('single_pulse'), pulseEnergy: siNumber, pulseDuration: siNumber, ...beam }).strict(),
-		z.object({ mode: z.literal('repetitive'), pulseEnergy: siNumber, pulseDuration: siNumber, repetitionRate: siNumber, ...beam }).strict()
-	],
-	{ error: 'Choose the emission mode: continuous, single_pulse or repetitive.' }
-);
-
-export const elementSchema = z.discriminatedUnion(
-	'kind',
-	[
-		z.object({ kind: z.literal('propagate'), length: siNumber, label }).strict(),
-		z.object({ kind: z.literal('transmission'), transmission: siNumber, label }).strict(),
-		z.object({ kind: z.literal('mirror'), reflectance: optionalNumber, label }).strict(),
-		z.object({ kind: z.literal('expander'), magnification: siNumber, label }).strict(),
-		z.object({ kind: z.literal('lens'), focalLength: siNumber, label }).strict(),
-		z.object({ kind: z.literal('fibre'), coreDiameter: siNumber, numericalAperture: siNumber, couplingTransmission: optionalNumber, label }).strict(),
-		z.object({ kind: z.literal('enclosure'), length: siNumber, label }).strict()
-	],
-	{ error: 'Choose an element kind: propagate, transmission, mirror, expander, lens, fibre or enclosure.' }
-);
-
-export const pointSchema = z
+/** An emission line of a laser, as stored (one column per field). */
+export const lineSchema = z
 	.object({
-		id: z.string().trim().min(1, 'Give the point an id.').max(100),
-		label,
-		position: siNumber,
-		tissue,
-		exposureDuration: optionalNumber,
-		kind: z.enum(['intrabeam', 'diffuse'], { error: 'Choose intrabeam or diffuse.' }),
-		reflectance: optionalNumber,
-		viewingAngle: optionalNumber,
-		viewingDistance: optionalNumber
+		id: z.string().trim().max(100).nullish().transform((v) => v ?? null),
+		label: text(120),
+		mode: z.enum(emissionModes, { error: 'Choose continuous, single_pulse or repetitive.' }),
+		wavelength: siNumber,
+		/** Upper end of a tunable line's range; null for a fixed line. */
+		wavelengthMax: siOrNull,
+		power: siOrNull,
+		pulseEnergy: siOrNull,
+		pulseDuration: siOrNull,
+		repetitionRate: siOrNull,
+		beamProfile: z.enum(beamProfiles, { error: 'Choose gaussian or flat_top.' }).default('gaussian'),
+		beamDiameter: siNumber,
+		beamDiameterDefinition: z.enum(beamDefinitions, { error: 'Choose 1/e, 1/e2 or fwhm.' }).default('1/e'),
+		divergence: siNumber,
+		divergenceDefinition: z.enum(beamDefinitions, { error: 'Choose 1/e, 1/e2 or fwhm.' }).default('1/e'),
+		beamQuality: siOrNull,
+		/** Peak ÷ average irradiance across the beam (≥ 1); null for an ideal profile. */
+		hotSpotFactor: siOrNull
 	})
 	.strict();
 
+/** A path element; only the fields of its kind are used (the others are null). */
+export const elementSchema = z
+	.object({
+		kind: z.enum(elementKinds, { error: `Choose an element kind: ${elementKinds.join(', ')}.` }),
+		label: text(120),
+		length: siOrNull,
+		transmission: siOrNull,
+		reflectance: siOrNull,
+		magnification: siOrNull,
+		focalLength: siOrNull,
+		coreDiameter: siOrNull,
+		numericalAperture: siOrNull,
+		couplingTransmission: siOrNull
+	})
+	.strict();
+
+/** A point of concern: where a person could be exposed. */
+export const pointSchema = z
+	.object({
+		id: z.string().trim().min(1, 'Give the point an id.').max(100),
+		label: text(120),
+		kind: z.enum(pointKinds, { error: 'Choose intrabeam or diffuse.' }),
+		tissue: z.enum(tissues, { error: 'Choose eye or skin.' }),
+		position: siNumber,
+		exposureDuration: siOrNull,
+		reflectance: siOrNull,
+		viewingAngle: siOrNull,
+		viewingDistance: siOrNull
+	})
+	.strict();
+
+/** Bounds of one path (a saved path and a preview alike). */
+export const PATH_BOUNDS = { lines: 1, elements: 200, points: 100 } as const;
+
+export const beamPathSchema = z
+	.object({
+		lines: z.array(lineSchema).min(1, 'A beam path carries an emission line.').max(PATH_BOUNDS.lines, `At most ${PATH_BOUNDS.lines} emission line.`),
+		elements: z.array(elementSchema).max(PATH_BOUNDS.elements, `At most ${PATH_BOUNDS.elements} path elements.`).default([]),
+		points: z.array(pointSchema).max(PATH_BOUNDS.points, `At most ${PATH_BOUNDS.points} points of concern.`).default([]),
+		/** Exposure duration assumed for the hazard distances (e.g. 0.25 s for accidental visible viewing). */
+		nohdExposureDuration: siOrNull
+	})
+	.strict();
+
+/** An exposure limit as the laser safety officer entered it from the local code. */
 export const limitSchema = z
 	.object({
 		id: z.string().trim().min(1).max(100),
 		version: z.union([z.string().trim().min(1).max(50), z.number().int().nonnegative()]).transform(String),
 		label: z.string().trim().min(1, 'Give the limit a label.').max(200),
-		tissue,
+		citation: z.string().trim().min(1, 'Cite the local code the limit comes from.').max(1000),
+		tissue: z.enum(tissues, { error: 'Choose eye or skin.' }),
 		wavelengthMin: siNumber,
 		wavelengthMax: siNumber,
 		durationMin: siNumber,
 		durationMax: siNumber,
-		quantity: z.enum(['irradiance', 'radiant_exposure'], { error: 'Choose irradiance or radiant_exposure.' }),
+		quantity: z.enum(limitQuantities, { error: 'Choose irradiance or radiant_exposure.' }),
+		/** Limit value k·tⁿ in W/m² or J/m², t in s. */
 		k: siNumber,
 		n: siNumber,
 		limitingAperture: siNumber,
-		pulseBasis: z.enum(['single_pulse', 'continuous'], { error: 'Choose single_pulse or continuous.' }),
-		pulseTrainExponent: optionalNumber,
-		citation: z.string().trim().min(1, 'Cite the local code the limit comes from.').max(1000)
+		pulseBasis: z.enum(pulseBases, { error: 'Choose single_pulse or continuous.' }),
+		/** Single-pulse limits: the pulse-train check multiplies the limit by N^exponent (N = f·T). */
+		pulseTrainExponent: siOrNull,
+		/** Set by the officer: the code applies no pulse-train correction to this single-pulse limit. */
+		noTrainCorrection: z.boolean().default(false)
 	})
 	.strict();
 
-/** Points × limits in one preview request (a path of 100 points against 20 limits). */
+export type LineSI = z.infer<typeof lineSchema>;
+export type ElementSI = z.infer<typeof elementSchema>;
+export type PointSI = z.infer<typeof pointSchema>;
+export type BeamPath = z.infer<typeof beamPathSchema>;
+export type LimitSI = z.infer<typeof limitSchema>;
+
+/** Points × limits in one preview request: the product bounds the work of one request. */
 export const PREVIEW_COMPARISONS_MAX = 2000;
 
-export const assessmentPreviewSchema = z
+/** Body of POST /api/assessments/preview: a path, and optionally the limits to compare with. */
+export const previewSchema = z
 	.object({
-		line: lineSchema,
-		elements: z.array(elementSchema).max(200, 'At most 200 path elements.').default([]),
-		// The same bounds as a saved path (schemas/register.ts): a preview is one path, not a batch.
-		points: z.array(pointSchema).max(100, 'At most 100 points of concern.'),
+		path: beamPathSchema,
 		/** Omitted: the route uses the limits in force in the library. */
 		limits: z.array(limitSchema).max(50, 'At most 50 limits in one preview.').optional(),
-		nohd: z.object({ exposureDuration: optionalNumber }).strict().nullish(),
-		options: z.object({ breakdown: z.boolean().optional() }).strict().nullish()
+		/** Include the step-by-step working (default true). */
+		breakdown: z.boolean().default(true)
 	})
 	.strict()
-	// Every point is compared with every limit: the product bounds the work of one request.
-	.refine((b) => !b.limits || b.points.length * b.limits.length <= PREVIEW_COMPARISONS_MAX, {
+	.refine((b) => !b.limits || b.path.points.length * b.limits.length <= PREVIEW_COMPARISONS_MAX, {
 		path: ['limits'],
 		message: `Too much for one preview: points × limits may be at most ${PREVIEW_COMPARISONS_MAX}.`
 	});
 
-export type AssessmentPreviewBody = z.infer<typeof assessmentPreviewSchema>;
-/** The body as sent (numbers may be JSON numbers). */
-export type AssessmentPreviewRequest = z.input<typeof assessmentPreviewSchema>;
+export type PreviewBody = z.infer<typeof previewSchema>;
+/** The body as sent (numbers may be JSON numbers, defaults may be left out). */
+export type PreviewRequest = z.input<typeof previewSchema>;
 
-/** Maps a parsed preview body to the engine input (values stay decimal strings in SI units). */
-export function toAssessmentInput(body: AssessmentPreviewBody): AssessmentInput {
-	const line: LineInput = { ...body.line };
-	const elements: ElementInput[] = body.elements.map((e) => ({ ...e }) as ElementInput);
-	const points: PointInput[] = body.points.map((p) => ({ ...p }));
-	const limits: LimitInput[] = (body.limits ?? []).map((l) => ({ ...l }));
+// ------------------------------------------------------------------ the one mapper from rows
+
+/** The columns of a stored emission line (a database row has at least these). */
+export interface LineColumns {
+	id: string;
+	label: string;
+	mode: EmissionMode;
+	wavelength: string;
+	wavelengthMax: string | null;
+	power: string | null;
+	pulseEnergy: string | null;
+	pulseDuration: string | null;
+	repetitionRate: string | null;
+	beamProfile: BeamProfile;
+	beamDiameter: string;
+	beamDiameterDefinition: BeamDefinition;
+	divergence: string;
+	divergenceDefinition: BeamDefinition;
+	beamQuality: string | null;
+	hotSpotFactor: string | null;
+}
+export type ElementColumns = { kind: ElementKind; label: string } & Record<Exclude<keyof ElementSI, 'kind' | 'label'>, string | null>;
+export interface PointColumns {
+	id: string;
+	label: string;
+	kind: PointKind;
+	tissue: Tissue;
+	position: string;
+	exposureDuration: string | null;
+	reflectance: string | null;
+	viewingAngle: string | null;
+	viewingDistance: string | null;
+}
+export interface LimitColumns {
+	limitId: string;
+	version: number;
+	label: string;
+	citation: string;
+	tissue: Tissue;
+	wavelengthMin: string;
+	wavelengthMax: string;
+	durationMin: string;
+	durationMax: string;
+	quantity: LimitQuantity;
+	k: string;
+	n: string;
+	limitingAperture: string;
+	pulseBasis: PulseBasis;
+	pulseTrainExponent: string | null;
+	noTrainCorrection: boolean;
+}
+
+export function lineFromRow(r: LineColumns): LineSI {
 	return {
-		line,
-		elements,
-		points,
-		limits,
-		nohd: body.nohd ? { exposureDuration: body.nohd.exposureDuration ?? null } : null,
-		options: body.options ? { breakdown: body.options.breakdown } : null
+		id: r.id,
+		label: r.label,
+		mode: r.mode,
+		wavelength: r.wavelength,
+		wavelengthMax: r.wavelengthMax,
+		power: r.power,
+		pulseEnergy: r.pulseEnergy,
+		pulseDuration: r.pulseDuration,
+		repetitionRate: r.repetitionRate,
+		beamProfile: r.beamProfile,
+		beamDiameter: r.beamDiameter,
+		beamDiameterDefinition: r.beamDiameterDefinition,
+		divergence: r.divergence,
+		divergenceDefinition: r.divergenceDefinition,
+		beamQuality: r.beamQuality,
+		hotSpotFactor: r.hotSpotFactor
+	};
+}
+
+export function elementFromRow(r: ElementColumns): ElementSI {
+	return {
+		kind: r.kind,
+		label: r.label,
+		length: r.length,
+		transmission: r.transmission,
+		reflectance: r.reflectance,
+		magnification: r.magnification,
+		focalLength: r.focalLength,
+		coreDiameter: r.coreDiameter,
+		numericalAperture: r.numericalAperture,
+		couplingTransmission: r.couplingTransmission
+	};
+}
+
+export function pointFromRow(r: PointColumns): PointSI {
+	return {
+		id: r.id,
+		label: r.label,
+		kind: r.kind,
+		tissue: r.tissue,
+		position: r.position,
+		exposureDuration: r.exposureDuration,
+		reflectance: r.reflectance,
+		viewingAngle: r.viewingAngle,
+		viewingDistance: r.viewingDistance
+	};
+}
+
+export function limitFromRow(r: LimitColumns): LimitSI {
+	return {
+		id: r.limitId,
+		version: String(r.version),
+		label: r.label,
+		citation: r.citation,
+		tissue: r.tissue,
+		wavelengthMin: r.wavelengthMin,
+		wavelengthMax: r.wavelengthMax,
+		durationMin: r.durationMin,
+		durationMax: r.durationMax,
+		quantity: r.quantity,
+		k: r.k,
+		n: r.n,
+		limitingAperture: r.limitingAperture,
+		pulseBasis: r.pulseBasis,
+		pulseTrainExponent: r.pulseTrainExponent,
+		noTrainCorrection: r.noTrainCorrection
+	};
+}
+
+/** A stored path (its row, its line, its elements and points in order) as the one SI shape. */
+export function beamPathFromRows(rows: { path: { nohdExposureDuration: string | null }; lines: LineColumns[]; elements: ElementColumns[]; points: PointColumns[] }): BeamPath {
+	return {
+		lines: rows.lines.map(lineFromRow),
+		elements: rows.elements.map(elementFromRow),
+		points: rows.points.map(pointFromRow),
+		nohdExposureDuration: rows.path.nohdExposureDuration
 	};
 }

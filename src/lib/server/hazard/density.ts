@@ -1,35 +1,17 @@
 /**
  * Optical density that eyewear (or any attenuator) must provide: OD = log₁₀(exposure/limit) when the
- * ratio exceeds 1, else 0 (common practice: OD = log₁₀(H/MPE)). Also rounded up to one decimal and to
- * a whole number (common practice: eyewear is specified by the next whole OD).
+ * ratio exceeds 1, else 0 (common practice: OD = log₁₀(H/MPE)), rounded up to a tenth and to a whole
+ * number (common practice: eyewear is specified by the next whole OD). Rounding is always up: a
+ * required OD is compared with what eyewear provides, so it may only err on the safe side. Noise
+ * below 1e-9 is settled first, so that an exact power of ten (ratio 1000 → OD 3) needs no extra OD.
  */
-import Decimal from 'decimal.js';
-import { numbersOf } from './constants';
-import { compare } from './digits';
-import { log10 } from './fastmath';
-import { fmt } from './format';
-import type { OpticalDensity } from './types';
+import type { OpticalDensity } from '$lib/assessmentResult';
 
-export interface OdValue {
-	value: Decimal;
-	roundedUpTenth: Decimal;
-	roundedUpWhole: Decimal;
-}
+const SETTLE = 1e9;
 
-export function requiredOpticalDensity(ratio: Decimal): OdValue {
-	const { ONE, ZERO } = numbersOf(ratio);
-	if (compare(ratio, ONE) <= 0) return { value: ZERO, roundedUpTenth: ZERO, roundedUpWhole: ZERO };
-	const value = log10(ratio);
-	// Round away digits below 1e-12 before rounding up, so that arithmetic noise on an exact power of
-	// ten cannot add a whole OD. Rounding up to a tenth: ⌈10·OD⌉/10, i.e. one decimal place, ceiling.
-	const settled = value.toDecimalPlaces(12, Decimal.ROUND_HALF_EVEN);
-	return {
-		value,
-		roundedUpTenth: settled.toDecimalPlaces(1, Decimal.ROUND_CEIL),
-		roundedUpWhole: settled.toDecimalPlaces(0, Decimal.ROUND_CEIL)
-	};
-}
-
-export function writeOd(od: OdValue): OpticalDensity {
-	return { value: fmt(od.value), roundedUpTenth: fmt(od.roundedUpTenth), roundedUpWhole: fmt(od.roundedUpWhole) };
+export function requiredOpticalDensity(ratio: number): OpticalDensity {
+	if (!(ratio > 1)) return { value: 0, roundedUpTenth: 0, roundedUpWhole: 0 };
+	const value = Math.log10(ratio);
+	const settled = Math.round(value * SETTLE) / SETTLE;
+	return { value, roundedUpTenth: Math.ceil(Math.round(settled * 10 * SETTLE) / SETTLE) / 10, roundedUpWhole: Math.ceil(settled) };
 }

@@ -1,75 +1,63 @@
 /**
- * Input validation: turns an AssessmentInput into a normalised model of decimals, collecting every
- * problem as a HazardInputError that names the field.
+ * Input rules of the engine: a beam path and limits, as decimal strings (or numbers) in SI units,
+ * become a normalised model of float64 numbers, and every problem becomes an error that names its
+ * field ('lines.0.power', 'elements.2.focalLength', 'points.1.reflectance', 'limits.3.n').
+ * The same rules serve the forms (the line form and the limit form check with them before saving).
  */
-import type Decimal from 'decimal.js';
-import { Dec, HALF_PI, ONE, WAVELENGTH_MAX, WAVELENGTH_MIN, ZERO, numbersFor, type DecimalClone } from './constants';
-import { compare } from './digits';
-import { ErrorList } from './errors';
+import { beamDefinitions, beamProfiles, elementKinds, emissionModes, limitQuantities, pointKinds, pulseBases, tissues } from '$lib/enums';
+import type { BeamDefinition, BeamProfile, ElementKind, EmissionMode, LimitQuantity, PointKind, PulseBasis, Tissue } from '$lib/enums';
+import type { InputError } from '$lib/assessmentResult';
+import { WAVELENGTH_MAX, WAVELENGTH_MIN } from './constants';
 import { toOneOverE } from './beam';
-import { isMissing, optionalNumber, optionalText, requireEnum, requireNumber, requireText, type RangeRule } from './numbers';
-import type { BeamDefinition, EmissionMode, LimitQuantity, PulseBasis, Tissue } from './types';
-
-export const BEAM_DEFINITIONS = ['1/e', '1/e2', 'fwhm'] as const;
-export const EMISSION_MODES = ['continuous', 'single_pulse', 'repetitive'] as const;
-export const TISSUES = ['eye', 'skin'] as const;
-export const POINT_KINDS = ['intrabeam', 'diffuse'] as const;
-export const ELEMENT_KINDS = ['propagate', 'transmission', 'mirror', 'expander', 'lens', 'fibre', 'enclosure'] as const;
-export const LIMIT_QUANTITIES = ['irradiance', 'radiant_exposure'] as const;
-export const PULSE_BASES = ['single_pulse', 'continuous'] as const;
-
-const POSITIVE: RangeRule = { min: ZERO, minExclusive: true, describe: 'greater than zero' };
-const NON_NEGATIVE: RangeRule = { min: ZERO, describe: 'zero or more' };
-const FRACTION: RangeRule = { min: ZERO, max: ONE, describe: 'between 0 and 1' };
-const AT_LEAST_ONE: RangeRule = { min: ONE, describe: '1 or more' };
-const NOT_POSITIVE: RangeRule = { max: ZERO, describe: 'zero or negative (a pulse train never relaxes a limit)' };
-const WAVELENGTH: RangeRule = { min: WAVELENGTH_MIN, max: WAVELENGTH_MAX, describe: 'between 180 nm and 1 mm (1.8e-7 to 1e-3 m)' };
-const NUMERICAL_APERTURE: RangeRule = { min: ZERO, minExclusive: true, max: ONE, describe: 'greater than 0 and at most 1' };
-const VIEWING_ANGLE: RangeRule = { min: ZERO, max: HALF_PI, maxExclusive: true, describe: 'at least 0 and less than π/2 rad (90°)' };
 
 export interface NormLine {
-	wavelength: Decimal;
+	index: number;
+	id: string | null;
+	label: string;
+	wavelength: number;
 	mode: EmissionMode;
-	/** Continuous power (continuous mode). */
-	power: Decimal | null;
-	pulseEnergy: Decimal | null;
-	pulseDuration: Decimal | null;
-	repetitionRate: Decimal | null;
+	/** Q for pulsed modes, τ, f for repetitive; null otherwise. */
+	pulseEnergy: number | null;
+	pulseDuration: number | null;
+	repetitionRate: number | null;
 	/** P for continuous, Q·f for repetitive, null for a single pulse. */
-	averagePower: Decimal | null;
+	averagePower: number | null;
 	/** Q/τ for pulsed modes. */
-	peakPower: Decimal | null;
-	/** Beam diameter and divergence at the aperture as entered, and on the 1/e basis. */
-	beamDiameterEntered: Decimal;
+	peakPower: number | null;
+	profile: BeamProfile;
+	/** As entered, and as used: 1/e for a Gaussian beam, the full width for a flat-top one. */
+	beamDiameterEntered: number;
 	beamDiameterDefinition: BeamDefinition;
-	divergenceEntered: Decimal;
+	divergenceEntered: number;
 	divergenceDefinition: BeamDefinition;
-	d0: Decimal;
-	divergence: Decimal;
-	beamQuality: Decimal;
+	d0: number;
+	divergence: number;
+	beamQuality: number;
+	/** Peak ÷ average across the beam, 1 when not given. */
+	hotSpot: number;
 }
 
-export type NormElement = { index: number; label: string } & (
-	| { kind: 'propagate'; length: Decimal; end?: Decimal }
-	| { kind: 'enclosure'; length: Decimal; end?: Decimal }
-	| { kind: 'transmission'; factor: Decimal }
-	| { kind: 'mirror'; factor: Decimal }
-	| { kind: 'expander'; magnification: Decimal }
-	| { kind: 'lens'; focalLength: Decimal }
-	| { kind: 'fibre'; coreDiameter: Decimal; numericalAperture: Decimal; factor: Decimal }
-);
+export type NormElement = { index: number; label: string; kind: ElementKind } & {
+	length: number;
+	/** Power factor of the element (transmission, reflectance, fibre coupling); 1 for the others. */
+	factor: number;
+	magnification: number;
+	focalLength: number;
+	coreDiameter: number;
+	numericalAperture: number;
+};
 
 export interface NormPoint {
 	index: number;
 	id: string;
 	label: string;
-	position: Decimal;
+	position: number;
 	tissue: Tissue;
-	kind: 'intrabeam' | 'diffuse';
-	exposureDuration: Decimal | null;
-	reflectance: Decimal | null;
-	viewingAngle: Decimal;
-	viewingDistance: Decimal | null;
+	kind: PointKind;
+	exposureDuration: number | null;
+	reflectance: number | null;
+	viewingAngle: number;
+	viewingDistance: number | null;
 }
 
 export interface NormLimit {
@@ -79,416 +67,370 @@ export interface NormLimit {
 	label: string;
 	citation: string;
 	tissue: Tissue;
-	wavelengthMin: Decimal;
-	wavelengthMax: Decimal;
-	durationMin: Decimal;
-	durationMax: Decimal;
+	wavelengthMin: number;
+	wavelengthMax: number;
+	durationMin: number;
+	durationMax: number;
 	quantity: LimitQuantity;
-	k: Decimal;
-	n: Decimal;
-	limitingAperture: Decimal;
+	k: number;
+	n: number;
+	limitingAperture: number;
 	pulseBasis: PulseBasis;
-	pulseTrainExponent: Decimal | null;
-	/** 1/(π·D_f²/4), the reciprocal of the aperture area; null when D_f = 0. */
-	perApertureArea: Decimal | null;
-	/** Written values (12 digits), formed when first needed; shared like the memos. */
-	texts: { k?: string; n?: string; aperture?: string; trainExponent?: string };
-	/** Memo of k·tⁿ and of its reciprocal, keyed by the (interned) duration instance. */
-	memo: Map<Decimal, Decimal>;
-	inverseMemo: Map<Decimal, Decimal>;
+	trainExponent: number | null;
+	noTrainCorrection: boolean;
 }
 
-export interface NormInput {
-	line: NormLine;
+export interface NormPath {
+	lines: NormLine[];
 	elements: NormElement[];
 	points: NormPoint[];
-	limits: NormLimit[];
-	nohdExposureDuration: Decimal | null;
-	breakdown: boolean;
+	nohdExposureDuration: number | null;
+	/** Sum of the propagation and enclosure lengths, m. */
+	length: number;
 }
 
-function isRecord(value: unknown): value is Record<string, unknown> {
-	return typeof value === 'object' && value !== null && !Array.isArray(value);
-}
+/** Numbers the engine takes: zero, or a magnitude between 1e-30 and 1e30, so nothing over- or underflows. */
+const MAGNITUDE_MIN = 1e-30;
+const MAGNITUDE_MAX = 1e30;
+const DECIMAL_TEXT = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
-/** Durations are interned by value so that a limit evaluated at the same t is computed once. */
-class Interner {
-	// An assessment has a handful of distinct durations: a list compared by identity, then by value.
-	private readonly seen: Decimal[] = [];
-	get(d: Decimal): Decimal {
-		for (const s of this.seen) if (s === d) return s;
-		for (const s of this.seen) if (compare(s, d) === 0) return s;
-		this.seen.push(d);
-		return d;
+interface Rule {
+	min?: number;
+	minExclusive?: boolean;
+	max?: number;
+	maxExclusive?: boolean;
+	describe: string;
+}
+const POSITIVE: Rule = { min: 0, minExclusive: true, describe: 'greater than zero' };
+const NON_NEGATIVE: Rule = { min: 0, describe: 'zero or more' };
+const FRACTION: Rule = { min: 0, max: 1, describe: 'between 0 and 1' };
+const AT_LEAST_ONE: Rule = { min: 1, describe: '1 or more' };
+const HOT_SPOT: Rule = { min: 1, max: 1000, describe: 'between 1 (an even profile) and 1000' };
+const WAVELENGTH: Rule = { min: WAVELENGTH_MIN, max: WAVELENGTH_MAX, describe: 'between 180 nm and 1 mm (1.8e-7 to 1e-3 m)' };
+const DIVERGENCE: Rule = { min: 0, max: Math.PI, describe: 'between 0 and π rad (180°)' };
+const MAGNIFICATION: Rule = { min: 0.01, max: 1000, describe: 'between 0.01 and 1000' };
+const FOCAL_LENGTH: Rule = { min: 1e-3, describe: 'at least 1 mm (a shorter focal length is not a lens a beam path uses)' };
+const NUMERICAL_APERTURE: Rule = { min: 0, minExclusive: true, max: 1, describe: 'greater than 0 and at most 1' };
+const VIEWING_ANGLE: Rule = { min: 0, max: Math.PI / 2, maxExclusive: true, describe: 'at least 0 and less than π/2 rad (90°)' };
+const EXPONENT: Rule = { min: -2, max: 2, describe: 'between −2 and 2' };
+const TRAIN_EXPONENT: Rule = { min: -2, max: 0, describe: 'between −2 and 0 (a pulse train never relaxes a limit)' };
+
+export class Errors {
+	readonly items: InputError[] = [];
+	add(field: string, reason: string): void {
+		this.items.push({ field, reason });
+	}
+	get empty(): boolean {
+		return this.items.length === 0;
 	}
 }
 
-function validateLine(raw: unknown, errors: ErrorList, D: DecimalClone): NormLine | undefined {
-	if (!isRecord(raw)) {
-		errors.add('line', 'The emission line is required (wavelength, mode, beam diameter and divergence).');
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+const isMissing = (v: unknown) => v === undefined || v === null || (typeof v === 'string' && v.trim() === '');
+
+/** A number from a decimal string or a JSON number, checked against a rule; undefined (error added) when it is not. */
+function num(errors: Errors, field: string, raw: unknown, rule: Rule | null, what: string): number | undefined {
+	let v: number;
+	if (typeof raw === 'number') v = raw;
+	else if (typeof raw === 'string' && DECIMAL_TEXT.test(raw.trim())) v = Number(raw.trim());
+	else if (isMissing(raw)) {
+		errors.add(field, `${what} is required.`);
+		return undefined;
+	} else {
+		errors.add(field, `${what} must be a number in SI units (digits, “.” and an optional exponent).`);
 		return undefined;
 	}
-	// Wavelengths and repetition rates recur across a register: read through the cache.
-	const wavelength = requireNumber(errors, 'line.wavelength', raw.wavelength, WAVELENGTH, 'The wavelength', D, true);
-	const mode = requireEnum(errors, 'line.mode', raw.mode, EMISSION_MODES, 'The emission mode');
-	let power: Decimal | null = null;
-	let pulseEnergy: Decimal | null = null;
-	let pulseDuration: Decimal | null = null;
-	let repetitionRate: Decimal | null = null;
-	let ok = wavelength !== undefined && mode !== undefined;
-	if (mode === 'continuous') {
-		const p = requireNumber(errors, 'line.power', raw.power, POSITIVE, 'The power', D);
-		if (p === undefined) ok = false;
-		else power = p;
-	} else if (mode === 'single_pulse' || mode === 'repetitive') {
-		const q = requireNumber(errors, 'line.pulseEnergy', raw.pulseEnergy, POSITIVE, 'The pulse energy', D);
-		const tau = requireNumber(errors, 'line.pulseDuration', raw.pulseDuration, POSITIVE, 'The pulse duration', D);
-		if (q === undefined || tau === undefined) ok = false;
-		else {
-			pulseEnergy = q;
-			pulseDuration = tau;
-		}
-		if (mode === 'repetitive') {
-			const f = requireNumber(errors, 'line.repetitionRate', raw.repetitionRate, POSITIVE, 'The repetition rate', D, true);
-			if (f === undefined) ok = false;
-			else {
-				repetitionRate = f;
-				if (tau !== undefined && tau.times(f).gte(ONE)) {
-					errors.add('line.pulseDuration', `The pulse is longer than its period: τ = ${tau.toString()} s but 1/f = ${ONE.div(f).toSignificantDigits(6).toString()} s.`);
-					ok = false;
-				}
-			}
+	if (!Number.isFinite(v)) {
+		errors.add(field, `${what} must be a finite number.`);
+		return undefined;
+	}
+	const a = Math.abs(v);
+	if (a !== 0 && (a < MAGNITUDE_MIN || a > MAGNITUDE_MAX)) {
+		errors.add(field, `${what} is outside the range the engine accepts (zero, or a size between 1e-30 and 1e30 in SI units).`);
+		return undefined;
+	}
+	if (rule) {
+		const low = rule.min !== undefined && (rule.minExclusive ? v <= rule.min : v < rule.min);
+		const high = rule.max !== undefined && (rule.maxExclusive ? v >= rule.max : v > rule.max);
+		if (low || high) {
+			errors.add(field, `${what} must be ${rule.describe}.`);
+			return undefined;
 		}
 	}
-	const d0Entered = requireNumber(errors, 'line.beamDiameter', raw.beamDiameter, POSITIVE, 'The beam diameter', D);
-	const d0Def = requireEnum(errors, 'line.beamDiameterDefinition', raw.beamDiameterDefinition, BEAM_DEFINITIONS, 'The beam diameter definition');
-	const phiEntered = requireNumber(errors, 'line.divergence', raw.divergence, NON_NEGATIVE, 'The divergence', D);
-	const phiDef = requireEnum(errors, 'line.divergenceDefinition', raw.divergenceDefinition, BEAM_DEFINITIONS, 'The divergence definition');
-	const m2 = optionalNumber(errors, 'line.beamQuality', raw.beamQuality, AT_LEAST_ONE, 'The beam quality M²', D);
-	if (!ok || d0Entered === undefined || d0Def === undefined || phiEntered === undefined || phiDef === undefined || m2 === undefined) return undefined;
+	return v;
+}
 
-	const averagePower = mode === 'continuous' ? power : mode === 'repetitive' ? pulseEnergy!.times(repetitionRate!) : null;
-	const peakPower = mode === 'continuous' ? null : pulseEnergy!.div(pulseDuration!);
+/** Like num, but absent is null. */
+function optionalNum(errors: Errors, field: string, raw: unknown, rule: Rule | null, what: string): number | null | undefined {
+	return isMissing(raw) ? null : num(errors, field, raw, rule, what);
+}
+
+function oneOf<T extends string>(errors: Errors, field: string, raw: unknown, allowed: readonly T[], what: string): T | undefined {
+	if (typeof raw === 'string' && (allowed as readonly string[]).includes(raw)) return raw as T;
+	errors.add(field, `${what} must be one of ${allowed.join(', ')}.`);
+	return undefined;
+}
+
+function textOf(raw: unknown, fallback: string): string {
+	return typeof raw === 'string' && raw.trim() !== '' ? raw.trim().slice(0, 200) : fallback;
+}
+
+// ------------------------------------------------------------------ lines
+
+export function readLine(raw: unknown, i: number, errors: Errors): NormLine | undefined {
+	const at = `lines.${i}`;
+	if (!isRecord(raw)) {
+		errors.add(at, 'The emission line is required (wavelength, mode, beam diameter and divergence).');
+		return undefined;
+	}
+	const n0 = errors.items.length;
+	const wavelength = num(errors, `${at}.wavelength`, raw.wavelength, WAVELENGTH, 'The wavelength');
+	if (!isMissing(raw.wavelengthMax)) {
+		const top = num(errors, `${at}.wavelengthMax`, raw.wavelengthMax, WAVELENGTH, 'The upper end of the tuning range');
+		if (top !== undefined && wavelength !== undefined && top < wavelength) errors.add(`${at}.wavelengthMax`, 'The upper end of the tuning range must not be below the wavelength.');
+	}
+	const mode = oneOf(errors, `${at}.mode`, raw.mode, emissionModes, 'The emission mode');
+	let power: number | undefined;
+	let q: number | undefined;
+	let tau: number | undefined;
+	let f: number | undefined;
+	if (mode === 'continuous') power = num(errors, `${at}.power`, raw.power, POSITIVE, 'The power');
+	if (mode === 'single_pulse' || mode === 'repetitive') {
+		q = num(errors, `${at}.pulseEnergy`, raw.pulseEnergy, POSITIVE, 'The pulse energy');
+		tau = num(errors, `${at}.pulseDuration`, raw.pulseDuration, POSITIVE, 'The pulse duration');
+	}
+	if (mode === 'repetitive') {
+		f = num(errors, `${at}.repetitionRate`, raw.repetitionRate, POSITIVE, 'The repetition rate');
+		if (f !== undefined && tau !== undefined && tau * f >= 1) errors.add(`${at}.pulseDuration`, `The pulse is longer than its period: τ = ${tau} s but 1/f = ${Number((1 / f).toPrecision(6))} s.`);
+	}
+	const profile = isMissing(raw.beamProfile) ? 'gaussian' : oneOf(errors, `${at}.beamProfile`, raw.beamProfile, beamProfiles, 'The beam profile');
+	const d = num(errors, `${at}.beamDiameter`, raw.beamDiameter, POSITIVE, 'The beam diameter');
+	const dDef = isMissing(raw.beamDiameterDefinition) ? '1/e' : oneOf(errors, `${at}.beamDiameterDefinition`, raw.beamDiameterDefinition, beamDefinitions, 'The beam diameter definition');
+	const phi = num(errors, `${at}.divergence`, raw.divergence, DIVERGENCE, 'The divergence');
+	const phiDef = isMissing(raw.divergenceDefinition) ? '1/e' : oneOf(errors, `${at}.divergenceDefinition`, raw.divergenceDefinition, beamDefinitions, 'The divergence definition');
+	const m2 = optionalNum(errors, `${at}.beamQuality`, raw.beamQuality, AT_LEAST_ONE, 'The beam quality M²');
+	const hot = optionalNum(errors, `${at}.hotSpotFactor`, raw.hotSpotFactor, HOT_SPOT, 'The hot-spot factor (peak ÷ average)');
+	if (errors.items.length > n0 || wavelength === undefined || mode === undefined || profile === undefined || d === undefined || dDef === undefined || phi === undefined || phiDef === undefined || m2 === undefined || hot === undefined) return undefined;
+	const flat = profile === 'flat_top';
 	return {
-		wavelength: wavelength!,
-		mode: mode!,
-		power,
-		pulseEnergy,
-		pulseDuration,
-		repetitionRate,
-		averagePower,
-		peakPower,
-		beamDiameterEntered: d0Entered,
-		beamDiameterDefinition: d0Def,
-		divergenceEntered: phiEntered,
+		index: i,
+		id: typeof raw.id === 'string' ? raw.id : null,
+		label: textOf(raw.label, `line ${i + 1}`),
+		wavelength,
+		mode,
+		pulseEnergy: q ?? null,
+		pulseDuration: tau ?? null,
+		repetitionRate: f ?? null,
+		averagePower: mode === 'continuous' ? power! : mode === 'repetitive' ? q! * f! : null,
+		peakPower: mode === 'continuous' ? null : q! / tau!,
+		profile,
+		beamDiameterEntered: d,
+		beamDiameterDefinition: dDef,
+		divergenceEntered: phi,
 		divergenceDefinition: phiDef,
-		d0: toOneOverE(d0Entered, d0Def),
-		divergence: toOneOverE(phiEntered, phiDef),
-		beamQuality: m2 ?? numbersFor(D).ONE
+		// A flat-top beam is entered by its full width, which is what its irradiance is averaged over.
+		d0: flat ? d : toOneOverE(d, dDef),
+		divergence: flat ? phi : toOneOverE(phi, phiDef),
+		beamQuality: m2 ?? 1,
+		hotSpot: hot ?? 1
 	};
 }
 
-function validateElement(raw: unknown, i: number, errors: ErrorList, D: DecimalClone): NormElement | undefined {
+/** The line rules alone, for the line form: every problem, named by its field ('power', …). */
+export function lineProblems(raw: unknown): InputError[] {
+	const errors = new Errors();
+	readLine(raw, 0, errors);
+	return errors.items.map((e) => ({ field: e.field.replace(/^lines\.0\.?/, ''), reason: e.reason }));
+}
+
+// ------------------------------------------------------------------ elements and points
+
+function readElement(raw: unknown, i: number, errors: Errors): NormElement | undefined {
 	const at = `elements.${i}`;
 	if (!isRecord(raw)) {
 		errors.add(at, `Element ${i + 1} must be an object with a kind.`);
 		return undefined;
 	}
-	const kind = requireEnum(errors, `${at}.kind`, raw.kind, ELEMENT_KINDS, 'The element kind');
+	const kind = oneOf(errors, `${at}.kind`, raw.kind, elementKinds, 'The element kind');
 	if (kind === undefined) return undefined;
-	const label = optionalText(raw.label, kind);
+	const e: NormElement = { index: i, label: textOf(raw.label, ''), kind, length: 0, factor: 1, magnification: 1, focalLength: 0, coreDiameter: 0, numericalAperture: 0 };
+	const n0 = errors.items.length;
 	switch (kind) {
 		case 'propagate':
-		case 'enclosure': {
-			const length = requireNumber(errors, `${at}.length`, raw.length, NON_NEGATIVE, 'The length', D);
-			return length === undefined ? undefined : { index: i, label, kind, length };
-		}
-		case 'transmission': {
-			const factor = requireNumber(errors, `${at}.transmission`, raw.transmission, FRACTION, 'The transmission', D);
-			return factor === undefined ? undefined : { index: i, label, kind, factor };
-		}
-		case 'mirror': {
-			const factor = optionalNumber(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance', D);
-			return factor === undefined ? undefined : { index: i, label, kind, factor: factor ?? numbersFor(D).ONE };
-		}
-		case 'expander': {
-			const magnification = requireNumber(errors, `${at}.magnification`, raw.magnification, POSITIVE, 'The magnification', D);
-			return magnification === undefined ? undefined : { index: i, label, kind, magnification };
-		}
-		case 'lens': {
-			const focalLength = requireNumber(errors, `${at}.focalLength`, raw.focalLength, POSITIVE, 'The focal length', D);
-			return focalLength === undefined ? undefined : { index: i, label, kind, focalLength };
-		}
-		case 'fibre': {
-			const coreDiameter = requireNumber(errors, `${at}.coreDiameter`, raw.coreDiameter, POSITIVE, 'The core diameter', D);
-			const numericalAperture = requireNumber(errors, `${at}.numericalAperture`, raw.numericalAperture, NUMERICAL_APERTURE, 'The numerical aperture', D);
-			const factor = optionalNumber(errors, `${at}.couplingTransmission`, raw.couplingTransmission, FRACTION, 'The coupling transmission', D);
-			if (coreDiameter === undefined || numericalAperture === undefined || factor === undefined) return undefined;
-			return { index: i, label, kind, coreDiameter, numericalAperture, factor: factor ?? numbersFor(D).ONE };
-		}
+		case 'enclosure':
+			e.length = num(errors, `${at}.length`, raw.length, NON_NEGATIVE, 'The length') ?? 0;
+			break;
+		case 'transmission':
+			e.factor = num(errors, `${at}.transmission`, raw.transmission, FRACTION, 'The transmission') ?? 0;
+			break;
+		case 'mirror':
+			e.factor = optionalNum(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance') ?? 1;
+			break;
+		case 'expander':
+			e.magnification = num(errors, `${at}.magnification`, raw.magnification, MAGNIFICATION, 'The magnification') ?? 1;
+			break;
+		case 'lens':
+			e.focalLength = num(errors, `${at}.focalLength`, raw.focalLength, FOCAL_LENGTH, 'The focal length') ?? 0;
+			break;
+		case 'fibre':
+			e.coreDiameter = num(errors, `${at}.coreDiameter`, raw.coreDiameter, POSITIVE, 'The core diameter') ?? 0;
+			e.numericalAperture = num(errors, `${at}.numericalAperture`, raw.numericalAperture, NUMERICAL_APERTURE, 'The numerical aperture') ?? 0;
+			e.factor = optionalNum(errors, `${at}.couplingTransmission`, raw.couplingTransmission, FRACTION, 'The coupling transmission') ?? 1;
+			break;
 	}
+	return errors.items.length > n0 ? undefined : e;
 }
 
-function validatePoint(raw: unknown, i: number, errors: ErrorList, interner: Interner, D: DecimalClone): NormPoint | undefined {
+function readPoint(raw: unknown, i: number, errors: Errors): NormPoint | undefined {
 	const at = `points.${i}`;
 	if (!isRecord(raw)) {
 		errors.add(at, `Point ${i + 1} must be an object.`);
 		return undefined;
 	}
-	const id = requireText(errors, `${at}.id`, raw.id, 'The point id');
-	const position = requireNumber(errors, `${at}.position`, raw.position, NON_NEGATIVE, 'The position along the path', D);
-	const tissue = requireEnum(errors, `${at}.tissue`, raw.tissue, TISSUES, 'The tissue');
-	const kind = requireEnum(errors, `${at}.kind`, raw.kind, POINT_KINDS, 'The point kind');
-	// Exposure durations recur across a register (a few standard values): read through the cache.
-	const exposureDuration = optionalNumber(errors, `${at}.exposureDuration`, raw.exposureDuration, POSITIVE, 'The exposure duration', D, true);
-	const zero = numbersFor(D).ZERO;
-	let reflectance: Decimal | null | undefined = null;
-	let viewingAngle: Decimal | null | undefined = zero;
-	let viewingDistance: Decimal | null | undefined = null;
+	const n0 = errors.items.length;
+	const id = typeof raw.id === 'string' && raw.id.trim() !== '' ? raw.id.trim() : undefined;
+	if (id === undefined) errors.add(`${at}.id`, 'The point id is required.');
+	const position = num(errors, `${at}.position`, raw.position, NON_NEGATIVE, 'The position along the path');
+	const tissue = oneOf(errors, `${at}.tissue`, raw.tissue, tissues, 'The tissue');
+	const kind = oneOf(errors, `${at}.kind`, raw.kind, pointKinds, 'The point kind');
+	const exposureDuration = optionalNum(errors, `${at}.exposureDuration`, raw.exposureDuration, POSITIVE, 'The exposure duration');
+	let reflectance: number | null | undefined = null;
+	let viewingAngle: number | null | undefined = 0;
+	let viewingDistance: number | null | undefined = null;
 	if (kind === 'diffuse') {
-		reflectance = optionalNumber(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance', D);
-		viewingAngle = optionalNumber(errors, `${at}.viewingAngle`, raw.viewingAngle, VIEWING_ANGLE, 'The viewing angle', D);
-		viewingDistance = optionalNumber(errors, `${at}.viewingDistance`, raw.viewingDistance, POSITIVE, 'The viewing distance', D);
+		reflectance = optionalNum(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance');
+		viewingAngle = optionalNum(errors, `${at}.viewingAngle`, raw.viewingAngle, VIEWING_ANGLE, 'The viewing angle');
+		viewingDistance = optionalNum(errors, `${at}.viewingDistance`, raw.viewingDistance, POSITIVE, 'The viewing distance');
 	}
-	if (id === undefined || position === undefined || tissue === undefined || kind === undefined || exposureDuration === undefined || reflectance === undefined || viewingAngle === undefined || viewingDistance === undefined) return undefined;
+	if (errors.items.length > n0) return undefined;
 	return {
 		index: i,
-		id,
-		label: optionalText(raw.label, id),
-		position,
-		tissue,
-		kind,
-		exposureDuration: exposureDuration === null ? null : interner.get(exposureDuration),
-		reflectance,
-		viewingAngle: viewingAngle ?? zero,
-		viewingDistance
+		id: id!,
+		label: textOf(raw.label, id!),
+		position: position!,
+		tissue: tissue!,
+		kind: kind!,
+		exposureDuration: exposureDuration!,
+		reflectance: reflectance!,
+		viewingAngle: viewingAngle ?? 0,
+		viewingDistance: viewingDistance!
 	};
 }
 
-/**
- * A register offers the same few limits to every assessment. A valid limit is normalised once per
- * content and clone: the cache is keyed by the whole content (every field, compared by type and
- * value on each hit), never by id and version alone, so an edited limit that keeps its id (a
- * preview, a draft) is read afresh. Only plain strings and numbers (and a missing exponent) are
- * cached; anything else is validated every time. Invalid limits are never cached, so their errors
- * are always reported. Bounded: cleared when full.
- */
-type LimitCore = Omit<NormLimit, 'index'>;
-interface CachedLimit {
-	fields: unknown[];
-	core: LimitCore;
-}
-const LIMIT_CACHE_MAX = 512;
-const limitCaches = new Map<DecimalClone, Map<number, CachedLimit[]>>();
+// ------------------------------------------------------------------ limits
 
-/** Every field of the limit input (id … pulseTrainExponent), or null when one is not a plain string or number. */
-function limitFields(raw: Record<string, unknown>): unknown[] | null {
-	const out = [raw.id, raw.version, raw.label, raw.citation, raw.tissue, raw.wavelengthMin, raw.wavelengthMax, raw.durationMin, raw.durationMax, raw.quantity, raw.k, raw.n, raw.limitingAperture, raw.pulseBasis, raw.pulseTrainExponent];
-	for (const v of out) if (typeof v !== 'string' && typeof v !== 'number' && v !== undefined && v !== null) return null;
-	return out;
-}
-
-/** A cheap hash of the field values (lengths and a few characters of the strings, the numbers). */
-function hashFields(fields: unknown[]): number {
-	let h = 17;
-	for (const v of fields) {
-		if (typeof v === 'string') {
-			const n = v.length;
-			h = Math.imul(h ^ n, 0x9e3779b1);
-			if (n > 0) h = Math.imul(h ^ (v.charCodeAt(0) | (v.charCodeAt(n - 1) << 8) | (v.charCodeAt(n >> 1) << 16)), 0x85ebca6b);
-		} else if (typeof v === 'number') h = Math.imul(h ^ ((v * 1e6) | 0) ^ 0x5bd1e995, 0xc2b2ae35);
-		else h = Math.imul(h ^ (v === null ? 3 : 5), 0x27d4eb2f);
-	}
-	return h;
-}
-
-function sameFields(a: unknown[], b: unknown[]): boolean {
-	for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
-	return true;
-}
-
-function fromCore(c: LimitCore, index: number): NormLimit {
-	return {
-		index,
-		id: c.id,
-		version: c.version,
-		label: c.label,
-		citation: c.citation,
-		tissue: c.tissue,
-		wavelengthMin: c.wavelengthMin,
-		wavelengthMax: c.wavelengthMax,
-		durationMin: c.durationMin,
-		durationMax: c.durationMax,
-		quantity: c.quantity,
-		k: c.k,
-		n: c.n,
-		limitingAperture: c.limitingAperture,
-		pulseBasis: c.pulseBasis,
-		pulseTrainExponent: c.pulseTrainExponent,
-		perApertureArea: c.perApertureArea,
-		texts: c.texts,
-		memo: c.memo,
-		inverseMemo: c.inverseMemo
-	};
-}
-
-function validateLimit(raw: unknown, i: number, errors: ErrorList, D: DecimalClone): NormLimit | undefined {
+export function readLimit(raw: unknown, i: number, errors: Errors): NormLimit | undefined {
+	const at = `limits.${i}`;
 	if (!isRecord(raw)) {
-		errors.add(`limits.${i}`, `Limit ${i + 1} must be an object.`);
+		errors.add(at, `Limit ${i + 1} must be an object.`);
 		return undefined;
 	}
-	const fields = limitFields(raw);
-	if (fields === null) return readLimit(raw, i, errors, D);
-	let cache = limitCaches.get(D);
-	if (!cache) {
-		cache = new Map();
-		limitCaches.set(D, cache);
-	}
-	const hash = hashFields(fields);
-	const bucket = cache.get(hash);
-	if (bucket) for (const c of bucket) if (sameFields(c.fields, fields)) return fromCore(c.core, i);
-	const limit = readLimit(raw, i, errors, D);
-	if (limit) {
-		if (cache.size >= LIMIT_CACHE_MAX) cache.clear();
-		const entry = { fields, core: limit };
-		const list = cache.get(hash);
-		if (list) list.push(entry);
-		else cache.set(hash, [entry]);
-	}
-	return limit;
-}
-
-function readLimit(raw: Record<string, unknown>, i: number, errors: ErrorList, D: DecimalClone): NormLimit | undefined {
-	const at = `limits.${i}`;
-	const id = requireText(errors, `${at}.id`, raw.id, 'The limit id');
-	const version = requireText(errors, `${at}.version`, raw.version, 'The limit version');
-	const citation = requireText(errors, `${at}.citation`, raw.citation, 'The citation of the local code', 1000);
-	const tissue = requireEnum(errors, `${at}.tissue`, raw.tissue, TISSUES, 'The tissue');
-	const wavelengthMin = requireNumber(errors, `${at}.wavelengthMin`, raw.wavelengthMin, POSITIVE, 'The lower wavelength', D);
-	const wavelengthMax = requireNumber(errors, `${at}.wavelengthMax`, raw.wavelengthMax, POSITIVE, 'The upper wavelength', D);
-	const durationMin = requireNumber(errors, `${at}.durationMin`, raw.durationMin, NON_NEGATIVE, 'The shortest duration', D);
-	const durationMax = requireNumber(errors, `${at}.durationMax`, raw.durationMax, POSITIVE, 'The longest duration', D);
-	const quantity = requireEnum(errors, `${at}.quantity`, raw.quantity, LIMIT_QUANTITIES, 'The quantity');
-	const k = requireNumber(errors, `${at}.k`, raw.k, POSITIVE, 'The coefficient k', D);
-	const n = requireNumber(errors, `${at}.n`, raw.n, undefined, 'The exponent n', D);
-	const limitingAperture = requireNumber(errors, `${at}.limitingAperture`, raw.limitingAperture, NON_NEGATIVE, 'The limiting aperture', D);
-	const pulseBasis = requireEnum(errors, `${at}.pulseBasis`, raw.pulseBasis, PULSE_BASES, 'The pulse basis');
-	const pulseTrainExponent = optionalNumber(errors, `${at}.pulseTrainExponent`, raw.pulseTrainExponent, NOT_POSITIVE, 'The pulse-train exponent', D);
-	let ok = true;
-	if (wavelengthMin && wavelengthMax && wavelengthMax.lt(wavelengthMin)) {
-		errors.add(`${at}.wavelengthMax`, 'The upper wavelength must not be below the lower wavelength.');
-		ok = false;
-	}
-	if (durationMin && durationMax && durationMax.lt(durationMin)) {
-		errors.add(`${at}.durationMax`, 'The longest duration must not be below the shortest duration.');
-		ok = false;
-	}
-	if (pulseTrainExponent && pulseBasis === 'continuous') {
-		errors.add(`${at}.pulseTrainExponent`, 'Only single-pulse limits take a pulse-train exponent.');
-		ok = false;
-	}
-	if (!ok || id === undefined || version === undefined || citation === undefined || tissue === undefined || wavelengthMin === undefined || wavelengthMax === undefined || durationMin === undefined || durationMax === undefined || quantity === undefined || k === undefined || n === undefined || limitingAperture === undefined || pulseBasis === undefined || pulseTrainExponent === undefined) return undefined;
-	const K = numbersFor(D);
+	const n0 = errors.items.length;
+	const text = (f: string, what: string, max: number) => {
+		const v = raw[f];
+		if (typeof v === 'string' && v.trim() !== '' && v.length <= max) return v.trim();
+		if (typeof v === 'number' && f === 'version') return String(v);
+		errors.add(`${at}.${f}`, `${what} is required (at most ${max} characters).`);
+		return undefined;
+	};
+	const id = text('id', 'The limit id', 100);
+	const version = text('version', 'The limit version', 50);
+	const citation = text('citation', 'The citation of the local code', 1000);
+	const tissue = oneOf(errors, `${at}.tissue`, raw.tissue, tissues, 'The tissue');
+	const wavelengthMin = num(errors, `${at}.wavelengthMin`, raw.wavelengthMin, POSITIVE, 'The shortest wavelength');
+	const wavelengthMax = num(errors, `${at}.wavelengthMax`, raw.wavelengthMax, POSITIVE, 'The longest wavelength');
+	const durationMin = num(errors, `${at}.durationMin`, raw.durationMin, NON_NEGATIVE, 'The shortest duration');
+	const durationMax = num(errors, `${at}.durationMax`, raw.durationMax, POSITIVE, 'The longest duration');
+	const quantity = oneOf(errors, `${at}.quantity`, raw.quantity, limitQuantities, 'The quantity');
+	const k = num(errors, `${at}.k`, raw.k, POSITIVE, 'The coefficient k');
+	const n = num(errors, `${at}.n`, raw.n, EXPONENT, 'The exponent n');
+	const limitingAperture = num(errors, `${at}.limitingAperture`, raw.limitingAperture, NON_NEGATIVE, 'The limiting aperture');
+	const pulseBasis = oneOf(errors, `${at}.pulseBasis`, raw.pulseBasis, pulseBases, 'The pulse basis');
+	const trainExponent = optionalNum(errors, `${at}.pulseTrainExponent`, raw.pulseTrainExponent, TRAIN_EXPONENT, 'The pulse-train exponent');
+	const noTrainCorrection = raw.noTrainCorrection === true;
+	if (raw.noTrainCorrection !== undefined && raw.noTrainCorrection !== null && typeof raw.noTrainCorrection !== 'boolean') errors.add(`${at}.noTrainCorrection`, 'Must be true or false.');
+	if (wavelengthMin !== undefined && wavelengthMax !== undefined && wavelengthMax < wavelengthMin) errors.add(`${at}.wavelengthMax`, 'The longest wavelength must not be below the shortest.');
+	if (durationMin !== undefined && durationMax !== undefined && durationMax < durationMin) errors.add(`${at}.durationMax`, 'The longest duration must not be below the shortest.');
+	if (pulseBasis === 'continuous' && (trainExponent !== null || noTrainCorrection)) errors.add(`${at}.pulseTrainExponent`, 'Only single-pulse limits take a pulse-train rule.');
+	if (trainExponent !== null && trainExponent !== undefined && noTrainCorrection) errors.add(`${at}.noTrainCorrection`, 'Give either a pulse-train exponent or “no train correction”, not both.');
+	if (errors.items.length > n0) return undefined;
 	return {
 		index: i,
-		id,
-		version,
-		label: optionalText(raw.label, id),
-		citation,
-		tissue,
-		wavelengthMin,
-		wavelengthMax,
-		durationMin,
-		durationMax,
-		quantity,
-		k,
-		n,
-		limitingAperture,
-		pulseBasis,
-		pulseTrainExponent,
-		perApertureArea: limitingAperture.isZero() ? null : K.FOUR_OVER_PI.div(limitingAperture.times(limitingAperture)),
-		texts: {},
-		memo: new Map(),
-		inverseMemo: new Map()
+		id: id!,
+		version: version!,
+		label: textOf(raw.label, id!),
+		citation: citation!,
+		tissue: tissue!,
+		wavelengthMin: wavelengthMin!,
+		wavelengthMax: wavelengthMax!,
+		durationMin: durationMin!,
+		durationMax: durationMax!,
+		quantity: quantity!,
+		k: k!,
+		n: n!,
+		limitingAperture: limitingAperture!,
+		pulseBasis: pulseBasis!,
+		trainExponent: trainExponent ?? null,
+		noTrainCorrection
 	};
 }
 
-function validateList<T>(raw: unknown, field: string, required: boolean, errors: ErrorList, each: (item: unknown, i: number) => T | undefined): T[] | undefined {
-	if (isMissing(raw)) {
-		if (required) {
-			errors.add(field, 'This list is required (it may be empty).');
-			return undefined;
-		}
-		return [];
-	}
+/** The limit rules alone, for the limit form: every problem, named by its field ('n', …). */
+export function limitProblems(raw: unknown): InputError[] {
+	const errors = new Errors();
+	readLimit(raw, 0, errors);
+	return errors.items.map((e) => ({ field: e.field.replace(/^limits\.0\.?/, ''), reason: e.reason }));
+}
+
+// ------------------------------------------------------------------ the whole input
+
+function readList<T>(raw: unknown, field: string, errors: Errors, each: (item: unknown, i: number) => T | undefined): T[] | undefined {
+	if (isMissing(raw)) return [];
 	if (!Array.isArray(raw)) {
 		errors.add(field, 'This must be a list.');
 		return undefined;
 	}
 	const out: T[] = [];
 	let ok = true;
-	raw.forEach((item, i) => {
-		const v = each(item, i);
+	for (let i = 0; i < raw.length; i++) {
+		const v = each(raw[i], i);
 		if (v === undefined) ok = false;
 		else out.push(v);
-	});
+	}
 	return ok ? out : undefined;
 }
 
-export type Validated = { ok: true; input: NormInput } | { ok: false; errors: ErrorList };
+/** Relative tolerance for positions along the path (see the error budget in constants.ts). */
+export const POSITION_TOLERANCE = 1e-9;
 
-/**
- * Validates and normalises an assessment input into decimals of clone D (`Dec`, 40 digits, unless
- * told otherwise; assess() passes its 25-digit clone).
- */
-export function validate(raw: unknown, D: DecimalClone = Dec): Validated {
-	const errors = new ErrorList();
-	if (!isRecord(raw)) {
-		errors.add('', 'The assessment input must be an object with line, elements, points and limits.');
-		return { ok: false, errors };
+export type Validated = { ok: true; path: NormPath; limits: NormLimit[] } | { ok: false; errors: InputError[] };
+
+export function validate(path: unknown, limits: unknown): Validated {
+	const errors = new Errors();
+	if (!isRecord(path)) {
+		errors.add('', 'The beam path must be an object with lines, elements, points and nohdExposureDuration.');
+		return { ok: false, errors: errors.items };
 	}
-	const interner = new Interner();
-	const line = validateLine(raw.line, errors, D);
-	const elements = validateList(raw.elements, 'elements', false, errors, (e, i) => validateElement(e, i, errors, D));
-	const points = validateList(raw.points, 'points', true, errors, (p, i) => validatePoint(p, i, errors, interner, D));
-	const limits = validateList(raw.limits, 'limits', true, errors, (l, i) => validateLimit(l, i, errors, D));
+	let lines: NormLine[] | undefined;
+	if (!Array.isArray(path.lines) || path.lines.length === 0) errors.add('lines', 'A beam path needs its emission line.');
+	else lines = readList(path.lines, 'lines', errors, (l, i) => readLine(l, i, errors));
+	const elements = readList(path.elements, 'elements', errors, (e, i) => readElement(e, i, errors));
+	const points = readList(path.points, 'points', errors, (p, i) => readPoint(p, i, errors));
+	const limitList = readList(limits, 'limits', errors, (l, i) => readLimit(l, i, errors));
+	const nohd = optionalNum(errors, 'nohdExposureDuration', path.nohdExposureDuration, POSITIVE, 'The exposure duration for the hazard distances');
 
-	let nohdExposureDuration: Decimal | null | undefined = null;
-	if (!isMissing(raw.nohd)) {
-		if (!isRecord(raw.nohd)) errors.add('nohd', 'This must be an object with exposureDuration.');
-		else nohdExposureDuration = optionalNumber(errors, 'nohd.exposureDuration', raw.nohd.exposureDuration, POSITIVE, 'The NOHD exposure duration', D, true);
-	}
-	let breakdown = true;
-	if (isRecord(raw.options) && raw.options.breakdown === false) breakdown = false;
-
+	let length = 0;
+	if (elements) for (const e of elements) length += e.length;
 	if (points) {
 		const seen = new Map<string, number>();
 		for (const p of points) {
 			const first = seen.get(p.id);
 			if (first !== undefined) errors.add(`points.${p.index}.id`, `The point id “${p.id}” is already used by point ${first + 1}.`);
 			else seen.set(p.id, p.index);
+			if (elements && p.position > length * (1 + POSITION_TOLERANCE) + 1e-12)
+				errors.add(`points.${p.index}.position`, `The point lies past the end of the path: ${p.position} m along a path of ${Number(length.toPrecision(12))} m.`);
 		}
 	}
-	if (elements && points) {
-		let length = numbersFor(D).ZERO;
-		// The running sum is kept on each element (its end along the path) for the path walk.
-		for (const e of elements) if (e.kind === 'propagate' || e.kind === 'enclosure') e.end = length = length.plus(e.length);
-		for (const p of points) {
-			if (compare(p.position, length) > 0) {
-				errors.add(`points.${p.index}.position`, `The point lies past the end of the path: position ${p.position.toString()} m, path length ${length.toString()} m.`);
-			}
-		}
-	}
-	if (!errors.empty || !line || !elements || !points || !limits || nohdExposureDuration === undefined) return { ok: false, errors };
-	return {
-		ok: true,
-		input: {
-			line,
-			elements,
-			points,
-			limits,
-			nohdExposureDuration: nohdExposureDuration === null ? null : interner.get(nohdExposureDuration),
-			breakdown
-		}
-	};
+	if (!errors.empty || !lines || !elements || !points || !limitList || nohd === undefined) return { ok: false, errors: errors.items };
+	return { ok: true, path: { lines, elements, points, nohdExposureDuration: nohd, length }, limits: limitList };
 }

@@ -1,0 +1,29 @@
+// Every closed list of the register, written once: the PostgreSQL enums, the zod schemas and the
+// hazard engine all read them from here. Pure data (no imports), so drizzle-kit, the browser and the
+// engine can all load it.
+
+export const laserClasses = ['1', '1M', '2', '2M', '3R', '3B', '4'] as const;
+export const laserStatuses = ['active', 'in_storage', 'retired'] as const;
+export const emissionModes = ['continuous', 'single_pulse', 'repetitive'] as const;
+/** How a Gaussian beam's diameter or divergence was measured. */
+export const beamDefinitions = ['1/e', '1/e2', 'fwhm'] as const;
+/** Gaussian (with one of the definitions above) or flat-top (entered by its full width). */
+export const beamProfiles = ['gaussian', 'flat_top'] as const;
+export const elementKinds = ['propagate', 'transmission', 'mirror', 'expander', 'lens', 'fibre', 'enclosure'] as const;
+export const tissues = ['eye', 'skin'] as const;
+export const pointKinds = ['intrabeam', 'diffuse'] as const;
+export const verdicts = ['within_limit', 'exceeds_limit', 'no_applicable_limit', 'incomplete'] as const;
+export const limitQuantities = ['irradiance', 'radiant_exposure'] as const;
+export const pulseBases = ['single_pulse', 'continuous'] as const;
+
+export type LaserClass = (typeof laserClasses)[number];
+export type LaserStatus = (typeof laserStatuses)[number];
+export type EmissionMode = (typeof emissionModes)[number];
+export type BeamDefinition = (typeof beamDefinitions)[number];
+export type BeamProfile = (typeof beamProfiles)[number];
+export type ElementKind = (typeof elementKinds)[number];
+export type Tissue = (typeof tissues)[number];
+export type PointKind = (typeof pointKinds)[number];
+export type Verdict = (typeof verdicts)[number];
+export type LimitQuantity = (typeof limitQuantities)[number];
+export type PulseBasis = (typeof pulseBases)[number];

@@ -1,0 +1,131 @@
+/**
+ * The checks an emission line needs, and the limits that apply to each. Limits are always inputs
+ * (entered by the laser safety officer from the local code); no limit value is built in.
+ *
+ *   continuous   — E at the point (or H = E·T) against continuous-basis limits at t = T;
+ *   single pulse — H of one pulse against single-pulse limits at t = τ;
+ *   repetitive   — all three of: (1) the single pulse as above; (2) the average power Q·f against
+ *                  continuous-basis limits at t = T; (3) the pulse train: H of one pulse against a
+ *                  single-pulse limit × N^x, N = max(1, f·T). A single-pulse limit without an exponent
+ *                  makes check 3 incomplete — never skipped — unless the officer marked it
+ *                  "no train correction" (then N^0 = 1).
+ * A limit applies when tissue, pulse basis, wavelength (inclusive range) and the check's duration
+ * (inclusive range) match. Several applicable limits: each is compared and the most restrictive
+ * (highest ratio) decides.
+ */
+import type { CheckKind } from '$lib/assessmentResult';
+import type { LimitQuantity, PulseBasis, Tissue } from '$lib/enums';
+import type { NormLimit, NormLine } from './validate';
+
+export const MEASURE_UNIT = { irradiance: 'W/m²', radiant_exposure: 'J/m²' } as const;
+export const MEASURE_SYMBOL = { irradiance: 'E', radiant_exposure: 'H' } as const;
+
+export const CHECK_LABEL: Record<CheckKind, string> = {
+	continuous: 'Continuous exposure',
+	single_pulse: 'Single pulse',
+	average_power: 'Average power over T',
+	pulse_train: 'Pulse train'
+};
+
+/** The limit as evaluated for one check. */
+export interface LimitAt {
+	limit: NormLimit;
+	/** k·tⁿ, in the limit's quantity. */
+	base: number;
+	/** base × the train factor; null when the train rule is missing. */
+	value: number | null;
+	/** The same in the check's measure (what the exposure of the source is compared in). */
+	natural: number | null;
+	trainFactor?: number;
+	trainRule?: 'exponent' | 'no_correction' | 'missing';
+}
+
+export interface Plan {
+	kind: CheckKind;
+	label: string;
+	basis: PulseBasis;
+	/** τ or T; null when T is needed and missing. */
+	t: number | null;
+	tSymbol: 'τ' | 'T';
+	/** 'irradiance' when the source is a power, 'radiant_exposure' when it is a pulse energy. */
+	measure: LimitQuantity;
+	/** Power or energy at the aperture, and its symbol at a point. */
+	source: number;
+	symbol: 'P' | 'P_avg' | 'Q';
+	unit: 'W' | 'J';
+	/** Pulse-train check: N = max(1, f·T); null when T is missing. */
+	pulseCount: number | null;
+	/** Applicable limits per tissue, and each evaluated, once per assessment. */
+	applicable: Partial<Record<Tissue, LimitAt[]>>;
+}
+
+export function planChecks(line: NormLine, T: number | null): Plan[] {
+	const base = { applicable: {} };
+	if (line.mode === 'continuous') {
+		return [{ ...base, kind: 'continuous', label: CHECK_LABEL.continuous, basis: 'continuous', t: T, tSymbol: 'T', measure: 'irradiance', source: line.averagePower!, symbol: 'P', unit: 'W', pulseCount: null }];
+	}
+	const tau = line.pulseDuration!;
+	const single: Plan = { ...base, kind: 'single_pulse', label: CHECK_LABEL.single_pulse, basis: 'single_pulse', t: tau, tSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, symbol: 'Q', unit: 'J', pulseCount: null };
+	if (line.mode === 'single_pulse') return [single];
+	return [
+		single,
+		{ applicable: {}, kind: 'average_power', label: CHECK_LABEL.average_power, basis: 'continuous', t: T, tSymbol: 'T', measure: 'irradiance', source: line.averagePower!, symbol: 'P_avg', unit: 'W', pulseCount: null },
+		{ applicable: {}, kind: 'pulse_train', label: CHECK_LABEL.pulse_train, basis: 'single_pulse', t: tau, tSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, symbol: 'Q', unit: 'J', pulseCount: T === null ? null : Math.max(1, line.repetitionRate! * T) }
+	];
+}
+
+/** A pulse-train check needs T for N; the other checks need their t. */
+export function planMissesT(plan: Plan): boolean {
+	return plan.t === null || (plan.kind === 'pulse_train' && plan.pulseCount === null);
+}
+
+function evaluateLimit(limit: NormLimit, plan: Plan): LimitAt {
+	const t = plan.t!;
+	const base = limit.n === 0 ? limit.k : limit.k * Math.pow(t, limit.n);
+	const out: LimitAt = { limit, base, value: base, natural: null };
+	if (plan.kind === 'pulse_train') {
+		if (limit.trainExponent !== null) {
+			out.trainFactor = Math.pow(plan.pulseCount!, limit.trainExponent);
+			out.trainRule = 'exponent';
+			out.value = base * out.trainFactor;
+		} else if (limit.noTrainCorrection) {
+			out.trainFactor = 1;
+			out.trainRule = 'no_correction';
+		} else {
+			out.trainRule = 'missing';
+			out.value = null;
+		}
+	}
+	if (out.value !== null) out.natural = limit.quantity === plan.measure ? out.value : plan.measure === 'irradiance' ? out.value / t : out.value * t;
+	return out;
+}
+
+/** The limits that apply to a check of a line for a tissue, evaluated; once per assessment. */
+export function applicableLimits(plan: Plan, line: NormLine, tissue: Tissue, limits: NormLimit[]): LimitAt[] {
+	const hit = plan.applicable[tissue];
+	if (hit) return hit;
+	const out: LimitAt[] = [];
+	const t = plan.t;
+	if (t !== null && !(plan.kind === 'pulse_train' && plan.pulseCount === null)) {
+		const lambda = line.wavelength;
+		for (const l of limits) {
+			if (l.tissue === tissue && l.pulseBasis === plan.basis && l.wavelengthMin <= lambda && lambda <= l.wavelengthMax && l.durationMin <= t && t <= l.durationMax) out.push(evaluateLimit(l, plan));
+		}
+	}
+	plan.applicable[tissue] = out;
+	return out;
+}
+
+/** Check plans of a line by exposure duration, shared by every point and distance of one assessment. */
+export class Plans {
+	private readonly byT = new Map<number | null, Plan[]>();
+	constructor(readonly line: NormLine) {}
+	for(T: number | null): Plan[] {
+		let p = this.byT.get(T);
+		if (!p) {
+			p = planChecks(this.line, T);
+			this.byT.set(T, p);
+		}
+		return p;
+	}
+}

@@ -1,0 +1,212 @@
+/**
+ * evaluate(): the one entry of the engine. Validates, walks the path, evaluates every point, every
+ * stretch and every beam's hazard distance, and aggregates.
+ *
+ * Overall verdict: the worst verdict over the accessible points, with the precedence
+ *     exceeds_limit > incomplete > no_applicable_limit > within_limit.
+ * An assessment is never within limit while any accessible point is incomplete or has no applicable
+ * limit, and never within limit without any accessible point. Points inside an enclosure are
+ * computed and reported but take no part in the verdict, the worst point or the optical density.
+ */
+import type { AssessmentResult, HazardDistance, LineResult, Outcome, PointResult, StretchResult, Verdict } from '$lib/assessmentResult';
+import type { BeamPath, LimitSI } from '$lib/schemas/assessment';
+import { ELEMENTARY_CHARGE, ENGINE_VERSION, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT } from './constants';
+import { Plans } from './checks';
+import { requiredOpticalDensity } from './density';
+import { hazardDistance } from './distances';
+import { durationWarning, evaluatePoint, limitRef, VERDICT_RANK, worse, type Context } from './exposure';
+import { photonEnergy } from './photon';
+import { validate, type NormLimit, type NormLine, type NormPath, type NormPoint } from './validate';
+import { walkPath, type Origin } from './walk';
+import { Working } from './working';
+
+export interface EvaluateOptions {
+	/** Include the step-by-step working (default true). */
+	breakdown?: boolean;
+}
+
+/** Assess a beam path against the limits. Never throws: bad input comes back as errors naming fields. */
+export function evaluate(path: BeamPath | unknown, limits: LimitSI[] | unknown, options: EvaluateOptions = {}): Outcome {
+	const v = validate(path, limits);
+	if (!v.ok) return v;
+	try {
+		const result = compute(v.path, v.limits, options.breakdown !== false);
+		if (!finite(result.worstRatio) || !finite(result.nohd.distance)) throw new Error('a non-finite value arose');
+		return { ok: true, result };
+	} catch (err) {
+		// Not expected for any input the validation lets through; reported, never thrown.
+		return { ok: false, errors: [{ field: '', reason: `The assessment could not be computed (${err instanceof Error ? err.message : String(err)}). Check the inputs for extreme values.` }] };
+	}
+}
+
+const finite = (x: number | null) => x === null || Number.isFinite(x);
+
+function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): AssessmentResult {
+	const walk = walkPath(path.lines, path.elements, path.length);
+	const ctx: Context = { path, limits, walk, plans: path.lines.map((l) => new Plans(l)), photonEnergy: path.lines.map((l) => photonEnergy(l.wavelength)), breakdown };
+	const used = new Set<number>();
+	const w = new Working(breakdown);
+
+	const lines = path.lines.map((line, i) => lineResult(line, ctx.photonEnergy[i], w, path.lines.length > 1 ? `line${i + 1}.` : ''));
+
+	// Hazard distances: one per beam (the aperture's and each element's); the largest is the NOHD.
+	const distances: HazardDistance[] = [];
+	let nohdIndex = 0;
+	walk.origins.forEach((origin, i) => {
+		const out = hazardDistance(ctx, origin, 'eye', path.nohdExposureDuration, null, '');
+		out.used.forEach((u) => used.add(u));
+		distances.push(out.result);
+		const best = distances[nohdIndex];
+		if (i > 0 && best.status !== 'unbounded' && (out.result.status === 'unbounded' || (out.result.distance ?? -1) > (best.distance ?? -1))) nohdIndex = i;
+	});
+	// The working of the deciding beam (recomputed with the working on, for its steps).
+	const nohd = breakdown ? hazardDistance(ctx, walk.origins[nohdIndex], 'eye', path.nohdExposureDuration, w, 'nohd').result : distances[nohdIndex];
+	if (breakdown) for (const o of walk.origins) if (o.lens) lensSteps(w, o, path.lines);
+
+	// Points.
+	const points: PointResult[] = [];
+	const ratios: (number | null)[] = [];
+	for (const p of path.points) {
+		const ev = evaluatePoint(ctx, p);
+		points.push(ev.result);
+		ratios.push(ev.ratio);
+		ev.used.forEach((u) => used.add(u));
+	}
+
+	// Open stretches: the worst ratio anywhere on them (eye, at the hazard-distance duration).
+	const stretches = walk.stretches.map<StretchResult>((s) => {
+		const base = { index: s.index, from: s.from, to: s.to, afterElement: walk.origins[s.origin].afterElement, enclosedBy: s.enclosedBy, beam: s.origin };
+		if (s.enclosedBy !== null) return { ...base, worstRatio: null, worstAt: null, verdict: null, reason: `Inside the enclosure (element ${s.enclosedBy + 1}): not accessible.` };
+		let worst: { ratio: number | null; at: number; verdict: Verdict } | null = null;
+		for (const z of stretchProbes(walk.origins[s.origin].states, s.from, s.to)) {
+			const ev = evaluatePoint(ctx, probe(z, path.nohdExposureDuration), false);
+			if (!worst || VERDICT_RANK[ev.result.verdict] > VERDICT_RANK[worst.verdict] || (ev.ratio !== null && (worst.ratio === null || ev.ratio > worst.ratio))) worst = { ratio: ev.ratio, at: z, verdict: ev.result.verdict };
+		}
+		const reason =
+			worst!.ratio === null
+				? worst!.verdict === 'incomplete'
+					? 'Needs the exposure duration for the hazard distances to find the worst exposure on this stretch.'
+					: 'No entered eye limit applies on this stretch. Not shown as safe.'
+				: `Worst eye exposure on this open stretch: ${Number(worst!.ratio.toPrecision(3))} × the limit at ${Number(worst!.at.toPrecision(4))} m.`;
+		return { ...base, worstRatio: worst!.ratio, worstAt: worst!.at, verdict: worst!.verdict, reason };
+	});
+
+	// Aggregation over accessible points.
+	let verdict: Verdict = 'within_limit';
+	let worstIndex = -1;
+	let anyAccessible = false;
+	points.forEach((p, i) => {
+		if (!p.accessible) return;
+		anyAccessible = true;
+		verdict = worse(verdict, p.verdict);
+		const r = ratios[i];
+		if (r !== null && (worstIndex < 0 || ratios[worstIndex] === null || r > ratios[worstIndex]!)) worstIndex = i;
+	});
+	if (!anyAccessible) verdict = 'incomplete';
+	if (worstIndex < 0 && anyAccessible) worstIndex = points.findIndex((p) => p.accessible && p.verdict === verdict);
+	const worst = worstIndex >= 0 ? points[worstIndex] : null;
+	const worstRatio = worst ? worst.worstRatio : null;
+
+	const warnings: string[] = [];
+	for (const line of path.lines) {
+		const warning = durationWarning(path.nohdExposureDuration, line.wavelength, 'eye', 'The exposure duration for the hazard distances');
+		if (warning && !warnings.includes(warning)) warnings.push(warning);
+	}
+
+	return {
+		engineVersion: ENGINE_VERSION,
+		verdict,
+		reason: overallReason(verdict, anyAccessible, worst),
+		worstPointId: worst ? worst.id : null,
+		worstRatio,
+		requiredOpticalDensity: worstRatio === null ? null : requiredOpticalDensity(worstRatio),
+		lines,
+		pathLength: path.length,
+		nohd,
+		hazardDistances: distances,
+		stretches,
+		points,
+		warnings,
+		limitsUsed: limits.filter((l) => used.has(l.index)).map(limitRef),
+		limitsConsidered: limits.map(limitRef),
+		breakdown: w.steps,
+		caution: RESULT_CAUTION
+	};
+}
+
+/** Where to look for the worst exposure on a stretch: its ends and each line's narrowest place on it. */
+function stretchProbes(states: { waistPosition: number }[], from: number, to: number): number[] {
+	const out = [from, to];
+	for (const s of states) {
+		const z = Math.min(to, Math.max(from, s.waistPosition));
+		if (!out.includes(z)) out.push(z);
+	}
+	return out;
+}
+
+function probe(z: number, T: number | null): NormPoint {
+	return { index: -1, id: 'probe', label: 'probe', position: z, tissue: 'eye', kind: 'intrabeam', exposureDuration: T, reflectance: null, viewingAngle: 0, viewingDistance: null };
+}
+
+function lineResult(line: NormLine, ePh: number, w: Working, p: string): LineResult {
+	const eV = ePh / ELEMENTARY_CHARGE;
+	const perPhoton = 1 / ePh;
+	if (w.enabled) {
+		w.add(`${p}photon-energy`, 'Photon energy', 'E_ph = h·c / λ', [['h', PLANCK_CONSTANT, 'J·s'], ['c', SPEED_OF_LIGHT, 'm/s'], ['λ', line.wavelength, 'm']], ePh, 'J', 'Exact SI 2019 constants.');
+		w.add(`${p}photon-energy-ev`, 'Photon energy in electronvolts', 'E_ph[eV] = E_ph / e', [['E_ph', ePh, 'J'], ['e', ELEMENTARY_CHARGE, 'C']], eV, 'eV');
+		if (line.profile === 'gaussian' && line.beamDiameterDefinition !== '1/e')
+			w.add(`${p}beam-diameter`, 'Beam diameter at the aperture on the 1/e basis', line.beamDiameterDefinition === '1/e2' ? 'D₀ = D₀(1/e²) / √2' : 'D₀ = D₀(FWHM) / √(ln 2)', [[line.beamDiameterDefinition === '1/e2' ? 'D₀(1/e²)' : 'D₀(FWHM)', line.beamDiameterEntered, 'm']], line.d0, 'm', 'Exact for a Gaussian beam.');
+		if (line.profile === 'gaussian' && line.divergenceDefinition !== '1/e')
+			w.add(`${p}divergence`, 'Divergence on the 1/e basis', line.divergenceDefinition === '1/e2' ? 'φ = φ(1/e²) / √2' : 'φ = φ(FWHM) / √(ln 2)', [[line.divergenceDefinition === '1/e2' ? 'φ(1/e²)' : 'φ(FWHM)', line.divergenceEntered, 'rad']], line.divergence, 'rad', 'Exact for a Gaussian beam.');
+		if (line.profile === 'flat_top') w.add(`${p}flat-top`, 'Flat-top beam: the full width is the averaging diameter', 'D₀ = W', [['W', line.beamDiameterEntered, 'm']], line.d0, 'm', 'Even irradiance P/(π·W²/4) across the full width W.');
+		if (line.mode === 'repetitive') w.add(`${p}average-power`, 'Average power', 'P_avg = Q·f', [['Q', line.pulseEnergy!, 'J'], ['f', line.repetitionRate!, 'Hz']], line.averagePower!, 'W');
+		if (line.peakPower !== null) w.add(`${p}peak-power`, 'Peak power', 'P_peak = Q / τ', [['Q', line.pulseEnergy!, 'J'], ['τ', line.pulseDuration!, 's']], line.peakPower, 'W');
+		if (line.averagePower !== null) w.add(`${p}photon-flux`, 'Photon flux', 'Φ = P / E_ph', [['P', line.averagePower, 'W'], ['E_ph', ePh, 'J']], line.averagePower * perPhoton, 's⁻¹');
+		if (line.pulseEnergy !== null) w.add(`${p}photons-per-pulse`, 'Photons per pulse', 'N_ph = Q / E_ph', [['Q', line.pulseEnergy, 'J'], ['E_ph', ePh, 'J']], line.pulseEnergy * perPhoton, '');
+	}
+	return {
+		index: line.index,
+		label: line.label,
+		wavelength: line.wavelength,
+		mode: line.mode,
+		photonEnergy: ePh,
+		photonEnergyEV: eV,
+		averagePower: line.averagePower,
+		peakPower: line.peakPower,
+		pulseEnergy: line.pulseEnergy,
+		pulseDuration: line.pulseDuration,
+		repetitionRate: line.repetitionRate,
+		photonFlux: line.averagePower === null ? null : line.averagePower * perPhoton,
+		peakPhotonFlux: line.peakPower === null ? null : line.peakPower * perPhoton,
+		photonsPerPulse: line.pulseEnergy === null ? null : line.pulseEnergy * perPhoton,
+		profile: line.profile,
+		beamDiameter: line.d0,
+		divergence: line.divergence,
+		beamQuality: line.beamQuality,
+		hotSpotFactor: line.hotSpot
+	};
+}
+
+function lensSteps(w: Working, o: Origin, lines: NormLine[]): void {
+	const lens = o.lens!;
+	const e = o.afterElement! + 1;
+	lines.forEach((line, i) => {
+		const p = lines.length > 1 ? `line${i + 1}.` : '';
+		w.add(`${p}lens${e}.focal-spot`, `Focal spot of the lens (element ${e}), 1/e`, 'd₀ = 2·M²·λ·f / (π·D_lens)', [['M²', line.beamQuality, ''], ['λ', line.wavelength, 'm'], ['f', lens.focalLength, 'm'], ['D_lens', lens.lensDiameters[i], 'm']], lens.focalSpots[i], 'm', 'Gaussian 1/e² waist 4·M²·λ·f/(π·D_lens,1/e²) rewritten on the 1/e basis.');
+		w.add(`${p}lens${e}.divergence`, `Divergence after the focus (element ${e})`, 'φ = 2·atan(D_lens / (2f))', [['D_lens', lens.lensDiameters[i], 'm'], ['f', lens.focalLength, 'm']], lens.divergences[i], 'rad', 'The full angle of the cone that converges on the focus.');
+	});
+}
+
+function overallReason(verdict: Verdict, anyAccessible: boolean, worst: PointResult | null): string {
+	if (!anyAccessible) return 'No accessible point of concern: mark where a person could be exposed. Not shown as safe.';
+	switch (verdict) {
+		case 'exceeds_limit':
+			return `At least one accessible point exceeds a limit; the worst is “${worst?.label}”.`;
+		case 'incomplete':
+			return 'At least one accessible point lacks input needed for a required check.';
+		case 'no_applicable_limit':
+			return 'At least one accessible point has a required check with no applicable limit. Not shown as safe.';
+		case 'within_limit':
+			return 'Every accessible point is within its most restrictive applicable limits.';
+	}
+}

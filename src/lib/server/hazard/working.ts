@@ -1,0 +1,22 @@
+/**
+ * The working: an ordered list of steps, each with its formula, the values that went in and the
+ * value that came out, so that an officer (or a test) can recompute every number from the list.
+ * When the caller asks for no breakdown, nothing is recorded (the preview's plot, the benchmark).
+ */
+import type { Step, StepInput } from '$lib/assessmentResult';
+
+export type In = readonly [symbol: string, value: number, unit: string];
+
+export class Working {
+	readonly steps: Step[] = [];
+	constructor(readonly enabled: boolean) {}
+
+	add(id: string, label: string, formula: string, inputs: readonly In[], value: number, unit: string, note?: string): void {
+		if (!this.enabled) return;
+		const list: StepInput[] = new Array(inputs.length);
+		for (let i = 0; i < inputs.length; i++) list[i] = { symbol: inputs[i][0], value: inputs[i][1], unit: inputs[i][2] };
+		const step: Step = { id, label, formula, inputs: list, value, unit };
+		if (note) step.note = note;
+		this.steps.push(step);
+	}
+}
