@@ -66,6 +66,8 @@ const line = (l: Partial<NewLaserForm['line']>): NewLaserForm['line'] => ({
 	divergence: '',
 	divergenceDefinition: '1/e2',
 	beamQuality: '',
+	beamProfile: 'gaussian',
+	hotSpotFactor: '',
 	...l
 });
 const el = blankElement;

@@ -1,10 +1,11 @@
 /**
  * What the hazard engine returns: plain JSON data, read by the server (snapshots, mails, reports)
- * and by the browser (the assessment panel, the plot). Types only.
+ * and by the browser (the assessment panel, the plot).
  *
  * Every number is a float64 in SI units (m, W, J, s, rad, W/m², J/m²), kept at full precision;
  * screens round for display (src/lib/display.ts). A value that cannot be computed is null, never
  * NaN or Infinity; an unbounded distance is null with `status: 'unbounded'`.
+ * Types, and one guard that tells a current result from an older engine's snapshot.
  */
 import type { ElementKind, EmissionMode, BeamProfile, LimitQuantity, PointKind, Tissue, Verdict } from './enums';
 
@@ -261,3 +262,8 @@ export interface InputError {
 }
 
 export type Outcome = { ok: true; result: AssessmentResult } | { ok: false; errors: InputError[] };
+
+/** True for a result of this engine generation (2.x); snapshots of older engines have another shape. */
+export function isCurrentResult(r: unknown): r is AssessmentResult {
+	return typeof r === 'object' && r !== null && Array.isArray((r as AssessmentResult).lines) && typeof (r as AssessmentResult).engineVersion === 'string';
+}

@@ -180,16 +180,22 @@ export function chooseUnit(valueSI: Decimal.Value, kind: QuantityKind): string {
 	return pick.symbol;
 }
 
+/** Rounding of a written value: to nearest, or toward the safe side of a comparison. */
+export type Toward = 'nearest' | 'up' | 'down';
+export const ROUNDING: Record<Toward, Decimal.Rounding> = { nearest: Decimal.ROUND_HALF_EVEN, up: Decimal.ROUND_CEIL, down: Decimal.ROUND_FLOOR };
+
 /**
  * Writes an SI value in a sensible unit ("532 nm", "5 mW", "2.546 mW/cm²"), or in `opts.unit`.
- * `significantDigits` defaults to 4. Throws RangeError for an unknown `opts.unit`.
+ * `significantDigits` defaults to 4; `toward` rounds up or down where the written value is compared
+ * with another (an exposure up, a limit down). Throws RangeError for an unknown `opts.unit`.
  */
-export function formatQuantity(valueSI: Decimal.Value, kind: QuantityKind, opts: { unit?: string; significantDigits?: number } = {}): string {
+export function formatQuantity(valueSI: Decimal.Value, kind: QuantityKind, opts: { unit?: string; significantDigits?: number; toward?: Toward } = {}): string {
 	const si = new UnitDecimal(valueSI);
 	if (!si.isFinite()) return '—';
 	const sd = opts.significantDigits ?? 4;
+	const rm = ROUNDING[opts.toward ?? 'nearest'];
 	// Choose the unit on the rounded value, so that 999.95 GW is written 1 TW rather than 1000 GW.
-	const def = requireUnit(opts.unit ?? chooseUnit(si.toSignificantDigits(sd), kind), kind);
-	const n = si.div(def.factor).toSignificantDigits(sd).toString();
+	const def = requireUnit(opts.unit ?? chooseUnit(si.toSignificantDigits(sd, rm), kind), kind);
+	const n = si.div(def.factor).toSignificantDigits(sd, rm).toString();
 	return def.symbol === '°' ? `${n}°` : `${n} ${def.symbol}`;
 }

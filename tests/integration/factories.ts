@@ -52,6 +52,8 @@ export function laserForm(labId: string, overrides: Partial<NewLaserForm['line']
 			divergence: '1 mrad',
 			divergenceDefinition: '1/e2',
 			beamQuality: '',
+			beamProfile: 'gaussian',
+			hotSpotFactor: '',
 			...overrides
 		}
 	};

@@ -3,16 +3,10 @@
 // strings for the engine and the database, naming the field when one does not parse.
 import { z } from 'zod';
 import { parseQuantity, type QuantityKind } from '../units';
+import { beamDefinitions, beamProfiles, elementKinds, emissionModes, laserClasses, laserStatuses, pointKinds, tissues, type ElementKind } from '../enums';
+import type { ElementSI, LineColumns, PointSI } from './assessment';
 
-export const laserClasses = ['1', '1M', '2', '2M', '3R', '3B', '4'] as const;
-export const laserStatuses = ['active', 'in_storage', 'retired'] as const;
-export const emissionModes = ['continuous', 'single_pulse', 'repetitive'] as const;
-export const beamDefinitions = ['1/e', '1/e2', 'fwhm'] as const;
-export const elementKinds = ['propagate', 'transmission', 'mirror', 'expander', 'lens', 'fibre', 'enclosure'] as const;
-export const tissues = ['eye', 'skin'] as const;
-export const pointKinds = ['intrabeam', 'diffuse'] as const;
-
-export type ElementKind = (typeof elementKinds)[number];
+export { beamDefinitions, beamProfiles, elementKinds, emissionModes, laserClasses, laserStatuses, pointKinds, tissues, type ElementKind };
 
 /** A value with its unit, as typed. Empty is allowed here; whether it is required depends on the mode or kind. */
 function quantity(kind: QuantityKind, opts: { defaultUnit?: string } = {}) {
@@ -46,11 +40,13 @@ export const lineFields = {
 	pulseEnergy: quantity('energy'),
 	pulseDuration: quantity('time'),
 	repetitionRate: quantity('frequency'),
+	beamProfile: z.enum(beamProfiles, { error: 'Choose Gaussian or flat-top.' }).default('gaussian'),
 	beamDiameter: quantity('length', { defaultUnit: 'mm' }),
 	beamDiameterDefinition: z.enum(beamDefinitions).default('1/e2'),
 	divergence: quantity('angle', { defaultUnit: 'mrad' }),
 	divergenceDefinition: z.enum(beamDefinitions).default('1/e2'),
-	beamQuality: plainNumber
+	beamQuality: plainNumber,
+	hotSpotFactor: plainNumber
 };
 
 type LineForm = { [K in keyof typeof lineFields]: z.infer<(typeof lineFields)[K]> };
@@ -186,20 +182,17 @@ const lineUnits: Record<string, [QuantityKind | null, string?]> = {
 	repetitionRate: ['frequency'],
 	beamDiameter: ['length', 'mm'],
 	divergence: ['angle', 'mrad'],
-	beamQuality: [null]
+	beamQuality: [null],
+	hotSpotFactor: [null]
 };
 
-export type LineSI = {
-	label: string;
-	mode: (typeof emissionModes)[number];
-	beamDiameterDefinition: (typeof beamDefinitions)[number];
-	divergenceDefinition: (typeof beamDefinitions)[number];
-} & Record<'wavelength' | 'wavelengthMax' | 'power' | 'pulseEnergy' | 'pulseDuration' | 'repetitionRate' | 'beamDiameter' | 'divergence' | 'beamQuality', string | null>;
+/** A line as stored: the columns of an emission line (the SI shape of the engine, without its id). */
+export type LineValues = Omit<LineColumns, 'id'>;
 
 /** A line form in SI, with only the fields its mode uses (the others are cleared). */
-export function lineToSI(line: LineForm, prefix = ''): { ok: true; value: LineSI } | { ok: false; errors: FieldErrors } {
+export function lineToSI(line: LineForm, prefix = ''): { ok: true; value: LineValues } | { ok: false; errors: FieldErrors } {
 	const errors: FieldErrors = {};
-	const used = new Set<string>([...lineFieldsByMode[line.mode], 'wavelengthMax', 'beamQuality']);
+	const used = new Set<string>([...lineFieldsByMode[line.mode], 'wavelengthMax', 'beamQuality', 'hotSpotFactor']);
 	const out: Record<string, string | null> = {};
 	for (const [field, [kind, defaultUnit]] of Object.entries(lineUnits)) {
 		const text = used.has(field) ? (line[field as keyof LineForm] as string) : '';
@@ -213,33 +206,36 @@ export function lineToSI(line: LineForm, prefix = ''): { ok: true; value: LineSI
 		value: {
 			label: line.label,
 			mode: line.mode,
+			beamProfile: line.beamProfile,
 			beamDiameterDefinition: line.beamDiameterDefinition,
 			divergenceDefinition: line.divergenceDefinition,
-			...(out as Omit<LineSI, 'label' | 'mode' | 'beamDiameterDefinition' | 'divergenceDefinition'>)
+			wavelength: out.wavelength!,
+			wavelengthMax: out.wavelengthMax,
+			power: out.power,
+			pulseEnergy: out.pulseEnergy,
+			pulseDuration: out.pulseDuration,
+			repetitionRate: out.repetitionRate,
+			beamDiameter: out.beamDiameter!,
+			divergence: out.divergence!,
+			beamQuality: out.beamQuality,
+			hotSpotFactor: out.hotSpotFactor
 		}
 	};
 }
 
-export type ElementSI = { kind: ElementKind; label: string } & Partial<Record<Exclude<keyof ElementForm, 'kind' | 'label'>, string | null>>;
-export type PointSI = {
-	key: string;
-	label: string;
-	kind: (typeof pointKinds)[number];
-	tissue: (typeof tissues)[number];
-	position: string | null;
-	exposureDuration: string | null;
-	reflectance: string | null;
-	viewingAngle: string | null;
-	viewingDistance: string | null;
-};
+/** The element values a kind does not use are null. */
+const NO_ELEMENT_VALUES = { length: null, transmission: null, reflectance: null, magnification: null, focalLength: null, coreDiameter: null, numericalAperture: null, couplingTransmission: null };
 
-/** Elements and points of a path form in SI. Errors are keyed like the form: 'elements.2.length'. */
+/**
+ * Elements and points of a path form in the one SI shape (src/lib/schemas/assessment.ts). Errors are
+ * keyed like the form: 'elements.2.length'.
+ */
 export function pathToSI(form: Pick<PathForm, 'elements' | 'points' | 'nohdExposureDuration'>):
 	| { ok: true; value: { elements: ElementSI[]; points: PointSI[]; nohdExposureDuration: string | null } }
 	| { ok: false; errors: FieldErrors } {
 	const errors: FieldErrors = {};
 	const elements = form.elements.map((e, i) => {
-		const out: ElementSI = { kind: e.kind, label: e.label };
+		const out: ElementSI = { kind: e.kind, label: e.label, ...NO_ELEMENT_VALUES };
 		for (const spec of elementFieldsByKind[e.kind]) {
 			const path = `elements.${i}.${spec.field}`;
 			const v = toSI(e[spec.field] as string, spec.unit, path, errors, spec.defaultUnit);
@@ -251,17 +247,17 @@ export function pathToSI(form: Pick<PathForm, 'elements' | 'points' | 'nohdExpos
 	const points = form.points.map((p, i) => {
 		const at = (f: string) => `points.${i}.${f}`;
 		const point: PointSI = {
-			key: p.key,
+			id: p.key,
 			label: p.label,
 			kind: p.kind,
 			tissue: p.tissue,
-			position: toSI(p.position, 'length', at('position'), errors, 'm'),
+			position: toSI(p.position, 'length', at('position'), errors, 'm') ?? '',
 			exposureDuration: toSI(p.exposureDuration, 'time', at('exposureDuration'), errors),
 			reflectance: p.kind === 'diffuse' ? toSI(p.reflectance, null, at('reflectance'), errors) : null,
 			viewingAngle: p.kind === 'diffuse' ? toSI(p.viewingAngle, 'angle', at('viewingAngle'), errors, '°') : null,
 			viewingDistance: p.kind === 'diffuse' ? toSI(p.viewingDistance, 'length', at('viewingDistance'), errors, 'm') : null
 		};
-		if (point.position === null && !errors[at('position')]) errors[at('position')] = 'Enter the distance along the path.';
+		if (point.position === '' && !errors[at('position')]) errors[at('position')] = 'Enter the distance along the path.';
 		return point;
 	});
 	const nohdExposureDuration = toSI(form.nohdExposureDuration, 'time', 'nohdExposureDuration', errors);

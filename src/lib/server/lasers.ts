@@ -5,7 +5,9 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
-import { lineToSI, type LineSI, type NewLaserForm } from '$lib/schemas/register';
+import { lineToSI, type LineValues, type NewLaserForm } from '$lib/schemas/register';
+import { lineProblems } from '$lib/server/hazard';
+import type { LaserClass, LaserStatus } from '$lib/enums';
 import type { z } from 'zod';
 import type { editLaserSchema, lineSchema } from '$lib/schemas/register';
 
@@ -24,8 +26,8 @@ export type SortKey = (typeof sortKeys)[number];
 export type InventoryQuery = {
 	q?: string;
 	labId?: string;
-	laserClass?: (typeof table.laserClasses)[number];
-	status?: (typeof table.laserStatuses)[number];
+	laserClass?: LaserClass;
+	status?: LaserStatus;
 	band?: Band;
 	sort: SortKey;
 	dir: 'asc' | 'desc';
@@ -189,22 +191,18 @@ export function isUuid(s: string): boolean {
 	return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(s);
 }
 
-function lineColumns(l: LineSI) {
-	return {
-		label: l.label,
-		mode: l.mode,
-		wavelength: l.wavelength!,
-		wavelengthMax: l.wavelengthMax,
-		power: l.power,
-		pulseEnergy: l.pulseEnergy,
-		pulseDuration: l.pulseDuration,
-		repetitionRate: l.repetitionRate,
-		beamDiameter: l.beamDiameter!,
-		beamDiameterDefinition: l.beamDiameterDefinition,
-		divergence: l.divergence!,
-		divergenceDefinition: l.divergenceDefinition,
-		beamQuality: l.beamQuality
-	};
+/**
+ * A line form in SI, checked with the hazard engine's own rules (one source of truth): a line the
+ * engine cannot assess is never saved. Errors are keyed like the form (`prefix` + field).
+ */
+function checkedLine(form: Parameters<typeof lineToSI>[0], prefix = ''): { ok: true; value: LineValues } | { ok: false; errors: Record<string, string> } {
+	const line = lineToSI(form, prefix);
+	if (!line.ok) return line;
+	const problems = lineProblems(line.value);
+	if (problems.length === 0) return line;
+	const errors: Record<string, string> = {};
+	for (const p of problems) errors[prefix + (p.field || 'wavelength')] ??= p.reason;
+	return { ok: false, errors };
 }
 
 /** Keep the laser's wavelength span (for the band filter) in step with its lines. */
@@ -218,7 +216,7 @@ async function refreshWavelengthSpan(tx: Tx, laserId: string) {
 
 export async function create(scope: Scope, input: NewLaserForm): Promise<{ ok: true; id: string } | Failure> {
 	if (!canEdit(scope, input.labId)) return notYours('lab');
-	const line = lineToSI(input.line, 'line.');
+	const line = checkedLine(input.line, 'line.');
 	if (!line.ok) return fieldsNeedAttention(line.errors);
 	const [labRow] = await db.select({ id: table.lab.id }).from(table.lab).where(eq(table.lab.id, input.labId));
 	if (!labRow) return fieldsNeedAttention({ labId: 'Unknown lab.' });
@@ -236,7 +234,7 @@ export async function create(scope: Scope, input: NewLaserForm): Promise<{ ok: t
 				ownerId: scope.userId
 			})
 			.returning();
-		const [lineRow] = await tx.insert(table.emissionLine).values({ laserId: created.id, ...lineColumns(line.value) }).returning();
+		const [lineRow] = await tx.insert(table.emissionLine).values({ laserId: created.id, ...line.value }).returning();
 		await refreshWavelengthSpan(tx, created.id);
 		await audit.record(tx, { actorId: scope.userId, action: 'laser.create', entity: 'laser', entityId: created.id, after: { laser: created, line: lineRow } });
 		return { ok: true, id: created.id } as const;
@@ -267,11 +265,11 @@ export async function saveLine(scope: Scope, laserId: string, lineId: string | n
 	const found = await find(scope, laserId);
 	if (!found.ok) return found;
 	if (!found.editable) return notYours('laser');
-	const line = lineToSI(input);
+	const line = checkedLine(input);
 	if (!line.ok) return fieldsNeedAttention(line.errors);
 	return db.transaction(async (tx) => {
 		if (lineId === null) {
-			const [row] = await tx.insert(table.emissionLine).values({ laserId, ...lineColumns(line.value) }).returning();
+			const [row] = await tx.insert(table.emissionLine).values({ laserId, ...line.value }).returning();
 			await refreshWavelengthSpan(tx, laserId);
 			await audit.record(tx, { actorId: scope.userId, action: 'line.create', entity: 'emission_line', entityId: row.id, after: row });
 			return { ok: true, id: row.id } as const;
@@ -280,7 +278,7 @@ export async function saveLine(scope: Scope, laserId: string, lineId: string | n
 		if (!before) return notFound('emission line');
 		const [after] = await tx
 			.update(table.emissionLine)
-			.set({ ...lineColumns(line.value), version: input.version + 1, updatedAt: new Date() })
+			.set({ ...line.value, version: input.version + 1, updatedAt: new Date() })
 			.where(and(eq(table.emissionLine.id, lineId), eq(table.emissionLine.version, input.version)))
 			.returning();
 		if (!after) return changedMeanwhile('emission line');

@@ -12,30 +12,34 @@ import { failForm } from '$lib/server/forms';
 import * as lasers from '$lib/server/lasers';
 import * as paths from '$lib/server/paths';
 import { orError } from '$lib/server/pages';
-import type { AssessmentResult } from '$lib/server/hazard';
+import type { AssessmentResult } from '$lib/assessmentResult';
+import type { LineColumns } from '$lib/schemas/assessment';
 import { formatQuantity, type QuantityKind } from '$lib/units';
 
 const shown = (v: string | null, kind: QuantityKind | null) =>
 	v === null ? '' : kind ? formatQuantity(v, kind, { significantDigits: 12, unit: kind === 'angle' ? '°' : undefined }) : String(Number(v));
 
-function editorLines(detail: NonNullable<lasers.LaserDetail>) {
+/** The laser's lines as the editor needs them: the stored columns, which the preview maps with lineFromRow. */
+function editorLines(detail: NonNullable<lasers.LaserDetail>): LineColumns[] {
 	return detail.lines.map((l) => ({
 		id: l.id,
 		label: l.label,
 		mode: l.mode,
 		wavelength: l.wavelength,
+		wavelengthMax: l.wavelengthMax,
 		power: l.power,
 		pulseEnergy: l.pulseEnergy,
 		pulseDuration: l.pulseDuration,
 		repetitionRate: l.repetitionRate,
+		beamProfile: l.beamProfile,
 		beamDiameter: l.beamDiameter,
 		beamDiameterDefinition: l.beamDiameterDefinition,
 		divergence: l.divergence,
 		divergenceDefinition: l.divergenceDefinition,
-		beamQuality: l.beamQuality
+		beamQuality: l.beamQuality,
+		hotSpotFactor: l.hotSpotFactor
 	}));
 }
-export type EditorLine = ReturnType<typeof editorLines>[number];
 
 export async function loadNewPath(locals: App.Locals, laserId: string) {
 	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));

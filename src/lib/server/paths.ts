@@ -6,40 +6,13 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
-import { currentLimits, evaluate, latestFor, lockLimitLibrary, needsReview, type PathSnapshotInput } from '$lib/server/assessments';
+import { currentLimits, evaluatePath, latestFor, lockLimitLibrary, needsReview } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
 import * as reviews from '$lib/server/reviews';
-import { ENGINE_VERSION, type AssessmentResult } from '$lib/server/hazard';
-import { pathToSI, type ElementSI, type PathForm, type PointSI } from '$lib/schemas/register';
-
-export function elementFromRow(e: table.PathElement): ElementSI {
-	return {
-		kind: e.kind,
-		label: e.label,
-		length: e.length,
-		transmission: e.transmission,
-		reflectance: e.reflectance,
-		magnification: e.magnification,
-		focalLength: e.focalLength,
-		coreDiameter: e.coreDiameter,
-		numericalAperture: e.numericalAperture,
-		couplingTransmission: e.couplingTransmission
-	};
-}
-
-export function pointFromRow(p: table.PointOfConcern): PointSI {
-	return {
-		key: p.id,
-		label: p.label,
-		kind: p.kind,
-		tissue: p.tissue,
-		position: p.position,
-		exposureDuration: p.exposureDuration,
-		reflectance: p.reflectance,
-		viewingAngle: p.viewingAngle,
-		viewingDistance: p.viewingDistance
-	};
-}
+import { ENGINE_VERSION, type AssessmentResult, type InputError } from '$lib/server/hazard';
+import { beamPathFromRows, beamPathSchema, lineFromRow, type BeamPath } from '$lib/schemas/assessment';
+import { pathToSI, type PathForm } from '$lib/schemas/register';
+import { diffInputs } from '$lib/server/snapshotDiff';
 
 async function loadPath(pathId: string, ex: typeof db | Tx = db) {
 	const [row] = await ex
@@ -68,13 +41,21 @@ export async function find(scope: Scope, pathId: string): Promise<{ ok: true; de
 	return { ok: true, detail, editable: canEdit(scope, detail.laser.labId) && detail.laser.status !== 'retired' };
 }
 
-export function snapshotInput(detail: Pick<PathDetail, 'line' | 'elements' | 'points' | 'path'>): PathSnapshotInput {
-	return {
-		line: detail.line,
-		elements: detail.elements.map(elementFromRow),
-		points: detail.points.map(pointFromRow),
-		nohdExposureDuration: detail.path.nohdExposureDuration
-	};
+/** A stored path in the one SI shape. */
+export function beamPathOf(detail: Pick<PathDetail, 'line' | 'elements' | 'points' | 'path'>): BeamPath {
+	return beamPathFromRows({ path: detail.path, lines: [detail.line], elements: detail.elements, points: detail.points });
+}
+
+/** Engine errors as form fields: line problems go into the message (they are fixed on the laser's page). */
+function engineFailure(errors: InputError[]): Failure {
+	const fields: Record<string, string[]> = {};
+	const lineProblems: string[] = [];
+	for (const e of errors) {
+		if (e.field === '' || e.field.startsWith('lines')) lineProblems.push(e.reason);
+		else (fields[e.field] ??= []).push(e.reason);
+	}
+	const message = lineProblems.length ? `The emission line cannot be assessed: ${lineProblems.join(' ')} Correct it on the laser’s page.` : 'The assessment cannot be computed from these values.';
+	return failure(400, message, Object.keys(fields).length ? fields : undefined);
 }
 
 export type SaveOutcome = { ok: true; id: string; verdict: AssessmentResult['verdict']; version: number } | Failure;
@@ -105,19 +86,11 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		if (!line) return fieldsNeedAttention({ lineId: 'Choose one of this laser’s emission lines.' });
 		if (pathId !== null) await tx.select({ id: table.beamPath.id }).from(table.beamPath).where(eq(table.beamPath.id, pathId)).for('update');
 		const limits = await currentLimits(tx);
-		const { input, outcome } = evaluate({ line, ...si.value }, limits);
-		if (!outcome.ok) {
-			const fields: Record<string, string[]> = {};
-			const lineProblems: string[] = [];
-			for (const e of outcome.errors) {
-				if (e.field === '' || e.field.startsWith('line')) lineProblems.push(e.reason);
-				else (fields[e.field] ??= []).push(e.reason);
-			}
-			const message = lineProblems.length
-				? `The emission line cannot be assessed: ${lineProblems.join(' ')} Correct it on the laser’s page.`
-				: 'The assessment cannot be computed from these values.';
-			return failure(400, message, Object.keys(fields).length ? fields : undefined);
-		}
+		// The one shape, checked by the one schema before the engine sees it.
+		const parsed = beamPathSchema.safeParse({ lines: [lineFromRow(line)], ...si.value });
+		if (!parsed.success) return failure(400, 'The path cannot be saved as entered.', Object.fromEntries(parsed.error.issues.map((i) => [i.path.join('.'), [i.message]])));
+		const { inputs, outcome } = evaluatePath(parsed.data, limits);
+		if (!outcome.ok) return engineFailure(outcome.errors);
 		const result = outcome.result;
 		const now = new Date();
 		let before: unknown = null;
@@ -137,7 +110,7 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			const old = await loadPath(pathId, tx);
 			if (!old || old.path.laserId !== laserId) return notFound('beam path');
 			ownPointIds = new Set(old.points.map((p) => p.id));
-			before = { path: old.path, elements: old.elements.map(elementFromRow), points: old.points.map(pointFromRow) };
+			before = { path: old.path, ...beamPathOf(old) };
 			const [updated] = await tx
 				.update(table.beamPath)
 				.set({ ...common, version: form.version + 1 })
@@ -150,22 +123,22 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			await tx.delete(table.pathElement).where(eq(table.pathElement.pathId, id));
 			await tx.delete(table.pointOfConcern).where(eq(table.pointOfConcern.pathId, id));
 		}
-		if (si.value.elements.length)
-			await tx.insert(table.pathElement).values(si.value.elements.map((e, i) => ({ pathId: id, sequence: i, ...e, label: e.label })));
-		const keptIds = si.value.points.map((p) => (ownPointIds.delete(p.key) ? p.key : null)); // each id once
+		const stored = parsed.data;
+		if (stored.elements.length) await tx.insert(table.pathElement).values(stored.elements.map((e, i) => ({ pathId: id, sequence: i, ...e })));
+		const keptIds = stored.points.map((p) => (ownPointIds.delete(p.id) ? p.id : null)); // each id once
 		const pointRows = await tx
 			.insert(table.pointOfConcern)
-			.values(si.value.points.map((p, i) => ({ ...(keptIds[i] ? { id: keptIds[i]! } : {}), pathId: id, sequence: i, label: p.label, kind: p.kind, tissue: p.tissue, position: p.position!, exposureDuration: p.exposureDuration, reflectance: p.reflectance, viewingAngle: p.viewingAngle, viewingDistance: p.viewingDistance })))
+			.values(stored.points.map(({ id: _formKey, ...p }, i) => ({ ...(keptIds[i] ? { id: keptIds[i]! } : {}), pathId: id, sequence: i, ...p })))
 			.returning({ id: table.pointOfConcern.id });
 		await tx.insert(table.assessment).values({
 			pathId: id,
 			pathVersion: version,
 			engineVersion: ENGINE_VERSION,
-			inputs: { ...input, points: input.points.map((p, i) => ({ ...p, id: pointRows[i].id })) },
-			result: remapPointIds(result, si.value.points.map((p) => p.key), pointRows.map((r) => r.id)),
+			inputs: { ...inputs, path: { ...inputs.path, points: inputs.path.points.map((p, i) => ({ ...p, id: pointRows[i].id })) } },
+			result: remapPointIds(result, stored.points.map((p) => p.id), pointRows.map((r) => r.id)),
 			verdict: result.verdict,
-			worstRatio: result.worstRatio,
-			requiredOd: result.requiredOpticalDensity?.value ?? null,
+			worstRatio: numeric(result.worstRatio),
+			requiredOd: numeric(result.requiredOpticalDensity?.value ?? null),
 			limitVersions: result.limitsConsidered,
 			cause: 'save',
 			createdBy: scope.userId
@@ -178,11 +151,14 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			entity: 'beam_path',
 			entityId: id,
 			before,
-			after: { name: form.name, lineId: line.id, elements: si.value.elements, points: si.value.points, verdict: result.verdict }
+			after: { name: form.name, lineId: line.id, elements: stored.elements, points: stored.points, verdict: result.verdict }
 		});
 		return { ok: true, id, verdict: result.verdict, version } as const;
 	});
 }
+
+/** A float64 for a PostgreSQL numeric column (its shortest exact decimal text). */
+const numeric = (v: number | null): string | null => (v === null ? null : String(v));
 
 /** The engine saw the form's point keys; the snapshot keeps the stored points' ids. */
 function remapPointIds(result: AssessmentResult, keys: string[], ids: string[]): AssessmentResult {
@@ -212,22 +188,26 @@ export async function reassessStale(batch = 200): Promise<{ reassessed: number }
 			const detail = await loadPath(id, tx);
 			if (!detail) return false;
 			const limits = await currentLimits(tx);
-			const { input, outcome } = evaluate(snapshotInput(detail), limits);
+			const { inputs, outcome } = evaluatePath(beamPathOf(detail), limits);
 			const result = outcome.ok ? outcome.result : null;
 			const verdict = result ? result.verdict : 'incomplete';
+			// Only the engine changed (same path, line and limits): the clearance holds unless the answer changed.
+			const previous = detail.latest;
+			const engineOnly = previous !== null && previous.engineVersion !== ENGINE_VERSION && diffInputs(previous.inputs, inputs).length === 0;
+			const answerChanged = !engineOnly || changedAnswer(previous!.result, result);
 			await tx.insert(table.assessment).values({
 				pathId: id,
 				pathVersion: detail.path.version,
 				engineVersion: ENGINE_VERSION,
-				inputs: input,
+				inputs,
 				result: result ?? { errors: outcome.ok ? [] : outcome.errors },
 				verdict,
-				worstRatio: result?.worstRatio ?? null,
-				requiredOd: result?.requiredOpticalDensity?.value ?? null,
+				worstRatio: numeric(result?.worstRatio ?? null),
+				requiredOd: numeric(result?.requiredOpticalDensity?.value ?? null),
 				limitVersions: result?.limitsConsidered ?? limits.map((l) => ({ id: l.limitId, version: String(l.version) })),
-				cause: 'reassess'
+				cause: engineOnly ? 'engine' : 'reassess'
 			});
-			const review = await reviews.afterSnapshot(tx, detail.path, verdict, 'reassess');
+			const review = answerChanged ? await reviews.afterSnapshot(tx, detail.path, verdict, 'reassess') : {};
 			await tx.update(table.beamPath).set({ verdict, flagged: needsReview(verdict), stale: false, ...review }).where(eq(table.beamPath.id, id));
 			await audit.record(tx, { actorId: null, action: 'path.reassess', entity: 'beam_path', entityId: id, before: { verdict: detail.path.verdict }, after: { verdict } });
 			return true;
@@ -235,6 +215,34 @@ export async function reassessStale(batch = 200): Promise<{ reassessed: number }
 		if (done) reassessed++;
 	}
 	return { reassessed };
+}
+
+/** Did a re-evaluation change what the officer decided on: the verdict, or the whole OD eyewear needs? */
+function changedAnswer(before: unknown, after: AssessmentResult | null): boolean {
+	const b = before as { verdict?: string; requiredOpticalDensity?: { roundedUpWhole?: number | string } | null } | null;
+	if (!after || !b || b.verdict !== after.verdict) return true;
+	return Number(after.requiredOpticalDensity?.roundedUpWhole ?? 0) > Number(b.requiredOpticalDensity?.roundedUpWhole ?? 0);
+}
+
+/**
+ * Snapshots made by an older engine version: their paths are marked stale, so that the
+ * re-evaluation brings every live path to the engine that runs now. Run by the re-evaluation job.
+ */
+export async function markStaleByEngine(): Promise<number> {
+	return db.transaction(async (tx) => {
+		const marked = await tx.execute<{ id: string }>(sql`
+			UPDATE beam_path bp SET stale = true
+			WHERE NOT bp.retired AND NOT bp.stale AND bp.verdict IS NOT NULL
+				AND (SELECT a.engine_version FROM assessment a WHERE a.path_id = bp.id ORDER BY a.created_at DESC LIMIT 1) <> ${ENGINE_VERSION}
+			RETURNING bp.id`);
+		if (marked.length === 0) return 0;
+		const ids = sql.join(marked.map((m) => sql`${m.id}::uuid`), sql`, `);
+		await tx.execute(sql`
+			UPDATE assessment a SET stale = true, stale_reason = ${`The hazard engine changed (now ${ENGINE_VERSION})`}
+			WHERE a.id IN (SELECT DISTINCT ON (path_id) id FROM assessment WHERE path_id IN (${ids}) ORDER BY path_id, created_at DESC)`);
+		await audit.record(tx, { actorId: null, action: 'engine.updated', entity: 'beam_path', entityId: 'many', after: { engineVersion: ENGINE_VERSION, paths: marked.map((m) => m.id) } });
+		return marked.length;
+	});
 }
 
 /**

@@ -1,5 +1,7 @@
 // What changed between two assessment snapshots (the cleared one and the current one), in words
-// the officer reads: "Power: 5 W → 6 W", "Element 3 (Focusing lens) added", "Limit … version 1 → 2".
+// the officer reads: "Line: Power: 5 W → 6 W", "Element 3 (lens, f = 100 mm) added",
+// "Limit … version 1 → 2", and for the results "Verdict: within limit → exceeds limit".
+import type { SnapshotInputs } from '$lib/server/assessments';
 import { formatQuantity, type QuantityKind } from '../units';
 
 type Json = Record<string, unknown>;
@@ -7,6 +9,7 @@ export type Change = { where: string; before: string; after: string };
 
 const kinds: Record<string, QuantityKind | null> = {
 	wavelength: 'wavelength',
+	wavelengthMax: 'wavelength',
 	power: 'power',
 	pulseEnergy: 'energy',
 	pulseDuration: 'time',
@@ -25,15 +28,18 @@ const kinds: Record<string, QuantityKind | null> = {
 const names: Record<string, string> = {
 	mode: 'Emission',
 	wavelength: 'Wavelength',
+	wavelengthMax: 'Upper end of the tuning range',
 	power: 'Power',
 	pulseEnergy: 'Energy per pulse',
 	pulseDuration: 'Pulse duration',
 	repetitionRate: 'Repetition rate',
+	beamProfile: 'Beam profile',
 	beamDiameter: 'Beam diameter',
 	beamDiameterDefinition: 'Diameter definition',
 	divergence: 'Divergence',
 	divergenceDefinition: 'Divergence definition',
 	beamQuality: 'M²',
+	hotSpotFactor: 'Hot-spot factor',
 	kind: 'Kind',
 	label: 'Label',
 	length: 'Length',
@@ -65,11 +71,12 @@ function show(key: string, v: unknown): string {
 }
 
 function same(a: unknown, b: unknown): boolean {
-	if ((a === null || a === undefined || a === '') && (b === null || b === undefined || b === '')) return true;
-	if (typeof a === typeof b && typeof a !== 'object') {
+	const empty = (x: unknown) => x === null || x === undefined || x === '';
+	if (empty(a) && empty(b)) return true;
+	if ((typeof a === 'string' || typeof a === 'number') && (typeof b === 'string' || typeof b === 'number') && String(a).trim() !== '' && String(b).trim() !== '') {
 		const na = Number(a);
 		const nb = Number(b);
-		if (typeof a === 'string' && !Number.isNaN(na) && !Number.isNaN(nb) && a.trim() !== '' && String(b).trim() !== '') return na === nb;
+		if (!Number.isNaN(na) && !Number.isNaN(nb)) return na === nb;
 	}
 	return JSON.stringify(a) === JSON.stringify(b);
 }
@@ -83,34 +90,80 @@ function fields(where: string, a: Json, b: Json, out: Change[], skip: string[] =
 
 const elementName = (e: Json, i: number) => `Element ${i + 1} (${String(e.kind)}${e.label ? `, ${e.label}` : ''})`;
 
-export function diffInputs(before: Json, after: Json): Change[] {
+/**
+ * Snapshot inputs in today's shape ({ path, limits }). Snapshots of the 1.x engine stored
+ * { line, elements, points, limits, nohd }; they are read into the same shape, with the defaults the
+ * fields added since then take (a Gaussian profile, no hot spot).
+ */
+export function normaliseInputs(raw: unknown): SnapshotInputs {
+	const r = (raw ?? {}) as Json;
+	if (r.path) return r as unknown as SnapshotInputs;
+	const line = { beamProfile: 'gaussian', hotSpotFactor: null, wavelengthMax: null, ...((r.line ?? {}) as Json) };
+	return {
+		path: {
+			lines: [line],
+			elements: (r.elements ?? []) as Json[],
+			points: (r.points ?? []) as Json[],
+			nohdExposureDuration: ((r.nohd ?? {}) as Json).exposureDuration ?? null
+		},
+		limits: (r.limits ?? []) as Json[]
+	} as unknown as SnapshotInputs;
+}
+
+/** Changes of the inputs: the path (lines, elements, points, duration) and the limit versions. */
+export function diffInputs(beforeRaw: unknown, afterRaw: unknown): Change[] {
+	const before = normaliseInputs(beforeRaw);
+	const after = normaliseInputs(afterRaw);
 	const out: Change[] = [];
-	fields('Line: ', (before.line ?? {}) as Json, (after.line ?? {}) as Json, out);
-	const be = (before.elements ?? []) as Json[];
-	const ae = (after.elements ?? []) as Json[];
+	const bl = before.path.lines as unknown as Json[];
+	const al = after.path.lines as unknown as Json[];
+	for (let i = 0; i < Math.max(bl.length, al.length); i++) {
+		const where = al.length > 1 || bl.length > 1 ? `Line ${i + 1}: ` : 'Line: ';
+		if (!bl[i]) out.push({ where: where.slice(0, -2), before: 'not there', after: 'added' });
+		else if (!al[i]) out.push({ where: where.slice(0, -2), before: 'present', after: 'removed' });
+		// The line's id and name are not part of the hazard.
+		else fields(where, bl[i], al[i], out, ['id', 'label']);
+	}
+	const be = before.path.elements as unknown as Json[];
+	const ae = after.path.elements as unknown as Json[];
 	for (let i = 0; i < Math.max(be.length, ae.length); i++) {
 		if (!be[i]) out.push({ where: elementName(ae[i], i), before: 'not there', after: 'added' });
 		else if (!ae[i]) out.push({ where: elementName(be[i], i), before: 'present', after: 'removed' });
 		else fields(`${elementName(ae[i], i)}: `, be[i], ae[i], out);
 	}
-	const bp = new Map(((before.points ?? []) as Json[]).map((p) => [String(p.id), p]));
-	const ap = new Map(((after.points ?? []) as Json[]).map((p) => [String(p.id), p]));
+	const bp = new Map((before.path.points as unknown as Json[]).map((p) => [String(p.id), p]));
+	const ap = new Map((after.path.points as unknown as Json[]).map((p) => [String(p.id), p]));
 	for (const [id, p] of ap) {
 		const old = bp.get(id);
-		if (!old) out.push({ where: `Point “${String(p.label ?? id)}”`, before: 'not there', after: 'added' });
-		else fields(`Point “${String(p.label ?? id)}”: `, old, p, out, ['id']);
+		if (!old) out.push({ where: `Point “${String(p.label || id)}”`, before: 'not there', after: 'added' });
+		else fields(`Point “${String(p.label || id)}”: `, old, p, out, ['id']);
 	}
-	for (const [id, p] of bp) if (!ap.has(id)) out.push({ where: `Point “${String(p.label ?? id)}”`, before: 'present', after: 'removed' });
-	const bl = new Map(((before.limits ?? []) as Json[]).map((l) => [String(l.id), l]));
-	const al = new Map(((after.limits ?? []) as Json[]).map((l) => [String(l.id), l]));
-	for (const [id, l] of al) {
-		const old = bl.get(id);
+	for (const [id, p] of bp) if (!ap.has(id)) out.push({ where: `Point “${String(p.label || id)}”`, before: 'present', after: 'removed' });
+	const bls = new Map((before.limits as unknown as Json[]).map((l) => [String(l.id), l]));
+	const als = new Map((after.limits as unknown as Json[]).map((l) => [String(l.id), l]));
+	for (const [id, l] of als) {
+		const old = bls.get(id);
 		if (!old) out.push({ where: `Limit “${String(l.label)}”`, before: 'not in force', after: `version ${String(l.version)}` });
 		else if (String(old.version) !== String(l.version)) out.push({ where: `Limit “${String(l.label)}”`, before: `version ${String(old.version)}`, after: `version ${String(l.version)}` });
 	}
-	for (const [id, l] of bl) if (!al.has(id)) out.push({ where: `Limit “${String(l.label)}”`, before: `version ${String(l.version)}`, after: 'withdrawn' });
-	const bn = ((before.nohd ?? {}) as Json).exposureDuration;
-	const an = ((after.nohd ?? {}) as Json).exposureDuration;
-	if (!same(bn, an)) out.push({ where: 'Exposure duration for the NOHD', before: show('exposureDuration', bn), after: show('exposureDuration', an) });
+	for (const [id, l] of bls) if (!als.has(id)) out.push({ where: `Limit “${String(l.label)}”`, before: `version ${String(l.version)}`, after: 'withdrawn' });
+	if (!same(before.path.nohdExposureDuration, after.path.nohdExposureDuration))
+		out.push({ where: 'Exposure duration for the hazard distances', before: show('exposureDuration', before.path.nohdExposureDuration), after: show('exposureDuration', after.path.nohdExposureDuration) });
+	return out;
+}
+
+const verdictText: Record<string, string> = { within_limit: 'within limit', exceeds_limit: 'exceeds limit', no_applicable_limit: 'no applicable limit', incomplete: 'incomplete' };
+
+/** Changes of the answer: engine version, verdict, worst ratio, the whole OD eyewear needs. */
+export function diffResults(beforeRaw: unknown, afterRaw: unknown): Change[] {
+	const b = (beforeRaw ?? {}) as Json;
+	const a = (afterRaw ?? {}) as Json;
+	const out: Change[] = [];
+	if (b.engineVersion !== a.engineVersion) out.push({ where: 'Hazard engine', before: String(b.engineVersion ?? '—'), after: String(a.engineVersion ?? '—') });
+	if (b.verdict !== a.verdict) out.push({ where: 'Verdict', before: verdictText[String(b.verdict)] ?? '—', after: verdictText[String(a.verdict)] ?? '—' });
+	const ratio = (v: unknown) => (v === null || v === undefined ? '—' : String(Number(Number(v).toPrecision(3))));
+	if (ratio(b.worstRatio) !== ratio(a.worstRatio)) out.push({ where: 'Worst ratio (exposure ÷ limit)', before: ratio(b.worstRatio), after: ratio(a.worstRatio) });
+	const od = (r: Json) => ((r.requiredOpticalDensity as Json | null)?.roundedUpWhole ?? null) as number | string | null;
+	if (!same(od(b), od(a))) out.push({ where: 'Optical density needed (whole)', before: od(b) === null ? '—' : String(od(b)), after: od(a) === null ? '—' : String(od(a)) });
 	return out;
 }

@@ -11,8 +11,9 @@ let boss: PgBoss | null = null;
 
 const handlers: Record<QueueName, () => Promise<unknown>> = {
 	[queues.reassessPaths]: async () => {
-		// Limits that came into force or lapsed since the paths were assessed, then the backlog, in
-		// batches so one job clears it.
+		// Paths last assessed by an older engine, limits that came into force or lapsed since the
+		// paths were assessed, then the backlog, in batches so one job clears it.
+		await paths.markStaleByEngine();
 		await paths.markStaleByLimitDates();
 		let total = 0;
 		for (;;) {
@@ -63,6 +64,8 @@ export async function startJobs(connectionString: string): Promise<PgBoss> {
 		if (q.cron) await b.schedule(q.name, q.cron);
 	}
 	boss = b;
+	// Catch up at start-up rather than at the next schedule (e.g. snapshots of an older engine).
+	await nudge(queues.reassessPaths);
 	return b;
 }
 

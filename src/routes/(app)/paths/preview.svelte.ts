@@ -1,8 +1,22 @@
 // The live assessment: the form is read a moment after the last keystroke, and the preview API is
 // asked again; an answer to an older request is never shown over a newer one.
-import type { PathForm } from '$lib/schemas/register';
+import { lineFromRow, type LineColumns, type PreviewRequest } from '$lib/schemas/assessment';
+import { pathToSI, type FieldErrors, type PathForm } from '$lib/schemas/register';
 import type { PreviewResponse } from '../../api/assessments/preview/+server';
-import { previewBody, type EditorLine } from './previewBody';
+
+type BodyOutcome = { ok: true; body: PreviewRequest } | { ok: false; kind: 'unfinished'; errors: FieldErrors } | { ok: false; kind: 'line'; message: string };
+
+/**
+ * The form in the one SI shape (the same mapping a save uses), with the chosen line as stored: the
+ * body of the preview request. The engine itself checks the values and names what is wrong.
+ */
+export function previewBody(form: PathForm, lines: LineColumns[]): BodyOutcome {
+	const si = pathToSI(form);
+	if (!si.ok) return { ok: false, kind: 'unfinished', errors: si.errors };
+	const line = lines.find((l) => l.id === form.lineId);
+	if (!line) return { ok: false, kind: 'line', message: lines.length ? 'Choose the emission line to see the assessment.' : 'This laser has no emission line yet: add one on the laser’s page.' };
+	return { ok: true, body: { path: { lines: [lineFromRow(line)], ...si.value } } };
+}
 
 export type PreviewStatus = 'idle' | 'waiting' | 'updating' | 'ready' | 'unfinished' | 'refused' | 'failed';
 
@@ -26,9 +40,9 @@ export class LivePreview {
 	#timer: ReturnType<typeof setTimeout> | undefined;
 	#controller: AbortController | null = null;
 	#lastBody = '';
-	#lines: () => EditorLine[];
+	#lines: () => LineColumns[];
 
-	constructor(lines: () => EditorLine[]) {
+	constructor(lines: () => LineColumns[]) {
 		this.#lines = lines;
 	}
 

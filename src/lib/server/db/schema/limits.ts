@@ -4,9 +4,9 @@ import { boolean, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, t
 import { user } from './auth';
 import { beamPath, tissueEnum, verdictEnum } from './register';
 
-export const limitQuantities = ['irradiance', 'radiant_exposure'] as const;
+import { limitQuantities, pulseBases } from '../../../enums';
+
 export const limitQuantityEnum = pgEnum('limit_quantity', limitQuantities);
-export const pulseBases = ['single_pulse', 'continuous'] as const;
 export const pulseBasisEnum = pgEnum('pulse_basis', pulseBases);
 
 export const exposureLimit = pgTable('exposure_limit', {
@@ -33,6 +33,8 @@ export const exposureLimitVersion = pgTable(
 		limitingAperture: numeric('limiting_aperture').notNull(),
 		pulseBasis: pulseBasisEnum('pulse_basis').notNull(),
 		pulseTrainExponent: numeric('pulse_train_exponent'),
+		/** The officer's statement that the code applies no pulse-train correction to this single-pulse limit. */
+		noTrainCorrection: boolean('no_train_correction').notNull().default(false),
 		citation: text('citation').notNull(),
 		/** Demonstration values, to be replaced by the local code's. */
 		demonstration: boolean('demonstration').notNull().default(false),

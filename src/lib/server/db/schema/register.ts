@@ -9,21 +9,17 @@ const created = () => timestamp('created_at', { withTimezone: true }).notNull().
 const updated = () => timestamp('updated_at', { withTimezone: true }).notNull().defaultNow();
 const si = (name: string) => numeric(name);
 
-export const laserClasses = ['1', '1M', '2', '2M', '3R', '3B', '4'] as const;
+// The lists themselves are written once, in src/lib/enums.ts (relative import: drizzle-kit has no $lib).
+import { beamDefinitions, beamProfiles, elementKinds, emissionModes, laserClasses, laserStatuses, pointKinds, tissues, verdicts } from '../../../enums';
+
 export const laserClassEnum = pgEnum('laser_class', laserClasses);
-export const laserStatuses = ['active', 'in_storage', 'retired'] as const;
 export const laserStatusEnum = pgEnum('laser_status', laserStatuses);
-export const emissionModes = ['continuous', 'single_pulse', 'repetitive'] as const;
 export const emissionModeEnum = pgEnum('emission_mode', emissionModes);
-export const beamDefinitions = ['1/e', '1/e2', 'fwhm'] as const;
 export const beamDefinitionEnum = pgEnum('beam_definition', beamDefinitions);
-export const elementKinds = ['propagate', 'transmission', 'mirror', 'expander', 'lens', 'fibre', 'enclosure'] as const;
+export const beamProfileEnum = pgEnum('beam_profile', beamProfiles);
 export const elementKindEnum = pgEnum('element_kind', elementKinds);
-export const tissues = ['eye', 'skin'] as const;
 export const tissueEnum = pgEnum('tissue', tissues);
-export const pointKinds = ['intrabeam', 'diffuse'] as const;
 export const pointKindEnum = pgEnum('point_kind', pointKinds);
-export const verdicts = ['within_limit', 'exceeds_limit', 'no_applicable_limit', 'incomplete'] as const;
 export const verdictEnum = pgEnum('verdict', verdicts);
 
 /** A laser controlled area: where lasers stand and what is inspected. */
@@ -91,11 +87,15 @@ export const emissionLine = pgTable(
 		pulseEnergy: si('pulse_energy'),
 		pulseDuration: si('pulse_duration'),
 		repetitionRate: si('repetition_rate'),
+		/** Gaussian (diameter and divergence by their definitions) or flat-top (by the full width). */
+		beamProfile: beamProfileEnum('beam_profile').notNull().default('gaussian'),
 		beamDiameter: si('beam_diameter').notNull(),
 		beamDiameterDefinition: beamDefinitionEnum('beam_diameter_definition').notNull(),
 		divergence: si('divergence').notNull(),
 		divergenceDefinition: beamDefinitionEnum('divergence_definition').notNull(),
 		beamQuality: si('beam_quality'),
+		/** Peak ÷ average irradiance of the measured profile (≥ 1); null for an ideal profile. */
+		hotSpotFactor: si('hot_spot_factor'),
 		version: integer('version').notNull().default(1),
 		createdAt: created(),
 		updatedAt: updated()

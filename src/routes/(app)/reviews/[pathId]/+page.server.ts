@@ -9,13 +9,13 @@ import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as eyewear from '$lib/server/eyewear';
 import { failForm } from '$lib/server/forms';
-import type { AssessmentInput, AssessmentResult } from '$lib/server/hazard';
+import { isCurrentResult } from '$lib/assessmentResult';
 import { orError } from '$lib/server/pages';
 import { formValues } from '$lib/server/pathForms';
 import * as paths from '$lib/server/paths';
 import { exposureProfile } from '$lib/server/profile';
 import * as reviews from '$lib/server/reviews';
-import { diffInputs } from '$lib/server/snapshotDiff';
+import { diffInputs, diffResults, normaliseInputs } from '$lib/server/snapshotDiff';
 import { formatQuantity } from '$lib/units';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -25,10 +25,11 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const { detail, editable } = orError(await paths.find(scope, params.pathId));
 	const latest = detail.latest;
 	if (!latest) error(404, { message: 'This beam path has no saved assessment yet.' });
-	const result = 'engineVersion' in (latest.result as object) ? (latest.result as AssessmentResult) : null;
-	const inputs = latest.inputs as AssessmentInput;
-	const t = inputs.nohd?.exposureDuration ?? inputs.points.find((p) => p.tissue === 'eye')?.exposureDuration ?? null;
-	const profile = result ? exposureProfile(inputs, Number(result.pathLength), t === null || t === undefined ? null : String(t)) : null;
+	const result = isCurrentResult(latest.result) ? latest.result : null;
+	// A snapshot of an older engine is shown as it was saved (its engine version named), without a plot.
+	const legacy = !result && latest.result && typeof latest.result === 'object' && 'engineVersion' in latest.result ? (latest.result as Record<string, unknown>) : null;
+	const inputs = normaliseInputs(latest.inputs);
+	const profile = result ? exposureProfile(inputs.path, inputs.limits, result) : null;
 
 	const used = result?.limitsUsed ?? [];
 	const limitRows = used.length
@@ -41,8 +42,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	let changes: ReturnType<typeof diffInputs> | null = null;
 	const clearedId = detail.path.clearedAssessmentId;
 	if (clearedId && clearedId !== latest.id) {
-		const [cleared] = await db.select({ inputs: table.assessment.inputs }).from(table.assessment).where(eq(table.assessment.id, clearedId));
-		if (cleared) changes = diffInputs(cleared.inputs as Record<string, unknown>, inputs as unknown as Record<string, unknown>);
+		const [cleared] = await db.select({ inputs: table.assessment.inputs, result: table.assessment.result }).from(table.assessment).where(eq(table.assessment.id, clearedId));
+		if (cleared) changes = [...diffInputs(cleared.inputs, latest.inputs), ...diffResults(cleared.result, latest.result)];
 	}
 	const history = await reviews.history(detail.path.id);
 	const checks = (await eyewear.checksForPaths([detail.path.id])).get(detail.path.id) ?? [];
@@ -65,7 +66,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		laser: { id: detail.laser.id, name: `${detail.laser.maker} ${detail.laser.model}`, laserClass: detail.laser.laserClass },
 		lab: detail.lab,
 		form: formValues(detail),
-		snapshot: { id: latest.id, createdAt: latest.createdAt.toISOString(), cause: latest.cause, stale: latest.stale, staleReason: latest.staleReason, result, errors: result ? null : (latest.result as { errors: unknown[] }).errors },
+		snapshot: { id: latest.id, createdAt: latest.createdAt.toISOString(), cause: latest.cause, engineVersion: latest.engineVersion, stale: latest.stale, staleReason: latest.staleReason, result, legacy, errors: result || legacy ? null : ((latest.result as { errors?: unknown[] }).errors ?? []) },
 		profile,
 		limits: limitRows.map((l) => ({ id: l.limitId, version: l.version, label: l.label, citation: l.citation, demonstration: l.demonstration, tissue: l.tissue })),
 		changes,

@@ -1,9 +1,10 @@
 import { json } from '@sveltejs/kit';
-import { assessmentPreviewSchema, toAssessmentInput } from '$lib/schemas/assessment';
+import type { AssessmentResult } from '$lib/assessmentResult';
+import { previewSchema, type LimitSI } from '$lib/schemas/assessment';
 import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireUser } from '$lib/server/auth/guard';
-import { currentLimits, limitInput } from '$lib/server/assessments';
-import { assess, type AssessmentResult } from '$lib/server/hazard';
+import { currentLimits, evaluatePath } from '$lib/server/assessments';
+import { evaluate } from '$lib/server/hazard';
 import { exposureProfile, type Profile } from '$lib/server/profile';
 
 export type PreviewResponse = {
@@ -16,18 +17,24 @@ export type PreviewResponse = {
 /** Assess without saving: the editor calls this while the researcher types. */
 export const POST = endpoint(async ({ locals, request }) => {
 	requireUser(locals);
-	const body = await readJson(request, assessmentPreviewSchema);
+	const body = await readJson(request, previewSchema);
 	if (!body.ok) return body.response;
-	const input = toAssessmentInput(body.data);
-	const fromLibrary = body.data.limits === undefined;
-	if (fromLibrary) input.limits = (await currentLimits()).map(limitInput);
-	const outcome = assess(input);
+	const { path, breakdown } = body.data;
+	let limits: LimitSI[];
+	let outcome;
+	if (body.data.limits === undefined) {
+		const evaluated = evaluatePath(path, await currentLimits(), { breakdown });
+		limits = evaluated.inputs.limits;
+		outcome = evaluated.outcome;
+	} else {
+		limits = body.data.limits;
+		outcome = evaluate(path, limits, { breakdown });
+	}
 	if (!outcome.ok) {
 		const fields: Record<string, string[]> = {};
 		for (const e of outcome.errors) (fields[e.field || '(body)'] ??= []).push(e.reason);
 		return apiError(400, 'The assessment cannot be computed from these values.', fields);
 	}
-	const t = input.nohd?.exposureDuration ?? input.points.find((p) => p.tissue === 'eye')?.exposureDuration ?? null;
-	const profile = exposureProfile(input, Number(outcome.result.pathLength), t === null || t === undefined ? null : String(t));
-	return json({ result: outcome.result, profile, limitsSource: fromLibrary ? 'library' : 'request' } satisfies PreviewResponse);
+	const profile = exposureProfile(path, limits, outcome.result);
+	return json({ result: outcome.result, profile, limitsSource: body.data.limits === undefined ? 'library' : 'request' } satisfies PreviewResponse);
 });
