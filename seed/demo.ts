@@ -27,7 +27,7 @@ const src =
 	'Demonstration value recalled from memory of the ICNIRP 2013 guidelines on limits of exposure to laser radiation (Health Physics 105(3):271–295); not checked against the text. Replace with the local code’s value.';
 
 /** A demonstration limit set: plausible values for the demo, never a substitute for the local code. */
-export const demoLimits: Omit<LimitForm, 'version' | 'validFrom' | 'validUntil' | 'demonstration'>[] = [
+export const demoLimits: Omit<LimitForm, 'version' | 'validFrom' | 'validUntil' | 'demonstration' | 'noTrainCorrection'>[] = [
 	{ label: 'Eye, 400–700 nm, single pulse 100 fs – 5 µs', tissue: 'eye', wavelengthMin: '400 nm', wavelengthMax: '700 nm', durationMin: '1e-13 s', durationMax: '5 µs', quantity: 'radiant_exposure', k: '2e-3 J/m²', n: '0', limitingAperture: '7 mm', pulseBasis: 'single_pulse', pulseTrainExponent: '-0.25', citation: src },
 	{ label: 'Eye, 400–700 nm, 5 µs – 10 s', tissue: 'eye', wavelengthMin: '400 nm', wavelengthMax: '700 nm', durationMin: '5 µs', durationMax: '10 s', quantity: 'radiant_exposure', k: '18 J/m²', n: '0.75', limitingAperture: '7 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },
 	{ label: 'Eye, 400–700 nm, 10 s – 8 h', tissue: 'eye', wavelengthMin: '400 nm', wavelengthMax: '700 nm', durationMin: '10 s', durationMax: '30000 s', quantity: 'irradiance', k: '10 W/m²', n: '0', limitingAperture: '7 mm', pulseBasis: 'continuous', pulseTrainExponent: '', citation: src },

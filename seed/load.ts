@@ -48,7 +48,8 @@ async function loadLimits(officerId: string) {
 	let added = 0;
 	for (const l of demoLimits) {
 		if (existing.has(l.label)) continue;
-		await limits.create(officerId, { ...l, demonstration: true, validFrom: '', validUntil: '', version: 0 });
+		const created = await limits.create(officerId, { ...l, noTrainCorrection: false, demonstration: true, validFrom: '', validUntil: '', version: 0 });
+		if (!created.ok) throw new Error(`demo limit “${l.label}”: ${created.message} ${JSON.stringify(created.fields)}`);
 		added++;
 	}
 	return added;

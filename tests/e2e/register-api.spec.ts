@@ -108,11 +108,14 @@ test('beam paths: create, read, 400 naming the field, 409 on a stale version, 40
 });
 
 test('preview: the engine result with its working, or 400 naming the field', async () => {
+	const line = { mode: 'continuous', wavelength: '532e-9', power: 5, beamDiameter: '0.002', beamDiameterDefinition: '1/e2', divergence: '0.001', divergenceDefinition: '1/e2' };
 	const body = {
-		line: { mode: 'continuous', wavelength: '532e-9', power: 5, beamDiameter: '0.002', beamDiameterDefinition: '1/e2', divergence: '0.001', divergenceDefinition: '1/e2' },
-		elements: [{ kind: 'propagate', length: 2 }],
-		points: [{ id: 'p', position: 1, tissue: 'eye', exposureDuration: 0.25, kind: 'intrabeam' }],
-		nohd: { exposureDuration: 0.25 }
+		path: {
+			lines: [line],
+			elements: [{ kind: 'propagate', length: 2 }],
+			points: [{ id: 'p', position: 1, tissue: 'eye', exposureDuration: 0.25, kind: 'intrabeam' }],
+			nohdExposureDuration: 0.25
+		}
 	};
 	const ok = await mine.post('/api/assessments/preview', { data: body });
 	expect(ok.status()).toBe(200);
@@ -121,9 +124,9 @@ test('preview: the engine result with its working, or 400 naming the field', asy
 	expect(preview.result.verdict).toBe('exceeds_limit'); // 5 W visible against the demo library
 	expect(preview.result.points[0].breakdown.length).toBeGreaterThan(3);
 	expect(preview.profile.samples.length).toBeGreaterThan(10);
-	const bad = await mine.post('/api/assessments/preview', { data: { ...body, line: { ...body.line, wavelength: '5e-6', power: -1 } } });
+	const bad = await mine.post('/api/assessments/preview', { data: { path: { ...body.path, lines: [{ ...line, wavelength: '5e-6', power: -1 }] } } });
 	expect(bad.status()).toBe(400);
-	expect(Object.keys((await bad.json()).fields)).toContain('line.power');
+	expect(Object.keys((await bad.json()).fields)).toContain('lines.0.power');
 	expect((await mine.post('/api/assessments/preview', { data: { ...body, extra: 1 } })).status()).toBe(400);
 });
 

@@ -84,6 +84,12 @@ export function pathForm(lineId: string, overrides: Partial<PathForm> = {}): Pat
 	};
 }
 
+/** The value of an outcome that must have succeeded (a failure fails the test with its message). */
+export function must<T extends { ok: boolean }>(outcome: T): Extract<T, { ok: true }> {
+	if (!outcome.ok) throw new Error(`expected success: ${JSON.stringify(outcome)}`);
+	return outcome as Extract<T, { ok: true }>;
+}
+
 /** A visible-band eye limit for flow tests (a test fixture, not a value from any code). */
 export function limitForm(overrides: Partial<LimitForm> = {}): LimitForm {
 	return {
@@ -99,6 +105,7 @@ export function limitForm(overrides: Partial<LimitForm> = {}): LimitForm {
 		limitingAperture: '7 mm',
 		pulseBasis: 'continuous',
 		pulseTrainExponent: '',
+		noTrainCorrection: false,
 		citation: 'Test fixture',
 		demonstration: true,
 		validFrom: '',

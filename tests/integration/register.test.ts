@@ -8,7 +8,7 @@ import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import { currentLimits } from '$lib/server/assessments';
 import type { Scope } from '$lib/server/auth/scope';
-import { laserForm, limitForm, makeLab, makeUser, pathForm, scopeFor } from './factories';
+import { laserForm, limitForm, makeLab, makeUser, must, pathForm, scopeFor } from './factories';
 
 let labA: { id: string };
 let labB: { id: string };
@@ -140,7 +140,7 @@ describe('beam paths and their assessment snapshots', () => {
 			await other.end();
 		}
 		expect(await saving).toMatchObject({ ok: true });
-		const [latest] = await db.execute<{ power: string }>(sql`SELECT inputs->'line'->>'power' AS power FROM assessment WHERE path_id = ${first.id} ORDER BY created_at DESC LIMIT 1`);
+		const [latest] = await db.execute<{ power: string }>(sql`SELECT inputs->'path'->'lines'->0->>'power' AS power FROM assessment WHERE path_id = ${first.id} ORDER BY created_at DESC LIMIT 1`);
 		expect(Number(latest.power)).toBe(0.05);
 	});
 
@@ -171,7 +171,7 @@ describe('beam paths and their assessment snapshots', () => {
 		const laser = await newLaser(researcher, labA.id);
 		const saved = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));
 		if (!saved.ok) throw new Error('save');
-		const created = await limits.create(officerId, limitForm());
+		const created = must(await limits.create(officerId, limitForm()));
 		expect(created.staleMarked).toBeGreaterThanOrEqual(1);
 		let found = await paths.find(officer, saved.id);
 		expect(found.ok && found.detail.path.stale).toBe(true);
@@ -207,8 +207,8 @@ describe('beam paths and their assessment snapshots', () => {
 		await paths.reassessStale(1000);
 		// A narrow band of its own, so that only this test's path is covered.
 		const band = { wavelengthMin: '455 nm', wavelengthMax: '456 nm' };
-		const lapsing = await limits.create(officerId, limitForm({ label: 'Test fixture: lapses', ...band, validUntil: '2030-01-01' }));
-		const coming = await limits.create(officerId, limitForm({ label: 'Test fixture: comes into force', ...band, validFrom: '2030-06-01' }));
+		const lapsing = must(await limits.create(officerId, limitForm({ label: 'Test fixture: lapses', ...band, validUntil: '2030-01-01' })));
+		const coming = must(await limits.create(officerId, limitForm({ label: 'Test fixture: comes into force', ...band, validFrom: '2030-06-01' })));
 		const laser = await newLaser(researcher, labA.id);
 		const lineId = laser.lines[0].id;
 		await db.update(table.emissionLine).set({ wavelength: '4.555e-7' }).where(eq(table.emissionLine.id, lineId));
@@ -234,7 +234,7 @@ describe('beam paths and their assessment snapshots', () => {
 
 	it('an infrared limit leaves a green path alone', async () => {
 		await paths.reassessStale();
-		const r = await limits.create(officerId, limitForm({ label: 'Test fixture: far infrared', wavelengthMin: '1.4 µm', wavelengthMax: '1 mm' }));
+		const r = must(await limits.create(officerId, limitForm({ label: 'Test fixture: far infrared', wavelengthMin: '1.4 µm', wavelengthMax: '1 mm' })));
 		expect(r.staleMarked).toBe(0);
 	});
 });

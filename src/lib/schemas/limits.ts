@@ -2,10 +2,9 @@
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
 import { parseQuantity, type QuantityKind } from '$lib/units';
-import { tissues } from './register';
+import { limitQuantities, pulseBases, tissues } from '../enums';
 
-export const limitQuantities = ['irradiance', 'radiant_exposure'] as const;
-export const pulseBases = ['single_pulse', 'continuous'] as const;
+export { limitQuantities, pulseBases };
 
 const withUnit = (kind: QuantityKind, what: string, defaultUnit?: string) =>
 	z
@@ -51,6 +50,8 @@ export const limitFormSchema = z
 			.max(32)
 			.default('')
 			.refine((t) => t === '' || /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t), 'Enter a plain number, like -0.25, or leave it empty.'),
+		/** A single-pulse limit without an exponent: the officer states that the code applies no train correction. */
+		noTrainCorrection: z.boolean().default(false),
 		citation: z.string().trim().min(1, 'Cite the clause of the local code this value comes from.').max(1000),
 		demonstration: z.boolean().default(false),
 		validFrom: date,
@@ -76,6 +77,8 @@ export const limitFormSchema = z
 		if (l.validFrom && l.validUntil && l.validFrom > l.validUntil) ctx.addIssue({ code: 'custom', path: ['validUntil'], message: 'Ends before it starts.' });
 		if (l.pulseTrainExponent !== '' && l.pulseBasis !== 'single_pulse')
 			ctx.addIssue({ code: 'custom', path: ['pulseTrainExponent'], message: 'A pulse-train exponent belongs to a single-pulse limit.' });
+		if (l.noTrainCorrection && l.pulseBasis !== 'single_pulse') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Only a single-pulse limit has a pulse-train rule.' });
+		if (l.noTrainCorrection && l.pulseTrainExponent !== '') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Give either a pulse-train exponent or “no train correction”, not both.' });
 	});
 
 export type LimitForm = z.infer<typeof limitFormSchema>;
@@ -100,6 +103,7 @@ export function limitToSI(l: LimitForm) {
 		limitingAperture: si(l.limitingAperture, 'length', 'mm'),
 		pulseBasis: l.pulseBasis,
 		pulseTrainExponent: l.pulseTrainExponent === '' ? null : l.pulseTrainExponent,
+		noTrainCorrection: l.pulseBasis === 'single_pulse' && l.noTrainCorrection,
 		citation: l.citation,
 		demonstration: l.demonstration,
 		validFrom: l.validFrom ? new Date(l.validFrom + 'T00:00:00Z') : null,

@@ -6,7 +6,8 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
-import { changedMeanwhile, notFound, type Failure } from '$lib/server/failure';
+import { changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
+import { limitProblems } from '$lib/server/hazard';
 import { lockLimitLibrary } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
 import { limitToSI, type LimitForm } from '$lib/schemas/limits';
@@ -49,8 +50,18 @@ async function markStale(tx: Tx, ranges: { min: string; max: string }[], reason:
 	return marked.length;
 }
 
-export async function create(actorId: string, form: LimitForm): Promise<{ ok: true; id: string; staleMarked: number }> {
+/** The form in SI, checked with the hazard engine's own rules: a limit the engine cannot use is never saved. */
+function checkedLimit(form: LimitForm): { ok: true; values: ReturnType<typeof limitToSI> } | Failure {
 	const values = limitToSI(form);
+	const problems = limitProblems({ id: 'limit', version: '1', ...values });
+	if (problems.length) return fieldsNeedAttention(Object.fromEntries(problems.map((p) => [p.field || 'label', p.reason])));
+	return { ok: true, values };
+}
+
+export async function create(actorId: string, form: LimitForm): Promise<{ ok: true; id: string; staleMarked: number } | Failure> {
+	const checked = checkedLimit(form);
+	if (!checked.ok) return checked;
+	const values = checked.values;
 	const out = await db.transaction(async (tx) => {
 		await lockLimitLibrary(tx, 'change');
 		const [head] = await tx.insert(table.exposureLimit).values({}).returning();
@@ -66,7 +77,9 @@ export async function create(actorId: string, form: LimitForm): Promise<{ ok: tr
 /** A new version; `form.version` must be the version the officer was looking at. */
 export async function revise(actorId: string, limitId: string, form: LimitForm): Promise<{ ok: true; version: number; staleMarked: number } | Failure> {
 	if (!isUuid(limitId)) return notFound('limit');
-	const values = limitToSI(form);
+	const checked = checkedLimit(form);
+	if (!checked.ok) return checked;
+	const values = checked.values;
 	const out = await db.transaction(async (tx) => {
 		await lockLimitLibrary(tx, 'change');
 		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');

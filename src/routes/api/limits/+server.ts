@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { limitFormSchema } from '$lib/schemas/limits';
-import { endpoint, readJson } from '$lib/server/api';
+import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import * as limits from '$lib/server/limits';
 import type { RequestHandler } from './$types';
@@ -14,5 +14,7 @@ export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
 	const officer = requireRole(locals, 'officer');
 	const body = await readJson(request, limitFormSchema);
 	if (!body.ok) return body.response;
-	return json(await limits.create(officer.id, body.data), { status: 201 });
+	const result = await limits.create(officer.id, body.data);
+	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	return json(result, { status: 201 });
 });

@@ -31,6 +31,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		limitingAperture: formatQuantity(c.limitingAperture, 'length', { unit: 'mm', significantDigits: 12 }),
 		pulseBasis: c.pulseBasis,
 		pulseTrainExponent: c.pulseTrainExponent === null ? '' : String(Number(c.pulseTrainExponent)),
+		noTrainCorrection: c.noTrainCorrection,
 		citation: c.citation,
 		demonstration: c.demonstration,
 		validFrom: day(c.validFrom),

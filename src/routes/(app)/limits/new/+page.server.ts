@@ -3,6 +3,7 @@ import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { limitFormSchema } from '$lib/schemas/limits';
 import { requireRole } from '$lib/server/auth/guard';
+import { failForm } from '$lib/server/forms';
 import * as limits from '$lib/server/limits';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -16,7 +17,8 @@ export const actions: Actions = {
 		const officer = requireRole(locals, 'officer');
 		const form = await superValidate(request, zod4(limitFormSchema));
 		if (!form.valid) return fail(400, { form });
-		const { id } = await limits.create(officer.id, form.data);
-		redirect(303, `/limits/${id}`);
+		const result = await limits.create(officer.id, form.data);
+		if (!result.ok) return failForm(form, result);
+		redirect(303, `/limits/${result.id}`);
 	}
 };
