@@ -13,8 +13,9 @@
  * (inclusive range) match. Several applicable limits: each is compared and the most restrictive
  * (highest ratio) decides.
  */
-import type { CheckKind } from '$lib/assessmentResult';
+import type { CheckKind, Step } from '$lib/assessmentResult';
 import type { LimitQuantity, PulseBasis, Tissue } from '$lib/enums';
+import type { ComparisonTexts } from './exposure';
 import type { NormLimit, NormLine } from './validate';
 
 export const MEASURE_UNIT = { irradiance: 'W/m²', radiant_exposure: 'J/m²' } as const;
@@ -38,6 +39,9 @@ export interface LimitAt {
 	natural: number | null;
 	trainFactor?: number;
 	trainRule?: 'exponent' | 'no_correction' | 'missing';
+	/** Its working step, and the words of the comparison's steps, formed when first needed (see exposure.ts). */
+	step?: Step;
+	texts?: ComparisonTexts;
 }
 
 export interface Plan {
@@ -59,18 +63,20 @@ export interface Plan {
 	applicable: Partial<Record<Tissue, LimitAt[]>>;
 }
 
+/** One plan: a literal of one shape for every kind (keeps the engine's objects monomorphic). */
+function plan(kind: CheckKind, basis: PulseBasis, t: number | null, tSymbol: 'τ' | 'T', measure: LimitQuantity, source: number, symbol: Plan['symbol'], unit: Plan['unit'], pulseCount: number | null): Plan {
+	return { kind, label: CHECK_LABEL[kind], basis, t, tSymbol, measure, source, symbol, unit, pulseCount, applicable: {} };
+}
+
 export function planChecks(line: NormLine, T: number | null): Plan[] {
-	const base = { applicable: {} };
-	if (line.mode === 'continuous') {
-		return [{ ...base, kind: 'continuous', label: CHECK_LABEL.continuous, basis: 'continuous', t: T, tSymbol: 'T', measure: 'irradiance', source: line.averagePower!, symbol: 'P', unit: 'W', pulseCount: null }];
-	}
+	if (line.mode === 'continuous') return [plan('continuous', 'continuous', T, 'T', 'irradiance', line.averagePower!, 'P', 'W', null)];
 	const tau = line.pulseDuration!;
-	const single: Plan = { ...base, kind: 'single_pulse', label: CHECK_LABEL.single_pulse, basis: 'single_pulse', t: tau, tSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, symbol: 'Q', unit: 'J', pulseCount: null };
+	const single = plan('single_pulse', 'single_pulse', tau, 'τ', 'radiant_exposure', line.pulseEnergy!, 'Q', 'J', null);
 	if (line.mode === 'single_pulse') return [single];
 	return [
 		single,
-		{ applicable: {}, kind: 'average_power', label: CHECK_LABEL.average_power, basis: 'continuous', t: T, tSymbol: 'T', measure: 'irradiance', source: line.averagePower!, symbol: 'P_avg', unit: 'W', pulseCount: null },
-		{ applicable: {}, kind: 'pulse_train', label: CHECK_LABEL.pulse_train, basis: 'single_pulse', t: tau, tSymbol: 'τ', measure: 'radiant_exposure', source: line.pulseEnergy!, symbol: 'Q', unit: 'J', pulseCount: T === null ? null : Math.max(1, line.repetitionRate! * T) }
+		plan('average_power', 'continuous', T, 'T', 'irradiance', line.averagePower!, 'P_avg', 'W', null),
+		plan('pulse_train', 'single_pulse', tau, 'τ', 'radiant_exposure', line.pulseEnergy!, 'Q', 'J', T === null ? null : Math.max(1, line.repetitionRate! * T))
 	];
 }
 

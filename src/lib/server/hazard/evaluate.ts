@@ -13,10 +13,10 @@ import type { BeamPath, LimitSI } from '$lib/schemas/assessment';
 import { ELEMENTARY_CHARGE, ENGINE_VERSION, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT } from './constants';
 import { Plans } from './checks';
 import { requiredOpticalDensity } from './density';
-import { hazardDistance } from './distances';
-import { durationWarning, evaluatePoint, limitRef, VERDICT_RANK, worse, type Context } from './exposure';
+import { beamLimits, hazardDistance, stretchWorst } from './distances';
+import { durationWarning, evaluatePoint, limitRef, worse, type Context } from './exposure';
 import { photonEnergy } from './photon';
-import { validate, type NormLimit, type NormLine, type NormPath, type NormPoint } from './validate';
+import { validate, type NormLimit, type NormLine, type NormPath } from './validate';
 import { walkPath, type Origin } from './walk';
 import { Working } from './working';
 
@@ -50,17 +50,19 @@ function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): Asses
 	const lines = path.lines.map((line, i) => lineResult(line, ctx.photonEnergy[i], w, path.lines.length > 1 ? `line${i + 1}.` : ''));
 
 	// Hazard distances: one per beam (the aperture's and each element's); the largest is the NOHD.
+	const T = path.nohdExposureDuration;
+	const beams = walk.origins.map((origin) => beamLimits(ctx, origin, 'eye', T));
 	const distances: HazardDistance[] = [];
 	let nohdIndex = 0;
 	walk.origins.forEach((origin, i) => {
-		const out = hazardDistance(ctx, origin, 'eye', path.nohdExposureDuration, null, '');
-		out.used.forEach((u) => used.add(u));
-		distances.push(out.result);
+		for (const u of beams[i].used) used.add(u);
+		const d = hazardDistance(ctx, origin, 'eye', T, null, '', beams[i]);
+		distances.push(d);
 		const best = distances[nohdIndex];
-		if (i > 0 && best.status !== 'unbounded' && (out.result.status === 'unbounded' || (out.result.distance ?? -1) > (best.distance ?? -1))) nohdIndex = i;
+		if (i > 0 && best.status !== 'unbounded' && (d.status === 'unbounded' || (d.distance ?? -1) > (best.distance ?? -1))) nohdIndex = i;
 	});
-	// The working of the deciding beam (recomputed with the working on, for its steps).
-	const nohd = breakdown ? hazardDistance(ctx, walk.origins[nohdIndex], 'eye', path.nohdExposureDuration, w, 'nohd').result : distances[nohdIndex];
+	// The deciding beam again, with its working.
+	const nohd = breakdown ? hazardDistance(ctx, walk.origins[nohdIndex], 'eye', T, w, 'nohd', beams[nohdIndex]) : distances[nohdIndex];
 	if (breakdown) for (const o of walk.origins) if (o.lens) lensSteps(w, o, path.lines);
 
 	// Points.
@@ -70,26 +72,20 @@ function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): Asses
 		const ev = evaluatePoint(ctx, p);
 		points.push(ev.result);
 		ratios.push(ev.ratio);
-		ev.used.forEach((u) => used.add(u));
+		for (const u of ev.used) used.add(u);
 	}
 
-	// Open stretches: the worst ratio anywhere on them (eye, at the hazard-distance duration).
-	const stretches = walk.stretches.map<StretchResult>((s) => {
-		const base = { index: s.index, from: s.from, to: s.to, afterElement: walk.origins[s.origin].afterElement, enclosedBy: s.enclosedBy, beam: s.origin };
-		if (s.enclosedBy !== null) return { ...base, worstRatio: null, worstAt: null, verdict: null, reason: `Inside the enclosure (element ${s.enclosedBy + 1}): not accessible.` };
-		let worst: { ratio: number | null; at: number; verdict: Verdict } | null = null;
-		for (const z of stretchProbes(walk.origins[s.origin].states, s.from, s.to)) {
-			const ev = evaluatePoint(ctx, probe(z, path.nohdExposureDuration), false);
-			if (!worst || VERDICT_RANK[ev.result.verdict] > VERDICT_RANK[worst.verdict] || (ev.ratio !== null && (worst.ratio === null || ev.ratio > worst.ratio))) worst = { ratio: ev.ratio, at: z, verdict: ev.result.verdict };
+	// Open stretches: the worst eye exposure anywhere on them, at the hazard-distance duration.
+	const stretches: StretchResult[] = [];
+	for (const s of walk.stretches) {
+		const afterElement = walk.origins[s.origin].afterElement;
+		if (s.enclosedBy !== null) {
+			stretches.push({ index: s.index, from: s.from, to: s.to, afterElement, enclosedBy: s.enclosedBy, beam: s.origin, worstRatio: null, worstAt: null, verdict: null, reason: `Inside the enclosure (element ${s.enclosedBy + 1}): not accessible.` });
+			continue;
 		}
-		const reason =
-			worst!.ratio === null
-				? worst!.verdict === 'incomplete'
-					? 'Needs the exposure duration for the hazard distances to find the worst exposure on this stretch.'
-					: 'No entered eye limit applies on this stretch. Not shown as safe.'
-				: `Worst eye exposure on this open stretch: ${Number(worst!.ratio.toPrecision(3))} × the limit at ${Number(worst!.at.toPrecision(4))} m.`;
-		return { ...base, worstRatio: worst!.ratio, worstAt: worst!.at, verdict: worst!.verdict, reason };
-	});
+		const worst = stretchWorst(ctx, walk.origins[s.origin], beams[s.origin], s.from, s.to);
+		stretches.push({ index: s.index, from: s.from, to: s.to, afterElement, enclosedBy: null, beam: s.origin, worstRatio: worst.ratio, worstAt: worst.at, verdict: worst.verdict, reason: STRETCH_REASON[worst.verdict] });
+	}
 
 	// Aggregation over accessible points.
 	let verdict: Verdict = 'within_limit';
@@ -134,19 +130,12 @@ function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): Asses
 	};
 }
 
-/** Where to look for the worst exposure on a stretch: its ends and each line's narrowest place on it. */
-function stretchProbes(states: { waistPosition: number }[], from: number, to: number): number[] {
-	const out = [from, to];
-	for (const s of states) {
-		const z = Math.min(to, Math.max(from, s.waistPosition));
-		if (!out.includes(z)) out.push(z);
-	}
-	return out;
-}
-
-function probe(z: number, T: number | null): NormPoint {
-	return { index: -1, id: 'probe', label: 'probe', position: z, tissue: 'eye', kind: 'intrabeam', exposureDuration: T, reflectance: null, viewingAngle: 0, viewingDistance: null };
-}
+const STRETCH_REASON: Record<Verdict, string> = {
+	exceeds_limit: 'The worst eye exposure on this open stretch, where the beam is narrowest.',
+	within_limit: 'The worst eye exposure on this open stretch, where the beam is narrowest.',
+	incomplete: 'A check could not be made on this stretch (no exposure duration, or no pulse-train rule): the exposure may be higher than shown.',
+	no_applicable_limit: 'No entered eye limit applies on this stretch. Not shown as safe.'
+};
 
 function lineResult(line: NormLine, ePh: number, w: Working, p: string): LineResult {
 	const eV = ePh / ELEMENTARY_CHARGE;

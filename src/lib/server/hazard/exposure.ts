@@ -45,7 +45,8 @@ export interface Context {
 	breakdown: boolean;
 }
 
-export const limitRef = (l: NormLimit): LimitRef => ({ id: l.id, version: l.version });
+/** The limit's reference, one shared object per limit and assessment. */
+export const limitRef = (l: NormLimit): LimitRef => l.ref;
 
 interface LineEval {
 	res: LineAtPoint;
@@ -132,32 +133,32 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 		for (let j = 0; j < limits.length; j++) {
 			const la = limits[j];
 			const limit = la.limit;
-			const sid = `${p}.${plan.kind}.limit${limit.index + 1}`;
-			const nat = MEASURE_SYMBOL[plan.measure];
+			// The words of this comparison's steps are the same at every point: formed once.
+			const tx = w.enabled ? (la.texts ??= comparisonTexts(p, plan, limit, h)) : null;
 			let exposureNat: number;
 			let averaging: number | null = null;
 			if (diffuse) {
 				exposureNat = G! * x;
-				if (w.enabled) w.add(`${sid}.exposure`, `${plan.label}: exposure at the viewer`, `${nat} = ρ·${plan.symbol}·cosθ / (π·r²)`, diffuseIn(point, plan.symbol, x, plan.unit), exposureNat, MEASURE_UNIT[plan.measure], 'Lambertian surface; no aperture averaging.');
+				if (tx) w.add(tx.exposure, tx.diffuseLabel, tx.diffuseFormula, diffuseIn(point, plan.symbol, x, plan.unit), exposureNat, MEASURE_UNIT[plan.measure], 'Lambertian surface; no aperture averaging.');
 			} else {
 				averaging = D >= limit.limitingAperture ? D : limit.limitingAperture;
 				exposureNat = (h * x) / (PI_4 * averaging * averaging);
-				if (w.enabled) {
-					w.add(`${sid}.averaging`, `${plan.label}: averaging diameter`, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', limit.limitingAperture, 'm']], averaging, 'm');
-					w.add(`${sid}.exposure`, `${plan.label}: exposure averaged over D_avg`, h === 1 ? `${nat} = ${plan.symbol} / (π·D_avg²/4)` : `${nat} = h·${plan.symbol} / (π·D_avg²/4)`, h === 1 ? [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm']] : [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm'], ['h', h, '']], exposureNat, MEASURE_UNIT[plan.measure]);
+				if (tx) {
+					w.add(tx.averaging, tx.averagingLabel, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', limit.limitingAperture, 'm']], averaging, 'm');
+					w.add(tx.exposure, tx.averagedLabel, tx.averagedFormula, h === 1 ? [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm']] : [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm'], ['h', h, '']], exposureNat, MEASURE_UNIT[plan.measure]);
 				}
 			}
 			let exposure = exposureNat;
 			if (limit.quantity !== plan.measure) {
 				exposure = plan.measure === 'irradiance' ? exposureNat * t : exposureNat / t;
-				if (w.enabled) {
-					if (plan.measure === 'irradiance') w.add(`${sid}.convert`, `${plan.label}: radiant exposure over ${plan.tSymbol}`, `H = E·${plan.tSymbol}`, [['E', exposureNat, 'W/m²'], [plan.tSymbol, t, 's']], exposure, 'J/m²');
-					else w.add(`${sid}.convert`, `${plan.label}: irradiance during the pulse`, 'E = H / τ', [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
+				if (tx) {
+					if (plan.measure === 'irradiance') w.add(tx.convert, tx.convertLabel, tx.convertFormula, [['E', exposureNat, 'W/m²'], [plan.tSymbol, t, 's']], exposure, 'J/m²');
+					else w.add(tx.convert, tx.convertLabel, tx.convertFormula, [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
 				}
 			}
 			const unit = MEASURE_UNIT[limit.quantity];
 			const cmp: Comparison = {
-				limit: { id: limit.id, version: limit.version, label: limit.label, citation: limit.citation },
+				limit: limit.cited,
 				quantity: limit.quantity,
 				unit,
 				duration: t,
@@ -182,11 +183,11 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 				comparisons.push(cmp);
 				continue;
 			}
-			if (w.enabled) limitStep(w, `${sid}.limit`, la, plan);
+			if (tx) limitStep(w, tx.limit, la, plan);
 			const ratio = exposure / la.value;
 			cmp.ratio = ratio;
 			cmp.verdict = exceeds(ratio) ? 'exceeds_limit' : 'within_limit';
-			if (w.enabled) w.add(`${sid}.ratio`, `${plan.label}: ratio to “${limit.label}”`, `ratio = ${MEASURE_SYMBOL[limit.quantity]} / EL`, [[MEASURE_SYMBOL[limit.quantity], exposure, unit], ['EL', la.value, unit]], ratio, '');
+			if (tx) w.add(tx.ratio, tx.ratioLabel, tx.ratioFormula, [[MEASURE_SYMBOL[limit.quantity], exposure, unit], ['EL', la.value, unit]], ratio, '');
 			comparisons.push(cmp);
 			if (best < 0 || ratio > comparisons[best].ratio!) best = comparisons.length - 1;
 			if (G !== null) {
@@ -202,18 +203,18 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 		if (decided) decided.deciding = true;
 		if (decided && exceeds(decided.ratio!)) {
 			checkVerdict = 'exceeds_limit';
-			reason = `Exceeds “${decided.limit.label}”: exposure is ${sig(decided.ratio!)} × the limit.`;
+			reason = `Exceeds “${decided.limit.label}”, the most restrictive applicable limit.`;
 		} else if (anyIncomplete) {
 			checkVerdict = 'incomplete';
 			const names = comparisons.filter((c) => c.ratio === null).map((c) => `“${c.limit.label}”`);
-			reason = `${names.join(', ')} ${names.length === 1 ? 'gives' : 'give'} no pulse-train rule, so the pulse train cannot be checked against ${names.length === 1 ? 'it' : 'them'}.` + (decided ? ` Against the others: ${sig(decided.ratio!)} × the limit.` : '');
+			reason = `${names.join(', ')} ${names.length === 1 ? 'gives' : 'give'} no pulse-train rule, so the pulse train cannot be checked against ${names.length === 1 ? 'it' : 'them'}.` + (decided ? ' The ratio shown is against the others only.' : '');
 		} else {
 			checkVerdict = 'within_limit';
-			reason = `Within “${decided!.limit.label}”: exposure is ${sig(decided!.ratio!)} × the limit.`;
+			reason = `Within “${decided!.limit.label}”, the most restrictive applicable limit.`;
 		}
 		verdict = worse(verdict, checkVerdict);
 		if (decided && (worst === null || decided.ratio! > worst)) worst = decided.ratio!;
-		checks.push({ kind: plan.kind, label: plan.label, duration: t, verdict: checkVerdict, reason, ratio: decided ? decided.ratio : null, decidingLimit: decided ? { id: decided.limit.id, version: decided.limit.version } : null, comparisons, missing: [] });
+		checks.push({ kind: plan.kind, label: plan.label, duration: t, verdict: checkVerdict, reason, ratio: decided ? decided.ratio : null, decidingLimit: decided ? limits[best].limit.ref : null, comparisons, missing: [] });
 	}
 	const od = worst === null ? null : requiredOpticalDensity(worst);
 	return {
@@ -241,11 +242,56 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 	};
 }
 
+/** Ids, labels and formulas of one comparison's steps. */
+export interface ComparisonTexts {
+	averaging: string;
+	exposure: string;
+	convert: string;
+	limit: string;
+	ratio: string;
+	averagingLabel: string;
+	averagedLabel: string;
+	averagedFormula: string;
+	diffuseLabel: string;
+	diffuseFormula: string;
+	convertLabel: string;
+	convertFormula: string;
+	ratioLabel: string;
+	ratioFormula: string;
+}
+
+function comparisonTexts(p: string, plan: Plan, limit: NormLimit, h: number): ComparisonTexts {
+	const sid = `${p}.${plan.kind}.limit${limit.index + 1}`;
+	const nat = MEASURE_SYMBOL[plan.measure];
+	return {
+		averaging: `${sid}.averaging`,
+		exposure: `${sid}.exposure`,
+		convert: `${sid}.convert`,
+		limit: `${sid}.limit`,
+		ratio: `${sid}.ratio`,
+		averagingLabel: `${plan.label}: averaging diameter`,
+		averagedLabel: `${plan.label}: exposure averaged over D_avg`,
+		averagedFormula: h === 1 ? `${nat} = ${plan.symbol} / (π·D_avg²/4)` : `${nat} = h·${plan.symbol} / (π·D_avg²/4)`,
+		diffuseLabel: `${plan.label}: exposure at the viewer`,
+		diffuseFormula: `${nat} = ρ·${plan.symbol}·cosθ / (π·r²)`,
+		convertLabel: plan.measure === 'irradiance' ? `${plan.label}: radiant exposure over ${plan.tSymbol}` : `${plan.label}: irradiance during the pulse`,
+		convertFormula: plan.measure === 'irradiance' ? `H = E·${plan.tSymbol}` : 'E = H / τ',
+		ratioLabel: `${plan.label}: ratio to “${limit.label}”`,
+		ratioFormula: `ratio = ${MEASURE_SYMBOL[limit.quantity]} / EL`
+	};
+}
+
+/** The limit's step, formed once per check and limit and shared by every point that uses it. */
 function limitStep(w: Working, id: string, la: LimitAt, plan: Plan): void {
-	const l = la.limit;
-	const unit = MEASURE_UNIT[l.quantity];
-	if (la.trainRule === 'exponent') w.add(id, `Limit “${l.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', l.k, unit], ['t', plan.t!, 's'], ['n', l.n, ''], ['N', plan.pulseCount!, ''], ['x', l.trainExponent!, '']], la.value!, unit, l.citation);
-	else w.add(id, `Limit “${l.label}”`, 'EL = k·tⁿ', [['k', l.k, unit], ['t', plan.t!, 's'], ['n', l.n, '']], la.value!, unit, la.trainRule === 'no_correction' ? `${l.citation} No pulse-train correction, as the officer entered it.` : l.citation);
+	if (!la.step) {
+		const l = la.limit;
+		const unit = MEASURE_UNIT[l.quantity];
+		const scratch = new Working(true);
+		if (la.trainRule === 'exponent') scratch.add(id, `Limit “${l.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', l.k, unit], ['t', plan.t!, 's'], ['n', l.n, ''], ['N', plan.pulseCount!, ''], ['x', l.trainExponent!, '']], la.value!, unit, l.citation);
+		else scratch.add(id, `Limit “${l.label}”`, 'EL = k·tⁿ', [['k', l.k, unit], ['t', plan.t!, 's'], ['n', l.n, '']], la.value!, unit, la.trainRule === 'no_correction' ? `${l.citation} No pulse-train correction, as the officer entered it.` : l.citation);
+		la.step = scratch.steps[0];
+	}
+	w.push(la.step);
 }
 
 function diffuseIn(point: NormPoint, symbol: string, x: number, unit: string): In[] {
@@ -321,7 +367,7 @@ function evaluateSide(ctx: Context, point: NormPoint, origin: Origin, enclosedBy
 	}
 	if (origin.note) warnings.push(origin.note);
 
-	const skinHazardDistance = point.tissue === 'skin' && point.kind === 'intrabeam' ? hazardDistance(ctx, origin, 'skin', point.exposureDuration, w.enabled ? w : null, 'skin-hazard-distance').result : null;
+	const skinHazardDistance = point.tissue === 'skin' && point.kind === 'intrabeam' ? hazardDistance(ctx, origin, 'skin', point.exposureDuration, w.enabled ? w : null, 'skin-hazard-distance') : null;
 
 	const accessible = enclosedBy === null;
 	const result: PointResult = {
@@ -365,7 +411,8 @@ function diffuseDistance(point: NormPoint, best: (NonNullable<LineEval['diffuse'
 
 function pointReason(verdict: Verdict, lines: LineAtPoint[], accessible: boolean, enclosedBy: number | null): string {
 	const lead = accessible ? '' : `Inside the enclosure (element ${enclosedBy! + 1}): not accessible, reported but left out of the overall verdict. `;
-	const decisive = lines.flatMap((l) => l.checks).find((c) => c.verdict === verdict);
+	let decisive: CheckResult | undefined;
+	for (const l of lines) for (const c of l.checks) if (!decisive && c.verdict === verdict) decisive = c;
 	switch (verdict) {
 		case 'exceeds_limit':
 		case 'incomplete':

@@ -6,7 +6,7 @@
  */
 import { beamDefinitions, beamProfiles, elementKinds, emissionModes, limitQuantities, pointKinds, pulseBases, tissues } from '$lib/enums';
 import type { BeamDefinition, BeamProfile, ElementKind, EmissionMode, LimitQuantity, PointKind, PulseBasis, Tissue } from '$lib/enums';
-import type { InputError } from '$lib/assessmentResult';
+import type { CitedLimit, InputError, LimitRef } from '$lib/assessmentResult';
 import { WAVELENGTH_MAX, WAVELENGTH_MIN } from './constants';
 import { toOneOverE } from './beam';
 
@@ -78,6 +78,9 @@ export interface NormLimit {
 	pulseBasis: PulseBasis;
 	trainExponent: number | null;
 	noTrainCorrection: boolean;
+	/** Its reference and its citation as results carry them: one object each, shared by every comparison. */
+	ref: LimitRef;
+	cited: CitedLimit;
 }
 
 export interface NormPath {
@@ -371,7 +374,9 @@ export function readLimit(raw: unknown, i: number, errors: Errors): NormLimit | 
 		limitingAperture: limitingAperture!,
 		pulseBasis: pulseBasis!,
 		trainExponent: trainExponent ?? null,
-		noTrainCorrection
+		noTrainCorrection,
+		ref: { id: id!, version: version! },
+		cited: { id: id!, version: version!, label: textOf(raw.label, id!), citation: citation! }
 	};
 }
 
