@@ -59,6 +59,7 @@ export const elementWords: Record<string, string> = {
 	enclosure: 'Enclosed section'
 };
 export const definitionWords: Record<string, string> = { '1/e': '1/e', '1/e2': '1/e²', fwhm: 'FWHM' };
+export const profileWords: Record<string, string> = { gaussian: 'Gaussian', flat_top: 'flat-top (even across its full width)' };
 
 export const caution =
 	'Computed from the data entered here. It does not replace measurement; the laser safety officer and the applicable local code decide.';

@@ -34,6 +34,8 @@ export async function loadLineForm(locals: App.Locals, laserId: string, lineId: 
 		divergence: shown(l.divergence, 'angle'),
 		divergenceDefinition: l.divergenceDefinition,
 		beamQuality: l.beamQuality ?? '',
+		beamProfile: l.beamProfile,
+		hotSpotFactor: l.hotSpotFactor ?? '',
 		version: l.version
 	};
 	return { laser, form: await superValidate(values, zod4(lineSchema)) };
