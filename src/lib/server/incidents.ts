@@ -466,9 +466,18 @@ export async function view(scope: Scope, incidentId: string, today: string, view
 		closedByName: names ? r.closerName : null,
 		closingNote: r.i.closingNote,
 		links: {
-			paths: links.filter((l) => l.link.kind === 'path' && l.pathName).map((l) => ({ id: l.link.pathId!, name: l.pathName! })),
-			eyewear: links.filter((l) => l.link.kind === 'eyewear' && l.eyewearLabel).map((l) => ({ id: l.link.eyewearId!, label: l.eyewearLabel! })),
-			procedures: links.filter((l) => l.link.kind === 'procedure').map((l) => l.link.reference!)
+			paths: links
+				.filter((l) => l.link.kind === 'path' && l.pathName)
+				.map((l) => ({ id: l.link.pathId!, name: l.pathName! }))
+				.sort((a, b) => a.name.localeCompare(b.name)),
+			eyewear: links
+				.filter((l) => l.link.kind === 'eyewear' && l.eyewearLabel)
+				.map((l) => ({ id: l.link.eyewearId!, label: l.eyewearLabel! }))
+				.sort((a, b) => a.label.localeCompare(b.label)),
+			procedures: links
+				.filter((l) => l.link.kind === 'procedure')
+				.map((l) => l.link.reference!)
+				.sort((a, b) => a.localeCompare(b))
 		},
 		actions: actionRows.map(({ a, ownerName }) => ({
 			id: a.id,
