@@ -122,7 +122,7 @@ describe('reporting', () => {
 
 	it('takes the lab and the area from the laser, and photos in the same transaction', async () => {
 		const form = new FormData();
-		form.append('photos', new File([png(40, 30, (x) => x * 5)], 'bench photo by Quentin.png', { type: 'image/png' }));
+		form.append('photos', new File([new Uint8Array(png(40, 30, (x) => x * 5))], 'bench photo by Quentin.png', { type: 'image/png' }));
 		const files = await readUploads(form, 'photos');
 		if (!files.ok) throw new Error('upload');
 		const r = await incidents.saveReport(reporter, null, report({ areaId: '', laserId }), files.files);
@@ -265,7 +265,7 @@ describe('investigating, following up and closing', () => {
 		// The owner closes theirs with evidence and a photo; a stranger cannot touch it.
 		expect(await incidents.closeAction(stranger, { actionId: a1.id, evidence: 'done', version: 1 })).toMatchObject({ ok: false, status: 404 });
 		const form = new FormData();
-		form.append('photos', new File([png(20, 20, () => 90)], 'clamp.png', { type: 'image/png' }));
+		form.append('photos', new File([new Uint8Array(png(20, 20, () => 90))], 'clamp.png', { type: 'image/png' }));
 		const files = await readUploads(form, 'photos');
 		if (!files.ok) throw new Error('upload');
 		expect(await incidents.closeAction(colleague, { actionId: a1.id, evidence: 'Second clamp fitted to all six mounts.', version: 1 }, files.files)).toMatchObject({ ok: true, incidentId: id });
