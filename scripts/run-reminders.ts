@@ -46,7 +46,7 @@ async function main(): Promise<number> {
 		const counts = await runDaily(args.today);
 		console.log(
 			`reminders for ${counts.today}: ${counts.inspectionDue} inspection due, ${counts.inspectionOverdue} inspection overdue, ` +
-				`${counts.reviewWaiting} review waiting, ${counts.trainingExpiring} training expiring, ${counts.trainingExpired} training expired, ${counts.notifications} notification; ${counts.held} held for digests; ` +
+				`${counts.reviewWaiting} review waiting, ${counts.trainingExpiring} training expiring, ${counts.trainingExpired} training expired, ${counts.actionOverdue} corrective action overdue, ${counts.notifications} notification; ${counts.held} held for digests; ` +
 				`${counts.digests} digests (${counts.digestItems} items)`
 		);
 		if (args.deliver) {

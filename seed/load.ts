@@ -17,6 +17,7 @@ import { createHash } from 'node:crypto';
 import { png } from './png';
 import * as eyewear from '$lib/server/eyewear';
 import * as reviews from '$lib/server/reviews';
+import { loadIncidents } from './incidents';
 
 async function loadPeople() {
 	const hashes = await Promise.all(demoUsers.map((u) => hashPassword(u.password)));
@@ -157,6 +158,7 @@ export async function loadDemo(): Promise<{ labs: number; users: number; limits:
 	await loadEyewearAndClearance(officer.id);
 	await loadInspections(officer.id);
 	await loadTraining(officer.id);
+	await loadIncidents(officer.email);
 	return { ...people, limits: limitCount, lasers: laserCount };
 }
 

@@ -10,6 +10,7 @@ export const navigation: NavItem[] = [
 	{ href: '/inspections', label: 'Inspection rota', icon: 'calendar' },
 	{ href: '/eyewear', label: 'Eyewear store', icon: 'eye' },
 	{ href: '/training', label: 'Training', icon: 'badge' },
+	{ href: '/incidents', label: 'Incidents', icon: 'flag' },
 	{ href: '/limits', label: 'Limit library', icon: 'list' },
 	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: ['admin'] },
 	{ href: '/admin/mail', label: 'Sent mail', icon: 'list', roles: ['admin'] }

@@ -57,6 +57,7 @@ test.beforeAll(async () => {
 	const sql = postgres(`postgres://beamwarden_app@127.0.0.1:${process.env.BEAMWARDEN_PGPORT ?? '54329'}/beamwarden_e2e`, { max: 1 });
 	const [spx] = await sql`SELECT i.id AS inspection_id, d.id AS document_id FROM inspection i JOIN area a ON a.id = i.area_id JOIN lab l ON l.id = a.lab_id LEFT JOIN document d ON d.entity_id = i.id::text WHERE l.code = 'SPX' AND d.id IS NOT NULL LIMIT 1`;
 	const [goggles] = await sql`SELECT id FROM eyewear LIMIT 1`;
+	const [incident] = await sql`SELECT id FROM incident WHERE state <> 'draft' ORDER BY number LIMIT 1`;
 	await sql.end();
 	sample = {
 		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
@@ -67,6 +68,7 @@ test.beforeAll(async () => {
 		inspectionId: spx.inspection_id,
 		documentId: spx.document_id,
 		eyewearId: goggles.id,
+		incidentId: incident.id,
 		token: 'not-a-real-token'
 	};
 	// A disabled person whose session was live before the disable

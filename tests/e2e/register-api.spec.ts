@@ -42,7 +42,7 @@ test('lasers: documented answers, lab scope and field messages', async () => {
 	const page = await (await mine.get('/api/lasers?band=visible&sort=updated&dir=desc&pageSize=5')).json();
 	expect(page).toMatchObject({ page: 1, pageSize: 5 });
 	expect(page.items.length).toBeGreaterThan(0);
-	expect(Object.keys(page.items[0]).sort()).toEqual(['areaName', 'flaggedCount', 'id', 'labCode', 'labName', 'laserClass', 'lineCount', 'maker', 'model', 'pathCount', 'serial', 'staleCount', 'status', 'updatedAt', 'wavelengthMax', 'wavelengthMin']);
+	expect(Object.keys(page.items[0]).sort()).toEqual(['areaName', 'flaggedCount', 'id', 'labCode', 'labName', 'laserClass', 'lineCount', 'maker', 'model', 'pathCount', 'serial', 'staleCount', 'status', 'suspended', 'updatedAt', 'wavelengthMax', 'wavelengthMin']);
 	// another lab's researcher sees neither the laser nor it in the list
 	expect((await other.get(`/api/lasers/${laserId}`)).status()).toBe(403);
 	const theirs = await (await other.get('/api/lasers?q=HeNe%2020')).json();

@@ -51,6 +51,8 @@ export type InventoryRow = {
 	pathCount: number;
 	flaggedCount: number;
 	staleCount: number;
+	/** An officer suspended it after an incident (laser_suspension): no new clearance until lifted. */
+	suspended: boolean;
 	updatedAt: string;
 };
 
@@ -137,6 +139,7 @@ export async function inventory(scope: Scope, q: InventoryQuery): Promise<Invent
 			pathCount: sql<number>`coalesce(${counts.pathCount}, 0)`,
 			flaggedCount: sql<number>`coalesce(${counts.flaggedCount}, 0)`,
 			staleCount: sql<number>`coalesce(${counts.staleCount}, 0)`,
+			suspended: sql<boolean>`EXISTS (SELECT 1 FROM laser_suspension s WHERE s.laser_id = ${table.laser.id} AND s.lifted_at IS NULL)`,
 			updatedAt: table.laser.updatedAt
 		})
 		.from(table.laser)

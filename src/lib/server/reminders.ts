@@ -8,7 +8,7 @@ import * as table from '$lib/server/db/schema';
 import { readMailConfig } from '$lib/server/mail/config';
 import * as outbox from '$lib/server/mail/outbox';
 import type { MailInput } from '$lib/server/mail/outbox';
-import { inspectionStep, reviewWaitStep, shiftDay, startOfUtcDay, toIsoDay, trainingStep } from '$lib/server/mail/schedule';
+import { actionOverdueStep, inspectionStep, reviewWaitStep, shiftDay, startOfUtcDay, toIsoDay, trainingStep } from '$lib/server/mail/schedule';
 import * as templates from '$lib/server/mail/templates';
 import { TRAINING_EXPIRED_NOTICE_DAYS, TRAINING_NOTICE_DAYS } from '$lib/trainingState';
 
@@ -22,6 +22,7 @@ export type DailyCounts = {
 	reviewWaiting: number;
 	trainingExpiring: number;
 	trainingExpired: number;
+	actionOverdue: number;
 	notifications: number;
 	/** Of the new rows, how many wait for a digest. */
 	held: number;
@@ -183,6 +184,35 @@ export async function trainingMails(today: string, appUrl: string): Promise<Mail
 	return mails;
 }
 
+/**
+ * Open corrective actions past their due day: weekly, to the owner and to the officer who set the
+ * action. The mail names the incident by number only, never a person.
+ */
+export async function actionOverdueMails(today: string, appUrl: string): Promise<MailInput[]> {
+	const a = table.correctiveAction;
+	const rows = await db
+		.select({ id: a.id, description: a.description, dueOn: a.dueOn, ownerId: a.ownerId, createdBy: a.createdBy, number: table.incident.number })
+		.from(a)
+		.innerJoin(table.incident, eq(table.incident.id, a.incidentId))
+		.where(and(isNull(a.closedAt), lt(a.dueOn, today)));
+	if (rows.length === 0) return [];
+	const people = await activeUsers({ ids: [...new Set(rows.flatMap((r) => [r.ownerId, r.createdBy]))] });
+	const byId = new Map(people.map((p) => [p.id, p]));
+	const mails: MailInput[] = [];
+	for (const r of rows) {
+		const step = actionOverdueStep(r.dueOn, today);
+		if (!step) continue;
+		const to = new Recipients();
+		to.add(byId.get(r.ownerId), 'You own this corrective action.');
+		to.add(byId.get(r.createdBy), 'You set this corrective action.');
+		for (const { person, reason } of to.list()) {
+			const body = templates.actionOverdue({ appUrl, incidentNumber: r.number, description: r.description, dueOn: r.dueOn, daysOverdue: step.daysOverdue, reason });
+			mails.push({ kind: 'action.overdue', recordId: r.id, dueKey: r.dueOn, step: step.step, recipientId: person.id, recipientEmail: person.email, ...mailBody(body), reason });
+		}
+	}
+	return mails;
+}
+
 /** One mail per in-app notification created in [from, to). */
 export async function notificationMailsBetween(from: Date, to: Date, appUrl: string): Promise<MailInput[]> {
 	const n = table.notification;
@@ -239,6 +269,7 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 	const trainings = await trainingMails(day, appUrl);
 	const expiring = await enqueueAll(trainings.filter((m) => m.kind === 'training.expiring'));
 	const expired = await enqueueAll(trainings.filter((m) => m.kind === 'training.expired'));
+	const actions = await enqueueAll(await actionOverdueMails(day, appUrl));
 	const start = startOfUtcDay(shiftDay(day, -NOTIFICATION_WINDOW_DAYS));
 	const notes = await enqueueAll(await notificationMailsBetween(start, startOfUtcDay(shiftDay(day, 1)), appUrl));
 	const digests = await outbox.assembleDigests(day);
@@ -250,8 +281,9 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 		reviewWaiting: reviews.inserted,
 		trainingExpiring: expiring.inserted,
 		trainingExpired: expired.inserted,
+		actionOverdue: actions.inserted,
 		notifications: notes.inserted,
-		held: due.held + overdue.held + reviews.held + expiring.held + expired.held + notes.held,
+		held: due.held + overdue.held + reviews.held + expiring.held + expired.held + actions.held + notes.held,
 		digests: digests.digests,
 		digestItems: digests.items
 	};

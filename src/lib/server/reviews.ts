@@ -9,6 +9,7 @@ import { failure, fieldsNeedAttention, notFound, notYours, type Failure } from '
 import { isUuid } from '$lib/server/lasers';
 import { needsReview } from '$lib/server/assessments';
 import { notify, officerIds } from '$lib/server/notifications';
+import * as suspensions from '$lib/server/suspensions';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
 import type { DecisionForm } from '$lib/schemas/reviews';
@@ -73,6 +74,7 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 			laserId: table.laser.id,
 			laserName: sql<string>`${table.laser.maker} || ' ' || ${table.laser.model}`,
 			labCode: table.lab.code,
+			laserSuspended: sql<boolean>`EXISTS (SELECT 1 FROM laser_suspension s WHERE s.laser_id = ${table.laser.id} AND s.lifted_at IS NULL)`,
 			wavelength: table.emissionLine.wavelength,
 			verdict: latest.verdict,
 			worstRatio: latest.worstRatio,
@@ -160,6 +162,9 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 	const outcome = await db.transaction(async (tx) => {
 		const [path] = await tx.select().from(table.beamPath).where(eq(table.beamPath.id, pathId)).for('update');
 		if (!path) return notFound('beam path');
+		// A suspended laser takes no new clearance until an officer lifts the suspension.
+		const [suspended] = form.decision === 'cleared' ? await suspensions.activeFor([path.laserId], tx) : [];
+		if (suspended) return failure(409, suspensions.refusal(suspended));
 		const [latest] = await tx.select().from(table.assessment).where(eq(table.assessment.pathId, pathId)).orderBy(desc(table.assessment.createdAt)).limit(1);
 		if (!latest) return failure(409, 'This path has no saved assessment to review yet.');
 		if (latest.id !== form.assessmentId)

@@ -14,11 +14,22 @@ import { toIsoDay } from './schedule';
 import * as templates from './templates';
 import { createSender, describeError, isConnectionError, type MailSender } from './transport';
 
-export const mailKinds = ['inspection.due', 'inspection.overdue', 'review.waiting', 'training.expiring', 'training.expired', 'notification', 'digest', 'password.reset'] as const;
+export const mailKinds = [
+	'inspection.due',
+	'inspection.overdue',
+	'review.waiting',
+	'training.expiring',
+	'training.expired',
+	'notification',
+	'digest',
+	'password.reset',
+	'incident.eye_exposure',
+	'action.overdue'
+] as const;
 export type MailKind = (typeof mailKinds)[number];
 
 /** Kinds that go out on their own even for digest readers. */
-const alwaysImmediate: readonly string[] = ['password.reset', 'digest'];
+const alwaysImmediate: readonly string[] = ['password.reset', 'digest', 'incident.eye_exposure'];
 
 export const MAX_ATTEMPTS = 20;
 /** A row left in 'sending' this long belongs to a worker that died: another may take it. */
@@ -225,6 +236,8 @@ async function linksFor(tx: Tx, rows: table.MailOutbox[], appUrl: string): Promi
 		if (r.kind === 'inspection.due' || r.kind === 'inspection.overdue') out.set(r.id, templates.link(appUrl, 'inspections', r.recordId));
 		else if (r.kind === 'review.waiting') out.set(r.id, templates.link(appUrl, 'reviews', r.recordId));
 		else if (r.kind === 'training.expiring' || r.kind === 'training.expired') out.set(r.id, templates.link(appUrl, 'training'));
+		else if (r.kind === 'incident.eye_exposure') out.set(r.id, templates.link(appUrl, 'incidents', r.recordId));
+		else if (r.kind === 'action.overdue') out.set(r.id, templates.link(appUrl, 'incidents'));
 		else if (r.kind === 'notification') {
 			const n = byId.get(r.recordId);
 			out.set(r.id, templates.notificationLink(appUrl, n?.kind ?? '', n?.pathId ?? null));

@@ -77,3 +77,13 @@ export function trainingStep(expiresOn: string, today: string): { kind: 'trainin
 	if (daysUntil > TRAINING_NOTICE_DAYS || daysUntil < -TRAINING_EXPIRED_NOTICE_DAYS) return null;
 	return { kind: daysUntil >= 0 ? 'training.expiring' : 'training.expired', daysUntil };
 }
+
+/**
+ * An open corrective action is reminded about weekly once past its due day: step n covers the
+ * days 7n+1 … 7n+7 after it (a late run sends the current week only).
+ */
+export function actionOverdueStep(dueOn: string, today: string): { step: string; daysOverdue: number } | null {
+	const daysOverdue = daysBetween(dueOn, today);
+	if (daysOverdue < 1) return null;
+	return { step: String(Math.floor((daysOverdue - 1) / 7)), daysOverdue };
+}

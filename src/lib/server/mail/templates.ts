@@ -291,6 +291,68 @@ export function notificationMail(i: NotificationInput): Rendered & { reason: str
 }
 
 // ---------------------------------------------------------------------------------------------
+// Incidents (no person's name ever goes into these mails: the reporter may have asked to stay
+// anonymous, and the ledger is read by administrators)
+
+const medicalWords: Record<string, string> = { sought: 'yes', not_sought: 'no', unknown: 'not yet, or not known' };
+
+export type EyeExposureInput = {
+	appUrl: string;
+	incidentId: string;
+	number: number;
+	/** Wall-clock 'YYYY-MM-DD HH:mm[:ss]' as reported. */
+	occurredAt: string;
+	where: string;
+	laser: string;
+	medicalAttention: string;
+	reason: string;
+};
+
+export function eyeExposureReported(i: EyeExposureInput): Rendered {
+	return render(`Suspected eye exposure reported (incident ${i.number})`, {
+		appUrl: i.appUrl,
+		heading: 'A suspected eye exposure was reported',
+		paragraphs: [
+			`Incident ${i.number} reports that laser light may have reached someone’s eye. The person should have an eye examination today, within 24 hours at the latest.`,
+			'Please contact the people involved now, make sure the examination is arranged, and record it in the medical follow-up (officers only). Consider suspending the laser until the causes are known.'
+		],
+		facts: [
+			['Incident', String(i.number)],
+			['When', i.occurredAt.slice(0, 16).replace('T', ' ')],
+			['Where', i.where],
+			['Laser', i.laser],
+			['Medical attention sought', medicalWords[i.medicalAttention] ?? i.medicalAttention]
+		],
+		action: { label: 'Open the report', url: link(i.appUrl, 'incidents', i.incidentId) },
+		reason: i.reason,
+		footerNote: 'Who reported it and who was involved is shown in Beamwarden only, to laser safety officers.'
+	});
+}
+
+export type ActionOverdueInput = {
+	appUrl: string;
+	incidentNumber: number;
+	description: string;
+	dueOn: string;
+	daysOverdue: number;
+	reason: string;
+};
+
+export function actionOverdue(i: ActionOverdueInput): Rendered {
+	return render(`Corrective action overdue by ${plural(i.daysOverdue, 'day')} (incident ${i.incidentNumber})`, {
+		appUrl: i.appUrl,
+		heading: `A corrective action is overdue by ${plural(i.daysOverdue, 'day')}`,
+		paragraphs: [`This action, set after incident ${i.incidentNumber}, was due on ${longDate(i.dueOn)} and is not closed yet:`, i.description, 'Once it is done, close it in Beamwarden with a word (and a photo if it helps) on what was done.'],
+		facts: [
+			['Incident', String(i.incidentNumber)],
+			['Due on', longDate(i.dueOn)]
+		],
+		action: { label: 'Open your actions', url: link(i.appUrl, 'incidents') },
+		reason: i.reason
+	});
+}
+
+// ---------------------------------------------------------------------------------------------
 // Daily digest
 
 export type DigestItem = { subject: string; reason: string; url: string };

@@ -6,3 +6,4 @@ export * from './limits';
 export * from './reviews';
 export * from './inspections';
 export * from './training';
+export * from './incidents';
