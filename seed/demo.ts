@@ -50,10 +50,19 @@ export const demoAreas = [
 	{ lab: 'MPC', name: 'Processing bay K0.11', building: 'Kestrel Annexe', room: 'K0.11', interlockNotes: 'Cell doors interlocked to the laser emission.', signageNotes: 'Signs on the cell and the bay door.' }
 ] as const;
 
-type DemoLaser = { lab: string; area: string; owner: string; laser: Omit<NewLaserForm, 'labId'>; paths: Omit<PathForm, 'lineId' | 'version'>[] };
+/** A demo laser: its first line comes with the laser, `moreLines` are added after; every path carries all its lines. */
+type DemoLaser = {
+	lab: string;
+	area: string;
+	owner: string;
+	laser: Omit<NewLaserForm, 'labId'>;
+	moreLines?: NewLaserForm['line'][];
+	paths: Omit<PathForm, 'lineIds' | 'lineChoiceReason' | 'version'>[];
+};
 
 const line = (l: Partial<NewLaserForm['line']>): NewLaserForm['line'] => ({
 	label: '',
+	emissionGroup: '',
 	mode: 'continuous',
 	wavelength: '',
 	wavelengthMax: '',
@@ -132,6 +141,30 @@ export const demoLasers: DemoLaser[] = [
 		]
 	},
 	{
+		lab: 'HEL',
+		area: 'Pulse Hall K0.02',
+		owner: 'tomas.weir@northgate.example',
+		laser: {
+			maker: 'Kestrel Dynamics',
+			model: 'QS-300 SHG Nd:YAG',
+			serial: 'KQ300-S-12',
+			laserClass: '4',
+			status: 'active',
+			notes: 'Frequency-doubled; the residual fundamental leaves the head with the green.',
+			line: line({ label: '532 nm second harmonic', emissionGroup: 'SHG head output', mode: 'repetitive', wavelength: '532 nm', pulseEnergy: '200 mJ', pulseDuration: '6 ns', repetitionRate: '10 Hz', beamDiameter: '7 mm', divergence: '0.6 mrad' })
+		},
+		moreLines: [line({ label: '1064 nm residual fundamental', emissionGroup: 'SHG head output', mode: 'repetitive', wavelength: '1064 nm', pulseEnergy: '20 mJ', pulseDuration: '8 ns', repetitionRate: '10 Hz', beamDiameter: '7 mm', divergence: '0.6 mrad' })],
+		paths: [
+			{
+				name: 'Green pump to the dye cell',
+				purpose: 'Both lines travel together to the dye cell; a harmonic separator is planned but not fitted yet.',
+				nohdExposureDuration: '10 s',
+				elements: [el('propagate', { length: '1.2 m' }), el('mirror', { label: 'turning mirror, broadband' }), el('propagate', { length: '0.8 m' })],
+				points: [pt('Operator at the turning mirror', '1.2 m', { exposureDuration: '10 s' }), pt('Entrance window of the dye cell', '2 m', { exposureDuration: '10 s' })]
+			}
+		]
+	},
+	{
 		lab: 'MPC',
 		area: 'Processing bay K0.11',
 		owner: 'tomas.weir@northgate.example',
@@ -188,16 +221,28 @@ export const demoEyewear: (Omit<EyewearForm, 'labId' | 'version'> & { lab: strin
 	{ lab: 'MPC', label: 'MPC-P1', location: 'bay door', frame: 'wrap-around spectacle', condition: 'good', lastCheckedAt: '2026-10-05', bands: [{ wavelengthMin: '9 µm', wavelengthMax: '11 µm', od: '6' }, { wavelengthMin: '1500 nm', wavelengthMax: '1600 nm', od: '3' }] }
 ];
 
-/** One demo clearance, so the eyewear check has something to show; the rest wait for review. */
-export const demoClearance = {
-	path: 'Cutting head over the bed',
-	comments: 'Lid interlock stays on in production; set-up only with the lid open at reduced power.',
-	controls: [
-		{ kind: 'eyewear' as const, minOd: '4', wavelength: '10.6 µm', details: 'for anyone in the bay during set-up' },
-		{ kind: 'interlock' as const, minOd: '', wavelength: '', details: 'Lid interlock to emission; bypass key held by the LSO.' },
-		{ kind: 'procedure' as const, minOd: '', wavelength: '', details: 'SOP MPC-07, set-up with the lid open.' }
-	]
-};
+/**
+ * Demo clearances, so the eyewear check has something to show; the rest wait for review. With
+ * `eyewearFromResult` the eyewear controls are the ones the assessment asks for (one per line).
+ */
+export const demoClearances = [
+	{
+		path: 'Cutting head over the bed',
+		comments: 'Lid interlock stays on in production; set-up only with the lid open at reduced power.',
+		eyewearFromResult: false,
+		controls: [
+			{ kind: 'eyewear' as const, minOd: '4', wavelength: '10.6 µm', wavelengthMax: '', details: 'for anyone in the bay during set-up' },
+			{ kind: 'interlock' as const, minOd: '', wavelength: '', wavelengthMax: '', details: 'Lid interlock to emission; bypass key held by the LSO.' },
+			{ kind: 'procedure' as const, minOd: '', wavelength: '', wavelengthMax: '', details: 'SOP MPC-07, set-up with the lid open.' }
+		]
+	},
+	{
+		path: 'Green pump to the dye cell',
+		comments: 'Cleared until the harmonic separator is fitted; both lines are open on the table.',
+		eyewearFromResult: true,
+		controls: [{ kind: 'beam_stop' as const, minOd: '', wavelength: '', wavelengthMax: '', details: 'Anodised beam dump behind the dye cell.' }]
+	}
+];
 
 /** Our own checklist, written from common practice for laser controlled areas. */
 export const demoChecklist = {

@@ -9,7 +9,7 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
-import { demoAreas, demoChecklist, demoClearance, demoEyewear, demoInspections, demoLabs, demoLasers, demoLimits, demoTraining, demoUsers } from './demo';
+import { demoAreas, demoChecklist, demoClearances, demoEyewear, demoInspections, demoLabs, demoLasers, demoLimits, demoTraining, demoUsers } from './demo';
 import * as inspections from '$lib/server/inspections';
 import * as training from '$lib/server/training';
 import { addDays, format } from 'date-fns';
@@ -17,6 +17,7 @@ import { createHash } from 'node:crypto';
 import { png } from './png';
 import * as eyewear from '$lib/server/eyewear';
 import * as reviews from '$lib/server/reviews';
+import { isCurrentResult } from '$lib/assessmentResult';
 import { loadIncidents } from './incidents';
 
 async function loadPeople() {
@@ -87,9 +88,14 @@ async function loadRegister() {
 		const created = await lasers.create(scope, { ...d.laser, labId: labId.get(d.lab)! });
 		if (!created.ok) throw new Error(`demo laser ${d.laser.model}: ${JSON.stringify(created)}`);
 		await db.update(table.laser).set({ areaId: areaId.get(d.area)! }).where(eq(table.laser.id, created.id));
-		const [line] = await db.select().from(table.emissionLine).where(eq(table.emissionLine.laserId, created.id));
+		const lineIds = [(await db.select({ id: table.emissionLine.id }).from(table.emissionLine).where(eq(table.emissionLine.laserId, created.id)))[0].id];
+		for (const l of d.moreLines ?? []) {
+			const more = await lasers.saveLine(scope, created.id, null, l);
+			if (!more.ok) throw new Error(`demo line ${l.label}: ${JSON.stringify(more)}`);
+			lineIds.push(more.id);
+		}
 		for (const p of d.paths) {
-			const saved = await paths.save(scope, created.id, null, { ...p, lineId: line.id, version: 0 });
+			const saved = await paths.save(scope, created.id, null, { ...p, lineIds, lineChoiceReason: '', version: 0 });
 			if (!saved.ok) throw new Error(`demo path ${p.name}: ${JSON.stringify(saved)}`);
 		}
 		added++;
@@ -103,11 +109,13 @@ async function loadEyewearAndClearance(officerId: string) {
 	const labId = new Map(labRows.map((l) => [l.code, l.id]));
 	const existing = new Set((await eyewear.list(scope)).map((e) => e.label));
 	for (const { lab, ...e } of demoEyewear) if (!existing.has(e.label)) await eyewear.save(scope, null, { ...e, labId: labId.get(lab)!, version: 0 });
-	const [path] = await db.select().from(table.beamPath).where(eq(table.beamPath.name, demoClearance.path));
-	if (path && path.reviewState === 'awaiting_review') {
+	for (const c of demoClearances) {
+		const [path] = await db.select().from(table.beamPath).where(eq(table.beamPath.name, c.path));
+		if (!path || path.reviewState !== 'awaiting_review') continue;
 		const [latest] = await db.select().from(table.assessment).where(eq(table.assessment.pathId, path.id)).orderBy(desc(table.assessment.createdAt)).limit(1);
-		const r = await reviews.decide(scope, path.id, { assessmentId: latest.id, afterDecisionId: '', decision: 'cleared', comments: demoClearance.comments, reviewBy: '2027-06-30', controls: demoClearance.controls });
-		if (!r.ok) throw new Error(`demo clearance: ${JSON.stringify(r)}`);
+		const fromResult = c.eyewearFromResult && isCurrentResult(latest.result) ? reviews.eyewearControls(latest.result) : [];
+		const r = await reviews.decide(scope, path.id, { assessmentId: latest.id, afterDecisionId: '', decision: 'cleared', comments: c.comments, reviewBy: '2027-06-30', controls: [...fromResult, ...c.controls] });
+		if (!r.ok) throw new Error(`demo clearance ${c.path}: ${JSON.stringify(r)}`);
 	}
 }
 

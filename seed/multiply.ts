@@ -59,8 +59,9 @@ while (made < lasers) {
 		await tx.execute(sql`UPDATE laser SET wavelength_min = l.wavelength, wavelength_max = l.wavelength FROM emission_line l WHERE l.laser_id = laser.id AND laser.serial LIKE 'SCALE-%' AND laser.wavelength_min IS NULL`);
 		const pathRows = await tx
 			.insert(table.beamPath)
-			.values(lineRows.map((l, i) => ({ laserId: l.laserId, lineId: l.id, name: `Path ${made + i}`, verdict: rand() < 0.3 ? ('exceeds_limit' as const) : ('within_limit' as const), flagged: rand() < 0.3, stale: rand() < 0.05 })))
+			.values(lineRows.map((l, i) => ({ laserId: l.laserId, name: `Path ${made + i}`, verdict: rand() < 0.3 ? ('exceeds_limit' as const) : ('within_limit' as const), flagged: rand() < 0.3, stale: rand() < 0.05 })))
 			.returning({ id: table.beamPath.id });
+		await tx.insert(table.pathLine).values(pathRows.map((p, i) => ({ pathId: p.id, lineId: lineRows[i].id, sequence: 0 })));
 		await tx.insert(table.pathElement).values(pathRows.flatMap((p) => Array.from({ length: perPath }, (_, s) => ({ pathId: p.id, sequence: s, kind: 'propagate' as const, length: '0.5' }))));
 		await tx.insert(table.pointOfConcern).values(pathRows.map((p) => ({ pathId: p.id, sequence: 0, label: 'viewer', kind: 'intrabeam' as const, tissue: 'eye' as const, position: '1', exposureDuration: '0.25' })));
 	});

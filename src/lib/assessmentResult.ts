@@ -53,6 +53,12 @@ export interface Comparison {
 	exposure: number;
 	/** The limit at t (× the train factor for the pulse-train check); null when it cannot be formed. */
 	limitValue: number | null;
+	/** C(λ) of the limit at this line's wavelength (1 without a factor). */
+	wavelengthFactor: number;
+	/** C_E(α) at the point's apparent source (1 for a point source and for direct viewing). */
+	extendedSourceFactor: number;
+	/** Duration the limit was evaluated at when pulses are grouped (T_i), and how many pulses count as one. */
+	groupedPulses?: number;
 	/** Pulse-train check only: N = f·T, the factor applied to the single-pulse limit, and how it was set. */
 	pulseCount?: number;
 	trainFactor?: number;
@@ -87,10 +93,16 @@ export interface OpticalDensity {
 	roundedUpWhole: number;
 }
 
-/** One emission line at a point. */
+/** One emission line at a point (for a tunable line: at its worst wavelength). */
 export interface LineAtPoint {
 	line: number;
 	wavelength: number;
+	/** A tunable line: its range and every wavelength it was assessed at; null for a fixed line. */
+	tuning: { from: number; to: number; assessedAt: number[] } | null;
+	/** Where its ratio is summed with other lines' (see EffectSum). */
+	effectGroup: string;
+	/** Diffuse points: the apparent source's angular subtense α = 2·atan(D/(2r)), rad; null for direct viewing (α_min). */
+	apparentSource: number | null;
 	/** Product of the transmissions and reflectances before the point. */
 	transmissionFactor: number;
 	/** Power (continuous) or average power (repetitive) at the point, W; null for a single pulse. */
@@ -146,6 +158,8 @@ export interface HazardDistance {
 	decidingLimit: LimitRef | null;
 	decidingCheck: CheckKind | null;
 	decidingLine: number | null;
+	/** Lines whose ratios were summed to find the distance (two or more lines acting alike); else empty. */
+	summedLines: number[];
 	/** Checks that apply but found no limit (or no pulse-train rule): the distance may be understated. */
 	missingChecks: CheckKind[];
 	reason: string;
@@ -180,6 +194,26 @@ export interface StretchResult {
 	reason: string;
 }
 
+/** Lines acting on the same tissue in the same way add: Σ ratioᵢ (each line's worst check). */
+export interface EffectSum {
+	group: string;
+	label: string;
+	/** The lines summed (indices into the result's lines), and each one's ratio. */
+	lines: { line: number; ratio: number }[];
+	ratio: number;
+	verdict: 'within_limit' | 'exceeds_limit';
+}
+
+/** The optical density eyewear needs at one line (over its tuning range). */
+export interface LineOpticalDensity {
+	line: number;
+	wavelengthMin: number;
+	wavelengthMax: number;
+	od: OpticalDensity;
+	/** The accessible point that needs it (result level only). */
+	pointId?: string;
+}
+
 export interface PointResult {
 	id: string;
 	label: string;
@@ -197,8 +231,12 @@ export interface PointResult {
 	/** Things the officer should know that do not change the verdict (e.g. a short exposure duration). */
 	warnings: string[];
 	lines: LineAtPoint[];
+	/** The sums by effect; the point's worst ratio is the largest sum. */
+	sums: EffectSum[];
 	worstRatio: number | null;
 	requiredOpticalDensity: OpticalDensity | null;
+	/** Per line: OD = log₁₀ of the largest sum the line takes part in (so Σ ratioᵢ·10^−ODᵢ ≤ 1). */
+	requiredOpticalDensities: LineOpticalDensity[];
 	/** Diffuse points: how far from the reflecting spot the reflection exceeds the limits. */
 	diffuseHazardDistance: DiffuseDistance | null;
 	/** Intrabeam skin points: how far the beam they see is hazardous to skin (like the NOHD for the eye). */
@@ -209,7 +247,10 @@ export interface PointResult {
 export interface LineResult {
 	index: number;
 	label: string;
+	emissionGroup: string;
 	wavelength: number;
+	/** Upper end of a tunable line's range; null for a fixed line. */
+	wavelengthMax: number | null;
 	mode: EmissionMode;
 	photonEnergy: number;
 	photonEnergyEV: number;
@@ -238,6 +279,8 @@ export interface AssessmentResult {
 	worstPointId: string | null;
 	worstRatio: number | null;
 	requiredOpticalDensity: OpticalDensity | null;
+	/** The OD eyewear needs at every line (its whole tuning range), at the worst accessible point for that line. */
+	requiredOpticalDensities: LineOpticalDensity[];
 	lines: LineResult[];
 	/** Total path length, m. */
 	pathLength: number;

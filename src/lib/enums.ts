@@ -14,6 +14,8 @@ export const tissues = ['eye', 'skin'] as const;
 export const pointKinds = ['intrabeam', 'diffuse'] as const;
 export const verdicts = ['within_limit', 'exceeds_limit', 'no_applicable_limit', 'incomplete'] as const;
 export const limitQuantities = ['irradiance', 'radiant_exposure'] as const;
+/** A limit's wavelength factor C(λ): none (1), a constant, or 10^(s·(λ − λ₀)) (the form of C_A, C_B, C_C). */
+export const wavelengthFactorKinds = ['none', 'constant', 'exponential'] as const;
 export const pulseBases = ['single_pulse', 'continuous'] as const;
 
 export type LaserClass = (typeof laserClasses)[number];
@@ -27,3 +29,4 @@ export type PointKind = (typeof pointKinds)[number];
 export type Verdict = (typeof verdicts)[number];
 export type LimitQuantity = (typeof limitQuantities)[number];
 export type PulseBasis = (typeof pulseBases)[number];
+export type WavelengthFactorKind = (typeof wavelengthFactorKinds)[number];

@@ -26,9 +26,9 @@ export const reviewWords: Record<string, StateWord> = {
 };
 
 export const eyewearWords: Record<string, StateWord> = {
-	adequate: { word: 'adequate', icon: 'ok', tone: 'calm', hint: 'The lab holds usable eyewear of at least the required OD at this wavelength.' },
-	inadequate: { word: 'inadequate', icon: 'alert', tone: 'alert', hint: 'The lab’s eyewear covers this wavelength only below the required OD.' },
-	none_on_record: { word: 'none on record', icon: 'blank', tone: 'alert', hint: 'No usable eyewear of the lab has a band covering this wavelength.' }
+	adequate: { word: 'adequate', icon: 'ok', tone: 'calm', hint: 'The lab holds one usable pair that covers every line of the path at its required OD.' },
+	inadequate: { word: 'inadequate', icon: 'alert', tone: 'alert', hint: 'No single pair of the lab’s eyewear covers every line of the path at its required OD.' },
+	none_on_record: { word: 'none on record', icon: 'blank', tone: 'alert', hint: 'No usable eyewear of the lab has a band at these wavelengths.' }
 };
 
 export const inspectionWords: Record<string, StateWord> = {

@@ -55,7 +55,7 @@ test('every JSON write of the register answers 4xx to arbitrary bodies and write
 	const before = await counts();
 	const body = fc.oneof(
 		fc.anything(),
-		fc.record({ labId: fc.anything(), lineId: fc.anything(), line: fc.anything(), path: fc.anything(), limits: fc.anything(), elements: fc.anything(), points: fc.anything(), k: fc.anything(), version: fc.anything() }, { requiredKeys: [] }),
+		fc.record({ labId: fc.anything(), lineIds: fc.anything(), line: fc.anything(), path: fc.anything(), limits: fc.anything(), elements: fc.anything(), points: fc.anything(), k: fc.anything(), version: fc.anything() }, { requiredKeys: [] }),
 		fc.string({ maxLength: 2000 })
 	);
 	for (const [method, url] of writes) {

@@ -16,7 +16,8 @@ let labId: string;
 const line = { label: '', mode: 'continuous', wavelength: '633 nm', wavelengthMax: '', power: '20 mW', pulseEnergy: '', pulseDuration: '', repetitionRate: '', beamDiameter: '0.8 mm', beamDiameterDefinition: '1/e2', divergence: '1.2 mrad', divergenceDefinition: '1/e2', beamQuality: '' };
 const element = { label: '', length: '', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '' };
 const pathBody = (overrides: Record<string, unknown> = {}) => ({
-	lineId,
+	lineIds: [lineId],
+	lineChoiceReason: '',
 	name: 'API path',
 	purpose: '',
 	nohdExposureDuration: '0.25 s',

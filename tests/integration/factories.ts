@@ -40,6 +40,7 @@ export function laserForm(labId: string, overrides: Partial<NewLaserForm['line']
 		notes: '',
 		line: {
 			label: 'main',
+			emissionGroup: '',
 			mode: 'continuous',
 			wavelength: '532 nm',
 			wavelengthMax: '',
@@ -64,7 +65,8 @@ const element = blankElement;
 /** A path with a splitter and a lens, and two points of concern. */
 export function pathForm(lineId: string, overrides: Partial<PathForm> = {}): PathForm {
 	return {
-		lineId,
+		lineIds: [lineId],
+		lineChoiceReason: '',
 		name: 'Bench path A',
 		purpose: 'alignment',
 		nohdExposureDuration: '0.25 s',

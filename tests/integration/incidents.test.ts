@@ -309,7 +309,7 @@ describe('laser suspension', () => {
 			decision: 'cleared' as const,
 			comments: 'ok',
 			reviewBy: '',
-			controls: [{ kind: 'enclosure' as const, minOd: '', wavelength: '', details: 'tube' }]
+			controls: [{ kind: 'enclosure' as const, minOd: '', wavelength: '', wavelengthMax: '', details: 'tube' }]
 		};
 		const refused = await reviews.decide(officer, saved.id, clearance);
 		expect(refused).toMatchObject({ ok: false, status: 409, message: expect.stringMatching(/is suspended since .*Mirror mounts under review.*No new clearance/) });

@@ -103,8 +103,9 @@ async function makeAwaitingPath(o: { name: string; awaitingSince: Date | null; r
 		.returning();
 	const [path] = await db
 		.insert(table.beamPath)
-		.values({ laserId: laser.id, lineId: line.id, name: o.name, flagged: true, verdict: 'exceeds_limit', reviewState: o.reviewState ?? 'awaiting_review', awaitingSince: o.awaitingSince })
+		.values({ laserId: laser.id, name: o.name, flagged: true, verdict: 'exceeds_limit', reviewState: o.reviewState ?? 'awaiting_review', awaitingSince: o.awaitingSince })
 		.returning();
+	await db.insert(table.pathLine).values({ pathId: path.id, lineId: line.id, sequence: 0 });
 	created.lasers.push(laser.id);
 	created.lines.push(line.id);
 	created.paths.push(path.id);

@@ -42,8 +42,8 @@ const clearance = (assessmentId: string, afterDecisionId = ''): DecisionForm => 
 	comments: 'Enclose above bench height.',
 	reviewBy: '',
 	controls: [
-		{ kind: 'eyewear', minOd: '5', wavelength: '532 nm', details: '' },
-		{ kind: 'enclosure', minOd: '', wavelength: '', details: 'Tube from the splitter to the lens.' }
+		{ kind: 'eyewear', minOd: '5', wavelength: '532 nm', wavelengthMax: '', details: '' },
+		{ kind: 'enclosure', minOd: '', wavelength: '', wavelengthMax: '', details: 'Tube from the splitter to the lens.' }
 	]
 });
 
@@ -53,6 +53,7 @@ describe('review decisions', () => {
 		expect(detail.path.reviewState).toBe('awaiting_review');
 		const queue = await reviews.queue(officer);
 		expect(queue.map((q) => q.pathId)).toContain(pathId);
+		expect(queue.find((q) => q.pathId === pathId)?.wavelengths).toEqual(['0.000000532']);
 		const told = await db.select().from(table.notification).where(eq(table.notification.pathId, pathId));
 		expect(told.map((n) => n.userId)).toEqual(expect.arrayContaining([officer.userId, secondOfficer.userId]));
 		expect(told.every((n) => n.kind === 'path.flagged')).toBe(true);
@@ -67,19 +68,19 @@ describe('review decisions', () => {
 		const [note] = await db.select().from(table.notification).where(eq(table.notification.kind, 'review.cleared')).orderBy(desc(table.notification.createdAt)).limit(1);
 		expect(note.userId).toBe(researcher.userId);
 
-		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('none_on_record');
+		expect((await eyewear.checksForPaths([pathId])).get(pathId)?.result.status).toBe('none_on_record');
 		const form = { labId: lab.id, label: 'G-1', location: 'door', frame: 'goggle', condition: 'good' as const, lastCheckedAt: '', version: 0 };
 		await eyewear.save(officer, null, { ...form, bands: [{ wavelengthMin: '520 nm', wavelengthMax: '540 nm', od: '4' }] });
-		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('inadequate');
+		expect((await eyewear.checksForPaths([pathId])).get(pathId)?.result.status).toBe('inadequate');
 		const g2 = await eyewear.save(officer, null, { ...form, label: 'G-2', bands: [{ wavelengthMin: '190 nm', wavelengthMax: '532 nm', od: '6' }] });
-		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('adequate');
+		expect((await eyewear.checksForPaths([pathId])).get(pathId)?.result.status).toBe('adequate');
 
 		// Withdrawn from use (lost): kept on record, no longer counted; a stale version is a 409.
 		if (!g2.ok) throw new Error('save');
 		expect(await eyewear.retire(officer, g2.id, 2)).toMatchObject({ ok: false, status: 409 });
 		expect(await eyewear.retire(researcher, g2.id, 1)).toMatchObject({ ok: false, status: 403 });
 		expect(await eyewear.retire(officer, g2.id, 1)).toEqual({ ok: true });
-		expect(eyewear.worstOf((await eyewear.checksForPaths([pathId])).get(pathId))).toBe('inadequate');
+		expect((await eyewear.checksForPaths([pathId])).get(pathId)?.result.status).toBe('inadequate');
 		expect((await eyewear.find(officer, g2.id))?.retired).toBe(true);
 		const [entry] = await db.select().from(table.auditLog).where(and(eq(table.auditLog.action, 'eyewear.retire'), eq(table.auditLog.entityId, g2.id)));
 		expect(entry.actorId).toBe(officer.userId);

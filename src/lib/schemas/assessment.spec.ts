@@ -52,7 +52,8 @@ describe('assessment preview body', () => {
 		expect(line.power).toBe('0.1');
 		expect(line.pulseEnergy).toBeNull();
 		expect(line.beamProfile).toBe('gaussian');
-		expect(parsed.path.elements[0]).toEqual({ kind: 'propagate', label: '', length: '2', transmission: null, reflectance: null, magnification: null, focalLength: null, coreDiameter: null, numericalAperture: null, couplingTransmission: null });
+		expect(line.emissionGroup).toBe('');
+		expect(parsed.path.elements[0]).toEqual({ kind: 'propagate', label: '', length: '2', transmission: null, reflectance: null, magnification: null, focalLength: null, coreDiameter: null, numericalAperture: null, couplingTransmission: null, bands: null });
 		expect(parsed.limits?.[0].version).toBe('2');
 		expect(parsed.limits?.[0].noTrainCorrection).toBe(false);
 		expect(parsed.breakdown).toBe(true);
@@ -111,13 +112,16 @@ describe('assessment preview body', () => {
 		}
 	});
 
-	it('carries exactly one line for now, and at least one', () => {
+	it('carries at least one line and at most 12', () => {
 		const none: any = body();
 		none.path.lines = [];
 		expect(previewSchema.safeParse(none).success).toBe(false);
 		const two: any = body();
-		two.path.lines.push({ ...two.path.lines[0] });
-		expect(previewSchema.safeParse(two).success).toBe(false);
+		two.path.lines.push({ ...two.path.lines[0], wavelength: '1064e-9' });
+		expect(previewSchema.safeParse(two).success).toBe(true);
+		const many: any = body();
+		many.path.lines = Array.from({ length: 13 }, () => many.path.lines[0]);
+		expect(previewSchema.safeParse(many).success).toBe(false);
 	});
 
 	it('leaves range checks to the engine, which names the field', () => {
@@ -132,8 +136,8 @@ describe('assessment preview body', () => {
 	it('turns stored rows into the same shape, field for field (the one mapper)', () => {
 		const path = beamPathFromRows({
 			path: { nohdExposureDuration: '10' },
-			lines: [{ id: 'L1', label: 'main', mode: 'continuous', wavelength: '1.064e-6', wavelengthMax: null, power: '2', pulseEnergy: null, pulseDuration: null, repetitionRate: null, beamProfile: 'flat_top', beamDiameter: '0.004', beamDiameterDefinition: '1/e2', divergence: '0.001', divergenceDefinition: '1/e2', beamQuality: null, hotSpotFactor: '1.5' }],
-			elements: [{ kind: 'lens', label: 'f 100', length: null, transmission: null, reflectance: null, magnification: null, focalLength: '0.1', coreDiameter: null, numericalAperture: null, couplingTransmission: null }],
+			lines: [{ id: 'L1', label: 'main', emissionGroup: '', mode: 'continuous', wavelength: '1.064e-6', wavelengthMax: null, power: '2', pulseEnergy: null, pulseDuration: null, repetitionRate: null, beamProfile: 'flat_top', beamDiameter: '0.004', beamDiameterDefinition: '1/e2', divergence: '0.001', divergenceDefinition: '1/e2', beamQuality: null, hotSpotFactor: '1.5' }],
+			elements: [{ kind: 'lens', label: 'f 100', length: null, transmission: null, reflectance: null, magnification: null, focalLength: '0.1', coreDiameter: null, numericalAperture: null, couplingTransmission: null, bands: null }],
 			points: [{ id: 'p', label: 'at the lens', kind: 'intrabeam', tissue: 'eye', position: '0', exposureDuration: '10', reflectance: null, viewingAngle: null, viewingDistance: null }]
 		});
 		expect(beamPathSchema.parse(path)).toEqual(path);

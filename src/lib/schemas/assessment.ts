@@ -10,8 +10,8 @@
  * transmission 0–1, f ≥ 1 mm, …) are the engine's rules, which name the offending field.
  */
 import { z } from 'zod';
-import { beamDefinitions, beamProfiles, elementKinds, emissionModes, limitQuantities, pointKinds, pulseBases, tissues } from '../enums';
-import type { BeamDefinition, BeamProfile, ElementKind, EmissionMode, LimitQuantity, PointKind, PulseBasis, Tissue } from '../enums';
+import { beamDefinitions, beamProfiles, elementKinds, emissionModes, limitQuantities, pointKinds, pulseBases, tissues, wavelengthFactorKinds } from '../enums';
+import type { BeamDefinition, BeamProfile, ElementKind, EmissionMode, LimitQuantity, PointKind, PulseBasis, Tissue, WavelengthFactorKind } from '../enums';
 
 export const NUMERIC_TEXT = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
@@ -36,6 +36,8 @@ export const lineSchema = z
 	.object({
 		id: z.string().trim().max(100).nullish().transform((v) => v ?? null),
 		label: text(120),
+		/** Lines with the same group name are emitted together; '' = on its own. */
+		emissionGroup: text(60),
 		mode: z.enum(emissionModes, { error: 'Choose continuous, single_pulse or repetitive.' }),
 		wavelength: siNumber,
 		/** Upper end of a tunable line's range; null for a fixed line. */
@@ -55,6 +57,16 @@ export const lineSchema = z
 	})
 	.strict();
 
+/** What a transmission element or mirror passes on in one wavelength band (inclusive ends). */
+export const bandSchema = z
+	.object({
+		wavelengthMin: siNumber,
+		wavelengthMax: siNumber,
+		/** Fraction passed on along the path, 0–1 (a mirror: its reflectance in the band). */
+		transmission: siNumber
+	})
+	.strict();
+
 /** A path element; only the fields of its kind are used (the others are null). */
 export const elementSchema = z
 	.object({
@@ -67,7 +79,13 @@ export const elementSchema = z
 		focalLength: siOrNull,
 		coreDiameter: siOrNull,
 		numericalAperture: siOrNull,
-		couplingTransmission: siOrNull
+		couplingTransmission: siOrNull,
+		/** Transmission elements and mirrors: per wavelength band; a line in no band takes the element's own value. */
+		bands: z
+			.array(bandSchema)
+			.max(20, 'At most 20 wavelength bands.')
+			.nullish()
+			.transform((v) => (v && v.length ? v : null))
 	})
 	.strict();
 
@@ -87,11 +105,11 @@ export const pointSchema = z
 	.strict();
 
 /** Bounds of one path (a saved path and a preview alike). */
-export const PATH_BOUNDS = { lines: 1, elements: 200, points: 100 } as const;
+export const PATH_BOUNDS = { lines: 12, elements: 200, points: 100 } as const;
 
 export const beamPathSchema = z
 	.object({
-		lines: z.array(lineSchema).min(1, 'A beam path carries an emission line.').max(PATH_BOUNDS.lines, `At most ${PATH_BOUNDS.lines} emission line.`),
+		lines: z.array(lineSchema).min(1, 'A beam path carries at least one emission line.').max(PATH_BOUNDS.lines, `At most ${PATH_BOUNDS.lines} emission lines.`),
 		elements: z.array(elementSchema).max(PATH_BOUNDS.elements, `At most ${PATH_BOUNDS.elements} path elements.`).default([]),
 		points: z.array(pointSchema).max(PATH_BOUNDS.points, `At most ${PATH_BOUNDS.points} points of concern.`).default([]),
 		/** Exposure duration assumed for the hazard distances (e.g. 0.25 s for accidental visible viewing). */
@@ -112,11 +130,26 @@ export const limitSchema = z
 		durationMin: siNumber,
 		durationMax: siNumber,
 		quantity: z.enum(limitQuantities, { error: 'Choose irradiance or radiant_exposure.' }),
-		/** Limit value k·tⁿ in W/m² or J/m², t in s. */
+		/** Limit value k·C(λ)·C_E(α)·tⁿ in W/m² or J/m², t in s. */
 		k: siNumber,
 		n: siNumber,
+		/** C(λ): none, a constant value, or 10^(slope·(λ − origin)) with λ clamped to [from, to] (slope per m). */
+		wavelengthFactorKind: z.enum(wavelengthFactorKinds, { error: 'Choose none, constant or exponential.' }).default('none'),
+		wavelengthFactorValue: siOrNull,
+		wavelengthFactorSlope: siOrNull,
+		wavelengthFactorOrigin: siOrNull,
+		wavelengthFactorFrom: siOrNull,
+		wavelengthFactorTo: siOrNull,
+		/** C_E(α) = (α/α_min)^exponent between α_min and α_max (rad), 1 below, held above; absent = point source. */
+		extendedAlphaMin: siOrNull,
+		extendedAlphaMax: siOrNull,
+		extendedExponent: siOrNull,
+		/** Limiting aperture a·tᵇ (a in m, b dimensionless; b = 0 for a constant aperture). */
 		limitingAperture: siNumber,
+		limitingApertureExponent: siNumber.default('0'),
 		pulseBasis: z.enum(pulseBases, { error: 'Choose single_pulse or continuous.' }),
+		/** Pulses closer together than T_i (s) count as one pulse. */
+		pulseGroupingTime: siOrNull,
 		/** Single-pulse limits: the pulse-train check multiplies the limit by N^exponent (N = f·T). */
 		pulseTrainExponent: siOrNull,
 		/** Set by the officer: the code applies no pulse-train correction to this single-pulse limit. */
@@ -158,6 +191,7 @@ export type PreviewRequest = z.input<typeof previewSchema>;
 export interface LineColumns {
 	id: string;
 	label: string;
+	emissionGroup: string;
 	mode: EmissionMode;
 	wavelength: string;
 	wavelengthMax: string | null;
@@ -173,7 +207,7 @@ export interface LineColumns {
 	beamQuality: string | null;
 	hotSpotFactor: string | null;
 }
-export type ElementColumns = { kind: ElementKind; label: string } & Record<Exclude<keyof ElementSI, 'kind' | 'label'>, string | null>;
+export type ElementColumns = { kind: ElementKind; label: string; bands: ElementSI['bands'] } & Record<Exclude<keyof ElementSI, 'kind' | 'label' | 'bands'>, string | null>;
 export interface PointColumns {
 	id: string;
 	label: string;
@@ -198,8 +232,19 @@ export interface LimitColumns {
 	quantity: LimitQuantity;
 	k: string;
 	n: string;
+	wavelengthFactorKind: WavelengthFactorKind;
+	wavelengthFactorValue: string | null;
+	wavelengthFactorSlope: string | null;
+	wavelengthFactorOrigin: string | null;
+	wavelengthFactorFrom: string | null;
+	wavelengthFactorTo: string | null;
+	extendedAlphaMin: string | null;
+	extendedAlphaMax: string | null;
+	extendedExponent: string | null;
 	limitingAperture: string;
+	limitingApertureExponent: string;
 	pulseBasis: PulseBasis;
+	pulseGroupingTime: string | null;
 	pulseTrainExponent: string | null;
 	noTrainCorrection: boolean;
 }
@@ -208,6 +253,7 @@ export function lineFromRow(r: LineColumns): LineSI {
 	return {
 		id: r.id,
 		label: r.label,
+		emissionGroup: r.emissionGroup,
 		mode: r.mode,
 		wavelength: r.wavelength,
 		wavelengthMax: r.wavelengthMax,
@@ -236,7 +282,8 @@ export function elementFromRow(r: ElementColumns): ElementSI {
 		focalLength: r.focalLength,
 		coreDiameter: r.coreDiameter,
 		numericalAperture: r.numericalAperture,
-		couplingTransmission: r.couplingTransmission
+		couplingTransmission: r.couplingTransmission,
+		bands: r.bands && r.bands.length ? r.bands : null
 	};
 }
 
@@ -268,8 +315,19 @@ export function limitFromRow(r: LimitColumns): LimitSI {
 		quantity: r.quantity,
 		k: r.k,
 		n: r.n,
+		wavelengthFactorKind: r.wavelengthFactorKind,
+		wavelengthFactorValue: r.wavelengthFactorValue,
+		wavelengthFactorSlope: r.wavelengthFactorSlope,
+		wavelengthFactorOrigin: r.wavelengthFactorOrigin,
+		wavelengthFactorFrom: r.wavelengthFactorFrom,
+		wavelengthFactorTo: r.wavelengthFactorTo,
+		extendedAlphaMin: r.extendedAlphaMin,
+		extendedAlphaMax: r.extendedAlphaMax,
+		extendedExponent: r.extendedExponent,
 		limitingAperture: r.limitingAperture,
+		limitingApertureExponent: r.limitingApertureExponent,
 		pulseBasis: r.pulseBasis,
+		pulseGroupingTime: r.pulseGroupingTime,
 		pulseTrainExponent: r.pulseTrainExponent,
 		noTrainCorrection: r.noTrainCorrection
 	};

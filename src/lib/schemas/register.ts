@@ -33,6 +33,8 @@ const requiredText = (what: string, max = 200) => z.string().trim().min(1, `Ente
 
 export const lineFields = {
 	label: z.string().trim().max(120).default(''),
+	/** Lines of a laser with the same group name are emitted together (a harmonic and its fundamental). */
+	emissionGroup: z.string().trim().max(60, 'At most 60 characters.').default(''),
 	mode: z.enum(emissionModes, { error: 'Choose continuous, single pulse or repetitively pulsed.' }).default('continuous'),
 	wavelength: quantity('wavelength'),
 	wavelengthMax: quantity('wavelength'),
@@ -86,6 +88,15 @@ export const newLaserSchema = z
 
 export const editLaserSchema = z.object({ ...laserFields, version: z.coerce.number().int().positive() }).strict();
 
+/** One wavelength band of a transmission element or mirror, as typed. */
+export const bandFormSchema = z
+	.object({
+		wavelengthMin: quantity('wavelength'),
+		wavelengthMax: quantity('wavelength'),
+		transmission: plainNumber
+	})
+	.strict();
+
 export const elementFormSchema = z
 	.object({
 		kind: z.enum(elementKinds, { error: 'Choose an element kind.' }),
@@ -97,7 +108,9 @@ export const elementFormSchema = z
 		focalLength: quantity('length', { defaultUnit: 'mm' }),
 		coreDiameter: quantity('length', { defaultUnit: 'µm' }),
 		numericalAperture: plainNumber,
-		couplingTransmission: plainNumber
+		couplingTransmission: plainNumber,
+		/** Transmission elements and mirrors: what they pass on per wavelength band (a dichroic, a harmonic separator). */
+		bands: z.array(bandFormSchema).max(20, 'At most 20 bands.').default([])
 	})
 	.strict();
 
@@ -117,7 +130,9 @@ export const pointFormSchema = z
 
 export const pathFormSchema = z
 	.object({
-		lineId: z.uuid({ error: 'Choose the emission line.' }),
+		/** The lines the path carries: every line emitted together, or a subset with a reason. */
+		lineIds: z.array(z.uuid({ error: 'Choose the emission lines.' })).min(1, 'Choose the emission lines the path carries.').max(12, 'At most 12 lines.'),
+		lineChoiceReason: z.string().trim().max(500, 'At most 500 characters.').default(''),
 		name: requiredText('a name for the path', 160),
 		purpose: z.string().trim().max(2000).default(''),
 		nohdExposureDuration: quantity('time'),
@@ -131,7 +146,7 @@ export type ElementForm = z.infer<typeof elementFormSchema>;
 
 /** A new element of a kind, every value empty unless given. */
 export function blankElement(kind: ElementKind, values: Partial<ElementForm> = {}): ElementForm {
-	return { kind, label: '', length: '', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '', ...values };
+	return { kind, label: '', length: '', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '', bands: [], ...values };
 }
 export type PointForm = z.infer<typeof pointFormSchema>;
 export type PathForm = z.infer<typeof pathFormSchema>;
@@ -205,6 +220,7 @@ export function lineToSI(line: LineForm, prefix = ''): { ok: true; value: LineVa
 		ok: true,
 		value: {
 			label: line.label,
+			emissionGroup: line.emissionGroup,
 			mode: line.mode,
 			beamProfile: line.beamProfile,
 			beamDiameterDefinition: line.beamDiameterDefinition,
@@ -224,7 +240,9 @@ export function lineToSI(line: LineForm, prefix = ''): { ok: true; value: LineVa
 }
 
 /** The element values a kind does not use are null. */
-const NO_ELEMENT_VALUES = { length: null, transmission: null, reflectance: null, magnification: null, focalLength: null, coreDiameter: null, numericalAperture: null, couplingTransmission: null };
+const NO_ELEMENT_VALUES = { length: null, transmission: null, reflectance: null, magnification: null, focalLength: null, coreDiameter: null, numericalAperture: null, couplingTransmission: null, bands: null };
+/** Element kinds that may act per wavelength band. */
+export const bandedKinds: readonly ElementKind[] = ['transmission', 'mirror'];
 
 /**
  * Elements and points of a path form in the one SI shape (src/lib/schemas/assessment.ts). Errors are
@@ -241,6 +259,14 @@ export function pathToSI(form: Pick<PathForm, 'elements' | 'points' | 'nohdExpos
 			const v = toSI(e[spec.field] as string, spec.unit, path, errors, spec.defaultUnit);
 			if (v === null && !spec.optional && !errors[path]) errors[path] = 'Needed for this element.';
 			(out as Record<string, unknown>)[spec.field] = v;
+		}
+		if (bandedKinds.includes(e.kind) && e.bands.length) {
+			out.bands = e.bands.map((b, j) => {
+				const at = (f: string) => `elements.${i}.bands.${j}.${f}`;
+				const band = { wavelengthMin: toSI(b.wavelengthMin, 'wavelength', at('wavelengthMin'), errors), wavelengthMax: toSI(b.wavelengthMax, 'wavelength', at('wavelengthMax'), errors), transmission: toSI(b.transmission, null, at('transmission'), errors) };
+				for (const [f, v] of Object.entries(band)) if (v === null && !errors[at(f)]) errors[at(f)] = 'Needed for the band.';
+				return band as { wavelengthMin: string; wavelengthMax: string; transmission: string };
+			});
 		}
 		return out;
 	});

@@ -36,6 +36,8 @@ export const controlSchema = z
 			.default('')
 			.refine((t) => t === '' || (/^\d+(\.\d+)?$/.test(t) && Number(t) <= 12), 'Enter an optical density from 0 to 12.'),
 		wavelength: wavelengthText,
+		/** Eyewear over a range of wavelengths (a tunable line): the upper end; empty for one wavelength. */
+		wavelengthMax: wavelengthText,
 		details: z.string().trim().max(1000).default('')
 	})
 	.strict()
@@ -43,6 +45,9 @@ export const controlSchema = z
 		if (c.kind === 'eyewear') {
 			if (c.minOd === '') ctx.addIssue({ code: 'custom', path: ['minOd'], message: 'Eyewear needs a minimum optical density.' });
 			if (c.wavelength === '') ctx.addIssue({ code: 'custom', path: ['wavelength'], message: 'Eyewear needs the wavelength it must block.' });
+			const lo = parseQuantity(c.wavelength, 'wavelength');
+			const hi = c.wavelengthMax === '' ? null : parseQuantity(c.wavelengthMax, 'wavelength');
+			if (lo.ok && hi?.ok && hi.value.lt(lo.value)) ctx.addIssue({ code: 'custom', path: ['wavelengthMax'], message: 'The upper end is below the wavelength.' });
 		} else if (c.details === '') ctx.addIssue({ code: 'custom', path: ['details'], message: 'Say what is required.' });
 	});
 

@@ -7,9 +7,9 @@ import * as audit from '$lib/server/audit';
 import { canEdit, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
-import { adequacy, type AdequacyResult, type BandOnRecord } from '$lib/server/eyewearAdequacy';
+import { adequacy, type AdequacyResult, type BandOnRecord, type Requirement } from '$lib/server/eyewearAdequacy';
 import type { EyewearForm } from '$lib/schemas/eyewear';
-import { parseQuantity } from '$lib/units';
+import { formatQuantity, parseQuantity } from '$lib/units';
 
 const si = (t: string) => {
 	const p = parseQuantity(t, 'wavelength');
@@ -87,11 +87,12 @@ async function usableBands(labIds: string[]): Promise<Map<string, BandOnRecord[]
 	return byLab;
 }
 
-export type EyewearCheck = { controlId: string; wavelength: string; minOd: string; result: AdequacyResult };
+/** A cleared path's eyewear: what its clearance requires (one need per eyewear control) and whether the lab's store covers it with one pair. */
+export type EyewearCheck = { requirements: Requirement[]; result: AdequacyResult };
 
 /** For each cleared path (by id): the eyewear controls of its latest clearance against its lab's eyewear. */
-export async function checksForPaths(pathIds: string[]): Promise<Map<string, EyewearCheck[]>> {
-	const out = new Map<string, EyewearCheck[]>();
+export async function checksForPaths(pathIds: string[]): Promise<Map<string, EyewearCheck>> {
+	const out = new Map<string, EyewearCheck>();
 	if (pathIds.length === 0) return out;
 	const rows = await db
 		.select({ pathId: table.beamPath.id, labId: table.laser.labId, control: table.requiredControl })
@@ -104,21 +105,18 @@ export async function checksForPaths(pathIds: string[]): Promise<Map<string, Eye
 		.innerJoin(table.requiredControl, and(eq(table.requiredControl.decisionId, table.reviewDecision.id), eq(table.requiredControl.kind, 'eyewear')))
 		.where(and(inArray(table.beamPath.id, pathIds), eq(table.reviewDecision.decision, 'cleared')));
 	const bands = await usableBands([...new Set(rows.map((r) => r.labId))]);
+	const needs = new Map<string, { labId: string; requirements: Requirement[] }>();
 	for (const r of rows) {
 		const c = r.control;
 		if (c.wavelength === null || c.minOd === null) continue;
-		const check = { controlId: c.id, wavelength: c.wavelength, minOd: c.minOd, result: adequacy(bands.get(r.labId) ?? [], c.wavelength, c.minOd) };
-		out.set(r.pathId, [...(out.get(r.pathId) ?? []), check]);
+		const max = c.wavelengthMax ?? c.wavelength;
+		const label = `OD ${Number(c.minOd)} at ${formatQuantity(c.wavelength, 'wavelength')}${c.wavelengthMax ? `–${formatQuantity(c.wavelengthMax, 'wavelength')}` : ''}`;
+		const entry = needs.get(r.pathId) ?? { labId: r.labId, requirements: [] };
+		entry.requirements.push({ wavelengthMin: c.wavelength, wavelengthMax: max, od: c.minOd, label });
+		needs.set(r.pathId, entry);
 	}
+	for (const [pathId, { labId, requirements }] of needs) out.set(pathId, { requirements, result: adequacy(bands.get(labId) ?? [], requirements) });
 	return out;
-}
-
-/** The overall eyewear word for a path: the worst of its checks. */
-export function worstOf(checks: EyewearCheck[] | undefined): AdequacyResult['status'] | null {
-	if (!checks || checks.length === 0) return null;
-	if (checks.some((c) => c.result.status === 'none_on_record')) return 'none_on_record';
-	if (checks.some((c) => c.result.status === 'inadequate')) return 'inadequate';
-	return 'adequate';
 }
 
 /** Withdraw an item from use (lost, discarded): it stays on record and never counts again. */

@@ -169,7 +169,7 @@ async function loadDetail(laserId: string) {
 			.select({
 				id: table.beamPath.id,
 				name: table.beamPath.name,
-				lineId: table.beamPath.lineId,
+				lineIds: sql<string[]>`(SELECT coalesce(json_agg(pl.line_id ORDER BY pl.sequence), '[]'::json) FROM path_line pl WHERE pl.path_id = ${table.beamPath.id})`,
 				verdict: table.beamPath.verdict,
 				flagged: table.beamPath.flagged,
 				stale: table.beamPath.stale,
@@ -286,7 +286,8 @@ export async function saveLine(scope: Scope, laserId: string, lineId: string | n
 			.returning();
 		if (!after) return changedMeanwhile('emission line');
 		await refreshWavelengthSpan(tx, laserId);
-		await tx.update(table.beamPath).set({ stale: true }).where(and(eq(table.beamPath.lineId, lineId), sql`${table.beamPath.verdict} IS NOT NULL`));
+		// Every path carrying the line goes stale (the re-evaluation job picks them up).
+		await tx.execute(sql`UPDATE beam_path SET stale = true WHERE verdict IS NOT NULL AND id IN (SELECT path_id FROM path_line WHERE line_id = ${lineId})`);
 		await audit.record(tx, { actorId: scope.userId, action: 'line.update', entity: 'emission_line', entityId: lineId, before, after });
 		return { ok: true, id: lineId } as const;
 	});

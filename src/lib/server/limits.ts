@@ -39,9 +39,8 @@ async function markStale(tx: Tx, ranges: { min: string; max: string }[], reason:
 	const overlaps = ranges.map((r) => sql`(l.wavelength <= ${r.max}::numeric AND coalesce(l.wavelength_max, l.wavelength) >= ${r.min}::numeric)`);
 	const marked = await tx.execute<{ id: string }>(sql`
 		UPDATE beam_path bp SET stale = true
-		FROM emission_line l
-		WHERE bp.line_id = l.id AND NOT bp.retired AND bp.verdict IS NOT NULL
-			AND (${sql.join(overlaps, sql` OR `)})
+		WHERE NOT bp.retired AND bp.verdict IS NOT NULL
+			AND EXISTS (SELECT 1 FROM path_line pl JOIN emission_line l ON l.id = pl.line_id WHERE pl.path_id = bp.id AND (${sql.join(overlaps, sql` OR `)}))
 		RETURNING bp.id`);
 	if (marked.length)
 		await tx.execute(sql`

@@ -24,6 +24,7 @@ function editorLines(detail: NonNullable<lasers.LaserDetail>): LineColumns[] {
 	return detail.lines.map((l) => ({
 		id: l.id,
 		label: l.label,
+		emissionGroup: l.emissionGroup,
 		mode: l.mode,
 		wavelength: l.wavelength,
 		wavelengthMax: l.wavelengthMax,
@@ -47,7 +48,9 @@ export async function loadNewPath(locals: App.Locals, laserId: string) {
 	if (!editable || detail.laser.status === 'retired') error(403, { message: 'Only members of this laser’s lab and laser safety officers can add beam paths to it.' });
 	const visible = detail.lines[0]?.wavelength && Number(detail.lines[0].wavelength) >= 400e-9 && Number(detail.lines[0].wavelength) <= 700e-9;
 	const start: PathForm = {
-		lineId: detail.lines[0]?.id ?? '',
+		// The first line and every line emitted together with it.
+		lineIds: detail.lines.filter((l, _, all) => l.id === all[0].id || (l.emissionGroup !== '' && l.emissionGroup === all[0].emissionGroup)).map((l) => l.id),
+		lineChoiceReason: '',
 		name: '',
 		purpose: '',
 		// Common practice: 0.25 s (aversion response) for visible beams, 10 s for invisible ones.
@@ -71,7 +74,8 @@ export async function loadNewPath(locals: App.Locals, laserId: string) {
 export function formValues(detail: paths.PathDetail): PathForm {
 	const p = detail.path;
 	return {
-		lineId: p.lineId,
+		lineIds: detail.lines.map((l) => l.id),
+		lineChoiceReason: p.lineChoiceReason,
 		name: p.name,
 		purpose: p.purpose,
 		nohdExposureDuration: shown(p.nohdExposureDuration, 'time'),
@@ -85,7 +89,8 @@ export function formValues(detail: paths.PathDetail): PathForm {
 			focalLength: shown(e.focalLength, 'length'),
 			coreDiameter: shown(e.coreDiameter, 'length'),
 			numericalAperture: shown(e.numericalAperture, null),
-			couplingTransmission: shown(e.couplingTransmission, null)
+			couplingTransmission: shown(e.couplingTransmission, null),
+			bands: (e.bands ?? []).map((b) => ({ wavelengthMin: shown(b.wavelengthMin, 'wavelength'), wavelengthMax: shown(b.wavelengthMax, 'wavelength'), transmission: shown(b.transmission, null) }))
 		})),
 		points: detail.points.map((pt) => ({
 			key: pt.id,

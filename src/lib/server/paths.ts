@@ -1,6 +1,6 @@
 // Beam paths: their ordered elements and points of concern, saved together with an assessment
 // snapshot in one transaction, so a path is never stored without the result it had when saved.
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
@@ -16,19 +16,54 @@ import { diffInputs } from '$lib/server/snapshotDiff';
 
 async function loadPath(pathId: string, ex: typeof db | Tx = db) {
 	const [row] = await ex
-		.select({ path: table.beamPath, laser: table.laser, line: table.emissionLine, lab: { id: table.lab.id, code: table.lab.code, name: table.lab.name } })
+		.select({ path: table.beamPath, laser: table.laser, lab: { id: table.lab.id, code: table.lab.code, name: table.lab.name } })
 		.from(table.beamPath)
 		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
-		.innerJoin(table.emissionLine, eq(table.emissionLine.id, table.beamPath.lineId))
 		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
 		.where(eq(table.beamPath.id, pathId));
 	if (!row) return null;
-	const [elements, points, latest] = await Promise.all([
+	const [lines, elements, points, latest] = await Promise.all([
+		linesOf(pathId, ex),
 		ex.select().from(table.pathElement).where(eq(table.pathElement.pathId, pathId)).orderBy(asc(table.pathElement.sequence)),
 		ex.select().from(table.pointOfConcern).where(eq(table.pointOfConcern.pathId, pathId)).orderBy(asc(table.pointOfConcern.sequence)),
 		latestFor(pathId, ex)
 	]);
-	return { ...row, elements, points, latest };
+	return { ...row, lines, elements, points, latest };
+}
+
+/** The emission lines a path carries, in their order. */
+async function linesOf(pathId: string, ex: typeof db | Tx = db) {
+	const rows = await ex
+		.select({ line: table.emissionLine })
+		.from(table.pathLine)
+		.innerJoin(table.emissionLine, eq(table.emissionLine.id, table.pathLine.lineId))
+		.where(eq(table.pathLine.pathId, pathId))
+		.orderBy(asc(table.pathLine.sequence));
+	return rows.map((r) => r.line);
+}
+
+/**
+ * The lines a save may give a path: lines of its laser, emitted together (one group, or one line on
+ * its own); a subset of a group needs a reason. Read under a share lock (see save).
+ */
+async function chosenLines(tx: Tx, laserId: string, form: PathForm): Promise<{ ok: true; lines: table.EmissionLine[] } | Failure> {
+	const ids = [...new Set(form.lineIds)];
+	const lines = await tx
+		.select()
+		.from(table.emissionLine)
+		.where(and(inArray(table.emissionLine.id, ids), eq(table.emissionLine.laserId, laserId)))
+		.orderBy(asc(table.emissionLine.createdAt), asc(table.emissionLine.id))
+		.for('share');
+	if (lines.length !== ids.length) return fieldsNeedAttention({ lineIds: 'Choose emission lines of this laser.' });
+	const group = lines[0].emissionGroup;
+	if (lines.length > 1 && (group === '' || lines.some((l) => l.emissionGroup !== group)))
+		return fieldsNeedAttention({ lineIds: 'A path carries lines that are emitted together (one group of the laser), or one line: describe lines emitted at other times as paths of their own.' });
+	if (group !== '') {
+		const [{ count }] = await tx.select({ count: sql<number>`count(*)::int` }).from(table.emissionLine).where(and(eq(table.emissionLine.laserId, laserId), eq(table.emissionLine.emissionGroup, group)));
+		if (count > lines.length && form.lineChoiceReason.trim() === '')
+			return fieldsNeedAttention({ lineChoiceReason: `The group “${group}” emits ${count} lines together: say why this path carries only ${lines.length} (a filter, a separator before it).` });
+	}
+	return { ok: true, lines };
 }
 
 export type PathDetail = NonNullable<Awaited<ReturnType<typeof loadPath>>>;
@@ -42,8 +77,8 @@ export async function find(scope: Scope, pathId: string): Promise<{ ok: true; de
 }
 
 /** A stored path in the one SI shape. */
-export function beamPathOf(detail: Pick<PathDetail, 'line' | 'elements' | 'points' | 'path'>): BeamPath {
-	return beamPathFromRows({ path: detail.path, lines: [detail.line], elements: detail.elements, points: detail.points });
+export function beamPathOf(detail: Pick<PathDetail, 'lines' | 'elements' | 'points' | 'path'>): BeamPath {
+	return beamPathFromRows({ path: detail.path, lines: detail.lines, elements: detail.elements, points: detail.points });
 }
 
 /** Engine errors as form fields: line problems go into the message (they are fixed on the laser's page). */
@@ -78,16 +113,12 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		// The line is read under a share lock, so an edit of it cannot commit between this read and the
 		// snapshot (which would leave the path looking current); the path row is locked before its
 		// review state is read, so a decision committed meanwhile is seen, never overwritten.
-		const [line] = await tx
-			.select()
-			.from(table.emissionLine)
-			.where(and(eq(table.emissionLine.id, form.lineId), eq(table.emissionLine.laserId, laserId)))
-			.for('share');
-		if (!line) return fieldsNeedAttention({ lineId: 'Choose one of this laser’s emission lines.' });
+		const chosen = await chosenLines(tx, laserId, form);
+		if (!chosen.ok) return chosen;
 		if (pathId !== null) await tx.select({ id: table.beamPath.id }).from(table.beamPath).where(eq(table.beamPath.id, pathId)).for('update');
 		const limits = await currentLimits(tx);
 		// The one shape, checked by the one schema before the engine sees it.
-		const parsed = beamPathSchema.safeParse({ lines: [lineFromRow(line)], ...si.value });
+		const parsed = beamPathSchema.safeParse({ lines: chosen.lines.map(lineFromRow), ...si.value });
 		if (!parsed.success) return failure(400, 'The path cannot be saved as entered.', Object.fromEntries(parsed.error.issues.map((i) => [i.path.join('.'), [i.message]])));
 		const { inputs, outcome } = evaluatePath(parsed.data, limits);
 		if (!outcome.ok) return engineFailure(outcome.errors);
@@ -100,7 +131,7 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		// Point ids kept from the form: only ids of this path's own points (never another path's).
 		let ownPointIds = new Set<string>();
 		const status = { verdict: result.verdict, flagged: needsReview(result.verdict), stale: false, updatedBy: scope.userId, updatedAt: now };
-		const common = { lineId: line.id, name: form.name, purpose: form.purpose, nohdExposureDuration: si.value.nohdExposureDuration, ...status };
+		const common = { name: form.name, purpose: form.purpose, lineChoiceReason: form.lineChoiceReason, nohdExposureDuration: si.value.nohdExposureDuration, ...status };
 		if (pathId === null) {
 			const [created] = await tx.insert(table.beamPath).values({ laserId, createdBy: scope.userId, ...common }).returning();
 			id = created.id;
@@ -121,9 +152,11 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			id = pathId;
 			version = updated.version;
 			await tx.delete(table.pathElement).where(eq(table.pathElement.pathId, id));
+			await tx.delete(table.pathLine).where(eq(table.pathLine.pathId, id));
 			await tx.delete(table.pointOfConcern).where(eq(table.pointOfConcern.pathId, id));
 		}
 		const stored = parsed.data;
+		await tx.insert(table.pathLine).values(chosen.lines.map((l, i) => ({ pathId: id, lineId: l.id, sequence: i })));
 		if (stored.elements.length) await tx.insert(table.pathElement).values(stored.elements.map((e, i) => ({ pathId: id, sequence: i, ...e })));
 		const keptIds = stored.points.map((p) => (ownPointIds.delete(p.id) ? p.id : null)); // each id once
 		const pointRows = await tx
@@ -151,7 +184,7 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			entity: 'beam_path',
 			entityId: id,
 			before,
-			after: { name: form.name, lineId: line.id, elements: stored.elements, points: stored.points, verdict: result.verdict }
+			after: { name: form.name, lineIds: chosen.lines.map((l) => l.id), lineChoiceReason: form.lineChoiceReason, elements: stored.elements, points: stored.points, verdict: result.verdict }
 		});
 		return { ok: true, id, verdict: result.verdict, version } as const;
 	});
@@ -257,13 +290,13 @@ export async function markStaleByLimitDates(now = new Date()): Promise<number> {
 		const at = now.toISOString();
 		const marked = await tx.execute<{ id: string }>(sql`
 			UPDATE beam_path bp SET stale = true
-			FROM emission_line l
-			WHERE bp.line_id = l.id AND NOT bp.retired AND NOT bp.stale AND bp.verdict IS NOT NULL
+			WHERE NOT bp.retired AND NOT bp.stale AND bp.verdict IS NOT NULL
 				AND EXISTS (
-					SELECT 1 FROM exposure_limit el
+					SELECT 1 FROM path_line pl JOIN emission_line l ON l.id = pl.line_id
+					CROSS JOIN exposure_limit el
 					JOIN exposure_limit_version v ON v.limit_id = el.id AND v.version = el.current_version
 					CROSS JOIN LATERAL (SELECT max(a.created_at) AS at FROM assessment a WHERE a.path_id = bp.id) latest
-					WHERE NOT el.retired
+					WHERE pl.path_id = bp.id AND NOT el.retired
 						AND l.wavelength <= v.wavelength_max AND coalesce(l.wavelength_max, l.wavelength) >= v.wavelength_min
 						AND ((v.valid_from > latest.at AND v.valid_from <= ${at}::timestamptz)
 							OR (v.valid_until + interval '1 day' > latest.at AND v.valid_until + interval '1 day' <= ${at}::timestamptz)))

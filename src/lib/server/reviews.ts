@@ -13,7 +13,8 @@ import * as suspensions from '$lib/server/suspensions';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
 import type { DecisionForm } from '$lib/schemas/reviews';
-import { parseQuantity } from '$lib/units';
+import type { AssessmentResult } from '$lib/assessmentResult';
+import { formatQuantity, parseQuantity } from '$lib/units';
 
 type PathRow = typeof table.beamPath.$inferSelect;
 
@@ -37,6 +38,14 @@ export async function afterSnapshot(tx: Tx, path: PathRow, verdict: table.Assess
 			: 'Its latest assessment is not within limit. Review the working and decide on the controls.'
 	});
 	return { reviewState: 'awaiting_review', awaitingSince: new Date() };
+}
+
+/** The eyewear controls a clearance starts from: one per line that needs it, at the whole OD the assessment asks for. */
+export function eyewearControls(result: AssessmentResult | null): DecisionForm['controls'] {
+	const wl = (v: number) => formatQuantity(v, 'wavelength', { significantDigits: 8 });
+	return (result?.requiredOpticalDensities ?? [])
+		.filter((o) => o.od.roundedUpWhole > 0)
+		.map((o) => ({ kind: 'eyewear' as const, minOd: String(o.od.roundedUpWhole), wavelength: wl(o.wavelengthMin), wavelengthMax: o.wavelengthMax > o.wavelengthMin ? wl(o.wavelengthMax) : '', details: '' }));
 }
 
 export type QueueFilter = { labId?: string; state?: 'awaiting_review' | 'returned' | 'cleared' | 'all' };
@@ -75,7 +84,8 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 			laserName: sql<string>`${table.laser.maker} || ' ' || ${table.laser.model}`,
 			labCode: table.lab.code,
 			laserSuspended: sql<boolean>`EXISTS (SELECT 1 FROM laser_suspension s WHERE s.laser_id = ${table.laser.id} AND s.lifted_at IS NULL)`,
-			wavelength: table.emissionLine.wavelength,
+			/** The wavelengths of the lines the path carries. */
+			wavelengths: sql<string[]>`(SELECT coalesce(json_agg(l.wavelength::text ORDER BY pl.sequence), '[]'::json) FROM path_line pl JOIN emission_line l ON l.id = pl.line_id WHERE pl.path_id = ${table.beamPath.id})`,
 			verdict: latest.verdict,
 			worstRatio: latest.worstRatio,
 			requiredOd: latest.requiredOd
@@ -83,7 +93,6 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 		.from(table.beamPath)
 		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
 		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
-		.innerJoin(table.emissionLine, eq(table.emissionLine.id, table.beamPath.lineId))
 		.leftJoinLateral(latest, sql`true`)
 		.where(and(...where))
 		.orderBy(asc(sql`coalesce(${table.beamPath.awaitingSince}, ${table.beamPath.updatedAt})`))
@@ -152,11 +161,13 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 	if (!isUuid(pathId)) return notFound('beam path');
 	const controls = form.decision === 'cleared' ? form.controls : [];
 	const fields: Record<string, string> = {};
-	const wavelengths: (string | null)[] = controls.map((c, i) => {
+	const wavelengths: ({ min: string; max: string | null } | null)[] = controls.map((c, i) => {
 		if (c.kind !== 'eyewear') return null;
 		const p = parseQuantity(c.wavelength, 'wavelength');
 		if (!p.ok) fields[`controls.${i}.wavelength`] = p.reason;
-		return p.ok ? p.value.toString() : null;
+		const q = c.wavelengthMax === '' ? null : parseQuantity(c.wavelengthMax, 'wavelength');
+		if (q && !q.ok) fields[`controls.${i}.wavelengthMax`] = q.reason;
+		return p.ok ? { min: p.value.toString(), max: q?.ok ? q.value.toString() : null } : null;
 	});
 	if (Object.keys(fields).length) return fieldsNeedAttention(fields);
 	const outcome = await db.transaction(async (tx) => {
@@ -188,7 +199,7 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 			.returning();
 		if (controls.length)
 			await tx.insert(table.requiredControl).values(
-				controls.map((c, i) => ({ decisionId: decision.id, kind: c.kind, minOd: c.kind === 'eyewear' ? c.minOd : null, wavelength: wavelengths[i], details: c.details }))
+				controls.map((c, i) => ({ decisionId: decision.id, kind: c.kind, minOd: c.kind === 'eyewear' ? c.minOd : null, wavelength: wavelengths[i]?.min ?? null, wavelengthMax: wavelengths[i]?.max ?? null, details: c.details }))
 			);
 		await tx
 			.update(table.beamPath)

@@ -13,7 +13,10 @@ function recompute(step: Step): number {
 	const xs = step.inputs.map((i) => i.value);
 	const h = v['h'] ?? 1;
 	const kind = step.id.split('.').pop()!;
+	if (step.id.startsWith('sum.')) return xs.reduce((a, b) => a + b, 0);
 	switch (kind) {
+		case 'apparent-source':
+			return 2 * Math.atan(v['D'] / (2 * v['r']));
 		case 'photon-energy':
 			return (v['h'] * v['c']) / v['λ'];
 		case 'photon-energy-ev':
@@ -54,17 +57,23 @@ function recompute(step: Step): number {
 		case 'limit-measure':
 			return step.formula.includes('/') ? xs[0] / xs[1] : xs[0] * xs[1];
 		case 'limit':
-			return v['k'] * v['t'] ** v['n'] * (v['N'] === undefined ? 1 : v['N'] ** v['x']);
+			return v['k'] * (v['C(λ)'] ?? 1) * (v['C_E'] ?? 1) * v['t'] ** v['n'] * (v['N'] === undefined ? 1 : v['N'] ** v['x']);
 		case 'ratio':
 			return xs[0] / xs[1];
 		case 'optical-density':
 			return v['ratio'] > 1 ? Math.log10(v['ratio']) : 0;
 		case 'diffuse-hazard-distance':
-			return Math.sqrt((v['ρ'] * xs[1] * Math.cos(v['θ'])) / (Math.PI * v['EL']));
+			return v['r'] * Math.sqrt(v['Σ ratio']);
 		case 'critical-diameter':
 			return Math.sqrt((4 * h * xs[0]) / (Math.PI * v['EL']));
 		case 'distance':
 			if (step.formula.startsWith('0')) return 0;
+			// Lines summed: the distance is found numerically; its ratios must add up to 1 there.
+			if (step.formula.includes('solved numerically')) {
+				const total = step.inputs.filter((i) => i.symbol.startsWith('ratio')).reduce((a, i) => a + i.value, 0);
+				if (Math.abs(total - 1) > 1e-9) throw new Error(`summed ratios at the distance: ${total}`);
+				return step.value;
+			}
 			return v['z_w'] + Math.sqrt(v['D_c'] ** 2 - v['D_w'] ** 2) / v['φ'] - v['z₀'];
 		case 'focal-spot':
 			return (2 * v['M²'] * v['λ'] * v['f']) / (Math.PI * v['D_lens']);

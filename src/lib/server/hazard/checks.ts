@@ -28,10 +28,20 @@ export const CHECK_LABEL: Record<CheckKind, string> = {
 	pulse_train: 'Pulse train'
 };
 
-/** The limit as evaluated for one check. */
+/** The limit as evaluated for one check of one line (its wavelength). */
 export interface LimitAt {
 	limit: NormLimit;
-	/** k·tⁿ, in the limit's quantity. */
+	/** Duration the limit is evaluated at: the check's τ or T, or T_i when pulses are grouped. */
+	t: number;
+	/** C(λ) at the line's wavelength (1 without a factor). */
+	wavelengthFactor: number;
+	/** The limiting aperture a·tᵇ at t. */
+	aperture: number;
+	/** Pulses that count as one under the T_i rule (the group's energy is Q × this); 1 otherwise. */
+	grouped: number;
+	/** Pulse-train check: the number of pulses (or pulse groups) N. */
+	pulseCount?: number;
+	/** k·C(λ)·tⁿ, in the limit's quantity (C_E is applied per point: it depends on the apparent source). */
 	base: number;
 	/** base × the train factor; null when the train rule is missing. */
 	value: number | null;
@@ -85,13 +95,40 @@ export function planMissesT(plan: Plan): boolean {
 	return plan.t === null || (plan.kind === 'pulse_train' && plan.pulseCount === null);
 }
 
-function evaluateLimit(limit: NormLimit, plan: Plan): LimitAt {
-	const t = plan.t!;
-	const base = limit.n === 0 ? limit.k : limit.k * Math.pow(t, limit.n);
-	const out: LimitAt = { limit, base, value: base, natural: null };
+/** C(λ): 1, a constant, or 10^(s·(λ − λ₀)) with λ held within the factor's range. */
+export function wavelengthFactorAt(limit: NormLimit, wavelength: number): number {
+	const f = limit.wavelengthFactor;
+	if (f === null) return 1;
+	if (f.kind === 'constant') return f.value;
+	const lambda = wavelength < f.from ? f.from : wavelength > f.to ? f.to : wavelength;
+	return Math.pow(10, f.slope * (lambda - f.origin));
+}
+
+/** C_E(α): 1 up to α_min, (α/α_min)^e up to α_max, held above it; 1 without a rule (a point source). */
+export function extendedSourceFactor(limit: NormLimit, alpha: number | null): number {
+	const r = limit.extendedSource;
+	if (r === null || alpha === null || alpha <= r.alphaMin) return 1;
+	return Math.pow((alpha < r.alphaMax ? alpha : r.alphaMax) / r.alphaMin, r.exponent);
+}
+
+function evaluateLimit(limit: NormLimit, plan: Plan, line: NormLine): LimitAt {
+	let t = plan.t!;
+	let grouped = 1;
+	let pulseCount = plan.pulseCount ?? undefined;
+	// T_i: pulses closer together than T_i count as one pulse of T_i carrying their energy.
+	if (plan.basis === 'single_pulse' && limit.groupingTime !== null && line.repetitionRate !== null && line.repetitionRate * limit.groupingTime > 1) {
+		grouped = line.repetitionRate * limit.groupingTime;
+		t = limit.groupingTime;
+		if (pulseCount !== undefined) pulseCount = Math.max(1, pulseCount / grouped);
+	}
+	const wavelengthFactor = wavelengthFactorAt(limit, line.wavelength);
+	const base = limit.k * wavelengthFactor * (limit.n === 0 ? 1 : Math.pow(t, limit.n));
+	const aperture = limit.apertureExponent === 0 ? limit.limitingAperture : limit.limitingAperture * Math.pow(t, limit.apertureExponent);
+	const out: LimitAt = { limit, t, wavelengthFactor, aperture, grouped, base, value: base, natural: null };
 	if (plan.kind === 'pulse_train') {
+		out.pulseCount = pulseCount;
 		if (limit.trainExponent !== null) {
-			out.trainFactor = Math.pow(plan.pulseCount!, limit.trainExponent);
+			out.trainFactor = Math.pow(pulseCount!, limit.trainExponent);
 			out.trainRule = 'exponent';
 			out.value = base * out.trainFactor;
 		} else if (limit.noTrainCorrection) {
@@ -115,7 +152,7 @@ export function applicableLimits(plan: Plan, line: NormLine, tissue: Tissue, lim
 	if (t !== null && !(plan.kind === 'pulse_train' && plan.pulseCount === null)) {
 		const lambda = line.wavelength;
 		for (const l of limits) {
-			if (l.tissue === tissue && l.pulseBasis === plan.basis && l.wavelengthMin <= lambda && lambda <= l.wavelengthMax && l.durationMin <= t && t <= l.durationMax) out.push(evaluateLimit(l, plan));
+			if (l.tissue === tissue && l.pulseBasis === plan.basis && l.wavelengthMin <= lambda && lambda <= l.wavelengthMax && l.durationMin <= t && t <= l.durationMax) out.push(evaluateLimit(l, plan, line));
 		}
 	}
 	plan.applicable[tissue] = out;

@@ -8,13 +8,14 @@
  * limit, and never within limit without any accessible point. Points inside an enclosure are
  * computed and reported but take no part in the verdict, the worst point or the optical density.
  */
-import type { AssessmentResult, HazardDistance, LineResult, Outcome, PointResult, StretchResult, Verdict } from '$lib/assessmentResult';
+import type { AssessmentResult, HazardDistance, LineOpticalDensity, LineResult, Outcome, PointResult, StretchResult, Verdict } from '$lib/assessmentResult';
 import type { BeamPath, LimitSI } from '$lib/schemas/assessment';
 import { ELEMENTARY_CHARGE, ENGINE_VERSION, PLANCK_CONSTANT, RESULT_CAUTION, SPEED_OF_LIGHT } from './constants';
 import { Plans } from './checks';
 import { requiredOpticalDensity } from './density';
 import { beamLimits, hazardDistance, stretchWorst } from './distances';
-import { durationWarning, evaluatePoint, limitRef, worse, type Context } from './exposure';
+import { durationWarning, evaluatePoint, limitRef, stepPrefix, worse, type Context } from './exposure';
+import { variantsOf } from './tuning';
 import { photonEnergy } from './photon';
 import { validate, type NormLimit, type NormLine, type NormPath } from './validate';
 import { walkPath, type Origin } from './walk';
@@ -42,12 +43,14 @@ export function evaluate(path: BeamPath | unknown, limits: LimitSI[] | unknown, 
 const finite = (x: number | null) => x === null || Number.isFinite(x);
 
 function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): AssessmentResult {
-	const walk = walkPath(path.lines, path.elements, path.length);
-	const ctx: Context = { path, limits, walk, plans: path.lines.map((l) => new Plans(l)), photonEnergy: path.lines.map((l) => photonEnergy(l.wavelength)), breakdown };
+	// A tunable line is assessed at every wavelength where something changes (tuning.ts).
+	const variants = variantsOf(path.lines, limits, path.elements);
+	const walk = walkPath(variants, path.elements, path.length);
+	const ctx: Context = { path, lines: variants, limits, walk, plans: variants.map((l) => new Plans(l)), photonEnergy: variants.map((l) => photonEnergy(l.wavelength)), breakdown };
 	const used = new Set<number>();
 	const w = new Working(breakdown);
 
-	const lines = path.lines.map((line, i) => lineResult(line, ctx.photonEnergy[i], w, path.lines.length > 1 ? `line${i + 1}.` : ''));
+	const lines = path.lines.map((line, i) => lineResult(line, photonEnergy(line.wavelength), w, path.lines.length > 1 ? `line${i + 1}.` : ''));
 
 	// Hazard distances: one per beam (the aperture's and each element's); the largest is the NOHD.
 	const T = path.nohdExposureDuration;
@@ -63,7 +66,7 @@ function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): Asses
 	});
 	// The deciding beam again, with its working.
 	const nohd = breakdown ? hazardDistance(ctx, walk.origins[nohdIndex], 'eye', T, w, 'nohd', beams[nohdIndex]) : distances[nohdIndex];
-	if (breakdown) for (const o of walk.origins) if (o.lens) lensSteps(w, o, path.lines);
+	if (breakdown) for (const o of walk.origins) if (o.lens) lensSteps(w, o, variants);
 
 	// Points.
 	const points: PointResult[] = [];
@@ -83,7 +86,7 @@ function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): Asses
 			stretches.push({ index: s.index, from: s.from, to: s.to, afterElement, enclosedBy: s.enclosedBy, beam: s.origin, worstRatio: null, worstAt: null, verdict: null, reason: `Inside the enclosure (element ${s.enclosedBy + 1}): not accessible.` });
 			continue;
 		}
-		const worst = stretchWorst(ctx, walk.origins[s.origin], beams[s.origin], s.from, s.to);
+		const worst = stretchWorst(walk.origins[s.origin], beams[s.origin], s.from, s.to);
 		stretches.push({ index: s.index, from: s.from, to: s.to, afterElement, enclosedBy: null, beam: s.origin, worstRatio: worst.ratio, worstAt: worst.at, verdict: worst.verdict, reason: STRETCH_REASON[worst.verdict] });
 	}
 
@@ -103,6 +106,18 @@ function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): Asses
 	const worst = worstIndex >= 0 ? points[worstIndex] : null;
 	const worstRatio = worst ? worst.worstRatio : null;
 
+	// Per line, the OD eyewear needs at it: the largest over the accessible points.
+	const requiredOpticalDensities: LineOpticalDensity[] = [];
+	path.lines.forEach((_, li) => {
+		let need: LineOpticalDensity | null = null;
+		for (const p of points) {
+			if (!p.accessible) continue;
+			const own = p.requiredOpticalDensities.find((o) => o.line === li);
+			if (own && (!need || own.od.value > need.od.value)) need = { ...own, pointId: p.id };
+		}
+		if (need) requiredOpticalDensities.push(need);
+	});
+
 	const warnings: string[] = [];
 	for (const line of path.lines) {
 		const warning = durationWarning(path.nohdExposureDuration, line.wavelength, 'eye', 'The exposure duration for the hazard distances');
@@ -116,6 +131,7 @@ function compute(path: NormPath, limits: NormLimit[], breakdown: boolean): Asses
 		worstPointId: worst ? worst.id : null,
 		worstRatio,
 		requiredOpticalDensity: worstRatio === null ? null : requiredOpticalDensity(worstRatio),
+		requiredOpticalDensities,
 		lines,
 		pathLength: path.length,
 		nohd,
@@ -156,7 +172,9 @@ function lineResult(line: NormLine, ePh: number, w: Working, p: string): LineRes
 	return {
 		index: line.index,
 		label: line.label,
+		emissionGroup: line.emissionGroup,
 		wavelength: line.wavelength,
+		wavelengthMax: line.wavelengthMax,
 		mode: line.mode,
 		photonEnergy: ePh,
 		photonEnergyEV: eV,
@@ -180,7 +198,7 @@ function lensSteps(w: Working, o: Origin, lines: NormLine[]): void {
 	const lens = o.lens!;
 	const e = o.afterElement! + 1;
 	lines.forEach((line, i) => {
-		const p = lines.length > 1 ? `line${i + 1}.` : '';
+		const p = lines.length > 1 ? `${stepPrefix(line)}.` : '';
 		w.add(`${p}lens${e}.focal-spot`, `Focal spot of the lens (element ${e}), 1/e`, 'd₀ = 2·M²·λ·f / (π·D_lens)', [['M²', line.beamQuality, ''], ['λ', line.wavelength, 'm'], ['f', lens.focalLength, 'm'], ['D_lens', lens.lensDiameters[i], 'm']], lens.focalSpots[i], 'm', 'Gaussian 1/e² waist 4·M²·λ·f/(π·D_lens,1/e²) rewritten on the 1/e basis.');
 		w.add(`${p}lens${e}.divergence`, `Divergence after the focus (element ${e})`, 'φ = 2·atan(D_lens / (2f))', [['D_lens', lens.lensDiameters[i], 'm'], ['f', lens.focalLength, 'm']], lens.divergences[i], 'rad', 'The full angle of the cone that converges on the focus.');
 	});

@@ -15,15 +15,16 @@
  *
  * A ratio at or above 1 − 1e-9 is at the limit, which exceeds it (see constants.ts).
  */
-import type { CheckKind, CheckResult, Comparison, DiffuseDistance, LimitRef, LineAtPoint, PointResult, Verdict } from '$lib/assessmentResult';
+import type { CheckKind, CheckResult, Comparison, DiffuseDistance, EffectSum, LimitRef, LineAtPoint, LineOpticalDensity, PointResult, Step, Verdict } from '$lib/assessmentResult';
 import { AVERSION_DURATION, INVISIBLE_DEFAULT_DURATION, RATIO_TOLERANCE, VISIBLE_MAX, VISIBLE_MIN } from './constants';
 import { diameterAt } from './beam';
-import { applicableLimits, MEASURE_SYMBOL, MEASURE_UNIT, planMissesT, type LimitAt, type Plan, type Plans } from './checks';
+import { applicableLimits, extendedSourceFactor, MEASURE_SYMBOL, MEASURE_UNIT, planMissesT, type LimitAt, type Plan, type Plans } from './checks';
+import { effectGroup } from './effects';
 import { requiredOpticalDensity } from './density';
 import { hazardDistance } from './distances';
 import { Working, type In } from './working';
 import { enclosureAt, originsAt, type Origin, type Walk } from './walk';
-import type { NormLimit, NormPath, NormPoint } from './validate';
+import type { NormLimit, NormLine, NormPath, NormPoint } from './validate';
 
 export const VERDICT_RANK: Record<Verdict, number> = { within_limit: 0, no_applicable_limit: 1, incomplete: 2, exceeds_limit: 3 };
 
@@ -35,9 +36,14 @@ export function exceeds(ratio: number): boolean {
 	return ratio >= 1 - RATIO_TOLERANCE;
 }
 
-/** What one assessment shares: its input, its path walk, its check plans, its photon energies. */
+/**
+ * What one assessment shares: its input, the lines as assessed (a tunable line as one variant per
+ * wavelength, each knowing its line by `index`), its path walk and check plans (per variant), its
+ * photon energies.
+ */
 export interface Context {
 	path: NormPath;
+	lines: NormLine[];
 	limits: NormLimit[];
 	walk: Walk;
 	plans: Plans[];
@@ -53,22 +59,34 @@ interface LineEval {
 	/** Highest ratio among the comparisons made (null when none could be made). */
 	ratio: number | null;
 	used: number[];
-	diffuse: { r: number; at: LimitAt; plan: Plan; x: number } | null;
 	missingChecks: CheckKind[];
+	/** This variant's working (merged into the point's when it decides for its line). */
+	steps: Step[];
+	/** Highest ratio with every C_E taken as 1 (for the diffuse distance), and the limit and check behind the highest ratio. */
+	pointSourceRatio: number | null;
+	deciding: { limit: LimitRef; check: CheckKind; label: string } | null;
 }
 
 const PI_4 = Math.PI / 4;
 
-/** One line at a point, seen in the beam of `origin`. */
-function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin, w: Working, missingPoint: string[]): LineEval {
-	const line = ctx.path.lines[li];
+/** The prefix of a variant's step ids: 'line2', or 'line2@532nm' for a tunable line's wavelength. */
+export function stepPrefix(line: NormLine): string {
+	return line.wavelengthMax === null ? `line${line.index + 1}` : `line${line.index + 1}@${nm(line.wavelength).replace(' ', '')}`;
+}
+
+/** One line (one variant of it) at a point, seen in the beam of `origin`. */
+function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin, missingPoint: string[], breakdown: boolean): LineEval {
+	const line = ctx.lines[li];
+	const w = new Working(breakdown);
 	const state = origin.states[li];
 	const tr = origin.transmission[li];
 	const z = point.position;
 	const diffuse = point.kind === 'diffuse';
 	const h = line.hotSpot;
-	const p = `line${li + 1}`;
+	const p = stepPrefix(line);
 	const D = diameterAt(state, z);
+	// The apparent source of a diffuse reflection: the spot on the surface seen from r (α_min when viewed directly).
+	const alpha = diffuse && point.viewingDistance !== null ? 2 * Math.atan(D / (2 * point.viewingDistance)) : null;
 	const P = line.averagePower === null ? null : tr * line.averagePower;
 	const Q = line.pulseEnergy === null ? null : tr * line.pulseEnergy;
 
@@ -108,8 +126,10 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 	let worst: number | null = null;
 	const used: number[] = [];
 	const missingChecks: CheckKind[] = [];
-	let diffuseBest: LineEval['diffuse'] = null;
 	const T = point.exposureDuration;
+	let pointSourceRatio: number | null = null;
+	let deciding: LineEval['deciding'] = null;
+	if (alpha !== null && w.enabled) w.add(`${p}.apparent-source`, 'Apparent source of the reflection', 'α = 2·atan(D / (2r))', [['D', D, 'm'], ['r', point.viewingDistance!, 'm']], alpha, 'rad', 'The spot on the surface as seen from the viewer; limits with an extended-source rule use it.');
 
 	for (const plan of ctx.plans[li].for(T)) {
 		const missing = planMissesT(plan) ? [`points.${point.index}.exposureDuration`, ...missingPoint] : missingPoint;
@@ -126,34 +146,38 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 			missingChecks.push(plan.kind);
 			continue;
 		}
-		const x = plan.unit === 'W' ? P! : Q!;
+		const x0 = plan.unit === 'W' ? P! : Q!;
 		const comparisons: Comparison[] = [];
 		let best = -1;
 		let anyIncomplete = false;
 		for (let j = 0; j < limits.length; j++) {
 			const la = limits[j];
 			const limit = la.limit;
+			// T_i: a group of pulses counts as one pulse of duration T_i carrying their energy.
+			const x = la.grouped === 1 ? x0 : x0 * la.grouped;
+			const tl = la.t;
+			const ce = extendedSourceFactor(limit, alpha);
 			// The words of this comparison's steps are the same at every point: formed once.
 			const tx = w.enabled ? (la.texts ??= comparisonTexts(p, plan, limit, h)) : null;
 			let exposureNat: number;
 			let averaging: number | null = null;
 			if (diffuse) {
 				exposureNat = G! * x;
-				if (tx) w.add(tx.exposure, tx.diffuseLabel, tx.diffuseFormula, diffuseIn(point, plan.symbol, x, plan.unit), exposureNat, MEASURE_UNIT[plan.measure], 'Lambertian surface; no aperture averaging.');
+				if (tx) w.add(tx.exposure, tx.diffuseLabel, tx.diffuseFormula, diffuseIn(point, plan.symbol, x, plan.unit), exposureNat, MEASURE_UNIT[plan.measure], la.grouped === 1 ? 'Lambertian surface; no aperture averaging.' : `Lambertian surface; ${sig(la.grouped)} pulses within T_i count as one.`);
 			} else {
-				averaging = D >= limit.limitingAperture ? D : limit.limitingAperture;
+				averaging = D >= la.aperture ? D : la.aperture;
 				exposureNat = (h * x) / (PI_4 * averaging * averaging);
 				if (tx) {
-					w.add(tx.averaging, tx.averagingLabel, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', limit.limitingAperture, 'm']], averaging, 'm');
-					w.add(tx.exposure, tx.averagedLabel, tx.averagedFormula, h === 1 ? [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm']] : [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm'], ['h', h, '']], exposureNat, MEASURE_UNIT[plan.measure]);
+					w.add(tx.averaging, tx.averagingLabel, 'D_avg = max(D, D_f)', [['D', D, 'm'], ['D_f', la.aperture, 'm']], averaging, 'm', limit.apertureExponent === 0 ? undefined : `D_f = a·tᵇ = ${sig(limit.limitingAperture)}·${sig(tl)}^${limit.apertureExponent} m.`);
+					w.add(tx.exposure, tx.averagedLabel, tx.averagedFormula, h === 1 ? [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm']] : [[plan.symbol, x, plan.unit], ['D_avg', averaging, 'm'], ['h', h, '']], exposureNat, MEASURE_UNIT[plan.measure], la.grouped === 1 ? undefined : `${sig(la.grouped)} pulses within T_i = ${sig(tl)} s count as one: ${plan.symbol} is their energy.`);
 				}
 			}
 			let exposure = exposureNat;
 			if (limit.quantity !== plan.measure) {
-				exposure = plan.measure === 'irradiance' ? exposureNat * t : exposureNat / t;
+				exposure = plan.measure === 'irradiance' ? exposureNat * tl : exposureNat / tl;
 				if (tx) {
-					if (plan.measure === 'irradiance') w.add(tx.convert, tx.convertLabel, tx.convertFormula, [['E', exposureNat, 'W/m²'], [plan.tSymbol, t, 's']], exposure, 'J/m²');
-					else w.add(tx.convert, tx.convertLabel, tx.convertFormula, [['H', exposureNat, 'J/m²'], ['τ', t, 's']], exposure, 'W/m²');
+					if (plan.measure === 'irradiance') w.add(tx.convert, tx.convertLabel, tx.convertFormula, [['E', exposureNat, 'W/m²'], [plan.tSymbol, tl, 's']], exposure, 'J/m²');
+					else w.add(tx.convert, tx.convertLabel, tx.convertFormula, [['H', exposureNat, 'J/m²'], ['τ', tl, 's']], exposure, 'W/m²');
 				}
 			}
 			const unit = MEASURE_UNIT[limit.quantity];
@@ -161,18 +185,21 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 				limit: limit.cited,
 				quantity: limit.quantity,
 				unit,
-				duration: t,
-				limitingAperture: limit.limitingAperture,
+				duration: tl,
+				limitingAperture: la.aperture,
 				beamDiameter: diffuse ? null : D,
 				averagingDiameter: averaging,
 				exposure,
-				limitValue: la.value,
+				limitValue: la.value === null ? null : la.value * ce,
+				wavelengthFactor: la.wavelengthFactor,
+				extendedSourceFactor: ce,
 				ratio: null,
 				verdict: 'incomplete',
 				deciding: false
 			};
+			if (la.grouped !== 1) cmp.groupedPulses = la.grouped;
 			if (plan.kind === 'pulse_train') {
-				cmp.pulseCount = plan.pulseCount!;
+				cmp.pulseCount = la.pulseCount!;
 				cmp.trainRule = la.trainRule;
 				if (la.trainFactor !== undefined) cmp.trainFactor = la.trainFactor;
 			}
@@ -183,18 +210,15 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 				comparisons.push(cmp);
 				continue;
 			}
-			if (tx) limitStep(w, tx.limit, la, plan);
-			const ratio = exposure / la.value;
+			const value = la.value * ce;
+			if (tx) limitStep(w, tx.limit, la, ce, alpha);
+			const ratio = exposure / value;
 			cmp.ratio = ratio;
 			cmp.verdict = exceeds(ratio) ? 'exceeds_limit' : 'within_limit';
-			if (tx) w.add(tx.ratio, tx.ratioLabel, tx.ratioFormula, [[MEASURE_SYMBOL[limit.quantity], exposure, unit], ['EL', la.value, unit]], ratio, '');
+			if (tx) w.add(tx.ratio, tx.ratioLabel, tx.ratioFormula, [[MEASURE_SYMBOL[limit.quantity], exposure, unit], ['EL', value, unit]], ratio, '');
 			comparisons.push(cmp);
 			if (best < 0 || ratio > comparisons[best].ratio!) best = comparisons.length - 1;
-			if (G !== null) {
-				// r_h = √(ρ·X·cosθ/(π·EL)) with EL in the check's measure.
-				const r = Math.sqrt((G * point.viewingDistance! * point.viewingDistance! * x) / la.natural!);
-				if (!diffuseBest || r > diffuseBest.r) diffuseBest = { r, at: la, plan, x };
-			}
+			if (pointSourceRatio === null || ratio * ce > pointSourceRatio) pointSourceRatio = ratio * ce;
 		}
 		if (anyIncomplete) missingChecks.push(plan.kind);
 		let checkVerdict: Verdict;
@@ -213,14 +237,20 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 			reason = `Within “${decided!.limit.label}”, the most restrictive applicable limit.`;
 		}
 		verdict = worse(verdict, checkVerdict);
-		if (decided && (worst === null || decided.ratio! > worst)) worst = decided.ratio!;
+		if (decided && (worst === null || decided.ratio! > worst)) {
+			worst = decided.ratio!;
+			deciding = { limit: limits[best].limit.ref, check: plan.kind, label: limits[best].limit.label };
+		}
 		checks.push({ kind: plan.kind, label: plan.label, duration: t, verdict: checkVerdict, reason, ratio: decided ? decided.ratio : null, decidingLimit: decided ? limits[best].limit.ref : null, comparisons, missing: [] });
 	}
 	const od = worst === null ? null : requiredOpticalDensity(worst);
 	return {
 		res: {
-			line: li,
+			line: line.index,
 			wavelength: line.wavelength,
+			tuning: null,
+			effectGroup: effectGroup(point.tissue, line.wavelength).label,
+			apparentSource: alpha,
 			transmissionFactor: tr,
 			power: P,
 			pulseEnergy: Q,
@@ -237,8 +267,10 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 		},
 		ratio: worst,
 		used,
-		diffuse: diffuseBest,
-		missingChecks
+		missingChecks,
+		steps: w.steps,
+		pointSourceRatio,
+		deciding
 	};
 }
 
@@ -281,17 +313,39 @@ function comparisonTexts(p: string, plan: Plan, limit: NormLimit, h: number): Co
 	};
 }
 
-/** The limit's step, formed once per check and limit and shared by every point that uses it. */
-function limitStep(w: Working, id: string, la: LimitAt, plan: Plan): void {
-	if (!la.step) {
-		const l = la.limit;
-		const unit = MEASURE_UNIT[l.quantity];
-		const scratch = new Working(true);
-		if (la.trainRule === 'exponent') scratch.add(id, `Limit “${l.label}” for the pulse train`, 'EL = k·tⁿ·N^x', [['k', l.k, unit], ['t', plan.t!, 's'], ['n', l.n, ''], ['N', plan.pulseCount!, ''], ['x', l.trainExponent!, '']], la.value!, unit, l.citation);
-		else scratch.add(id, `Limit “${l.label}”`, 'EL = k·tⁿ', [['k', l.k, unit], ['t', plan.t!, 's'], ['n', l.n, '']], la.value!, unit, la.trainRule === 'no_correction' ? `${l.citation} No pulse-train correction, as the officer entered it.` : l.citation);
-		la.step = scratch.steps[0];
+/**
+ * The limit's step: EL = k·C(λ)·C_E(α)·tⁿ (× N^x for a pulse train), with the factors that are not 1.
+ * Where C_E is 1 (every direct view) the step is the same at every point: formed once and shared.
+ */
+function limitStep(w: Working, id: string, la: LimitAt, ce: number, alpha: number | null): void {
+	if (ce === 1 && la.step) return w.push(la.step);
+	const l = la.limit;
+	const unit = MEASURE_UNIT[l.quantity];
+	const factors: In[] = [];
+	let formula = 'EL = k';
+	if (l.wavelengthFactor) {
+		formula += '·C(λ)';
+		factors.push(['C(λ)', la.wavelengthFactor, '']);
 	}
-	w.push(la.step);
+	if (ce !== 1) {
+		formula += '·C_E(α)';
+		factors.push(['C_E', ce, ''], ['α', alpha!, 'rad']);
+	}
+	formula += l.n === 0 ? '' : '·tⁿ';
+	const inputs: In[] = [['k', l.k, unit], ...factors, ['t', la.t, 's'], ['n', l.n, '']];
+	if (la.trainRule === 'exponent') {
+		formula += '·N^x';
+		inputs.push(['N', la.pulseCount!, ''], ['x', l.trainExponent!, '']);
+	}
+	const notes = [l.citation];
+	if (l.wavelengthFactor?.kind === 'exponential') notes.push(`C(λ) = 10^(${sig(l.wavelengthFactor.slope * 1e-9)}/nm·(λ − ${nm(l.wavelengthFactor.origin)})), λ held within ${nm(l.wavelengthFactor.from)}–${nm(l.wavelengthFactor.to)}.`);
+	if (l.extendedSource) notes.push(`C_E = (α/α_min)^${l.extendedSource.exponent} for α_min = ${sig(l.extendedSource.alphaMin)} rad < α < α_max = ${sig(l.extendedSource.alphaMax)} rad.`);
+	if (la.grouped !== 1) notes.push(`Evaluated at T_i = ${sig(la.t)} s: pulses within T_i count as one.`);
+	if (la.trainRule === 'no_correction') notes.push('No pulse-train correction, as the officer entered it.');
+	const scratch = new Working(true);
+	scratch.add(id, la.trainRule === 'exponent' ? `Limit “${l.label}” for the pulse train` : `Limit “${l.label}”`, formula, inputs, la.value! * ce, unit, notes.join(' '));
+	if (ce === 1) la.step = scratch.steps[0];
+	w.push(scratch.steps[0]);
 }
 
 function diffuseIn(point: NormPoint, symbol: string, x: number, unit: string): In[] {
@@ -331,34 +385,89 @@ export function evaluatePoint(ctx: Context, point: NormPoint, withBreakdown = tr
 }
 
 function evaluateSide(ctx: Context, point: NormPoint, origin: Origin, enclosedBy: number | null, withBreakdown: boolean): PointEval {
-	const w = new Working(ctx.breakdown && withBreakdown);
+	const breakdown = ctx.breakdown && withBreakdown;
+	const w = new Working(breakdown);
 	const missingPoint: string[] = [];
 	if (point.kind === 'diffuse') {
 		if (point.reflectance === null) missingPoint.push(`points.${point.index}.reflectance`);
 		if (point.viewingDistance === null) missingPoint.push(`points.${point.index}.viewingDistance`);
 	}
-	const lines: LineAtPoint[] = [];
 	const used: number[] = [];
 	let verdict: Verdict = 'within_limit';
-	let ratio: number | null = null;
-	let diffuseBest: (NonNullable<LineEval['diffuse']> & { line: number }) | null = null;
 	const missingChecks: CheckKind[] = [];
 	const missing = new Set<string>(missingPoint);
-	for (let li = 0; li < ctx.path.lines.length; li++) {
-		const ev = evaluateLine(ctx, point, li, origin, w, missingPoint);
-		lines.push(ev.res);
-		used.push(...ev.used);
+
+	// Every variant of every line; per line, its worst variant is what the point shows for it.
+	const perLine: (LineEval | null)[] = ctx.path.lines.map(() => null);
+	const assessedAt: number[][] = ctx.path.lines.map(() => []);
+	// Per effect group and line, the worst ratio of that line's variants in the group.
+	const groups = new Map<string, { label: string; ratios: Map<number, number>; pointSource: Map<number, number> }>();
+	for (let vi = 0; vi < ctx.lines.length; vi++) {
+		const ev = evaluateLine(ctx, point, vi, origin, missingPoint, breakdown);
+		const li = ev.res.line;
+		assessedAt[li].push(ev.res.wavelength);
+		for (const u of ev.used) used.push(u);
 		verdict = worse(verdict, ev.res.verdict);
-		if (ev.ratio !== null && (ratio === null || ev.ratio > ratio)) ratio = ev.ratio;
-		if (ev.diffuse && (!diffuseBest || ev.diffuse.r > diffuseBest.r)) diffuseBest = { ...ev.diffuse, line: li };
 		for (const k of ev.missingChecks) if (!missingChecks.includes(k)) missingChecks.push(k);
 		for (const c of ev.res.checks) for (const m of c.missing) missing.add(m);
+		const shown = perLine[li];
+		if (!shown || (ev.ratio !== null && (shown.ratio === null || ev.ratio > shown.ratio)) || (ev.ratio === null && shown.ratio === null && VERDICT_RANK[ev.res.verdict] > VERDICT_RANK[shown.res.verdict])) perLine[li] = ev;
+		if (ev.ratio !== null) {
+			const g = effectGroup(point.tissue, ev.res.wavelength);
+			let entry = groups.get(g.id);
+			if (!entry) groups.set(g.id, (entry = { label: g.label, ratios: new Map(), pointSource: new Map() }));
+			if (ev.ratio > (entry.ratios.get(li) ?? -1)) entry.ratios.set(li, ev.ratio);
+			if (ev.pointSourceRatio! > (entry.pointSource.get(li) ?? -1)) entry.pointSource.set(li, ev.pointSourceRatio!);
+		}
 	}
+	const lines: LineAtPoint[] = [];
+	perLine.forEach((ev, li) => {
+		const res = ev!.res;
+		const line = ctx.path.lines[li];
+		if (line.wavelengthMax !== null) res.tuning = { from: line.wavelength, to: line.wavelengthMax, assessedAt: assessedAt[li] };
+		lines.push(res);
+		for (const step of ev!.steps) w.push(step);
+	});
+
+	// Lines that act alike add up: the point's ratio is the largest sum.
+	const sums: EffectSum[] = [];
+	let ratio: number | null = null;
+	let pointSource: number | null = null;
+	for (const [id, g] of groups) {
+		let total = 0;
+		const members: EffectSum['lines'] = [];
+		for (const [line, r] of g.ratios) {
+			total += r;
+			members.push({ line, ratio: r });
+		}
+		let totalPointSource = 0;
+		for (const r of g.pointSource.values()) totalPointSource += r;
+		sums.push({ group: id, label: g.label, lines: members, ratio: total, verdict: exceeds(total) ? 'exceeds_limit' : 'within_limit' });
+		if (ratio === null || total > ratio) ratio = total;
+		if (pointSource === null || totalPointSource > pointSource) pointSource = totalPointSource;
+		if (w.enabled && members.length > 1)
+			w.add(`sum.${id}`, `Sum of the lines that act alike: ${g.label}`, 'Σ ratioᵢ', members.map((m) => [`ratio${subscriptOf(m.line + 1)}`, m.ratio, ''] as const), total, '', 'Each line’s worst check; exposures of lines acting on the same tissue in the same way add (Σ Hᵢ/ELᵢ ≤ 1).');
+	}
+	if (ratio !== null && exceeds(ratio)) verdict = 'exceeds_limit';
 	const od = ratio === null ? null : requiredOpticalDensity(ratio);
 	if (od && w.enabled) w.add('optical-density', 'Optical density needed', 'OD = log₁₀(ratio) (0 when ratio ≤ 1)', [['ratio', ratio!, '']], od.value, '', `Rounded up: ${od.roundedUpTenth} (one decimal), ${od.roundedUpWhole} (whole).`);
 
+	// Per line, the OD that brings the largest sum it takes part in down to the limit.
+	const requiredOpticalDensities: LineOpticalDensity[] = [];
+	ctx.path.lines.forEach((line, li) => {
+		let largest: number | null = null;
+		for (const g of groups.values()) {
+			const own = g.ratios.get(li);
+			if (own === undefined || own <= 0) continue;
+			let total = 0;
+			for (const r of g.ratios.values()) total += r;
+			if (largest === null || total > largest) largest = total;
+		}
+		if (largest !== null) requiredOpticalDensities.push({ line: li, wavelengthMin: line.wavelength, wavelengthMax: line.wavelengthMax ?? line.wavelength, od: requiredOpticalDensity(largest) });
+	});
+
 	let diffuseHazardDistance: DiffuseDistance | null = null;
-	if (point.kind === 'diffuse') diffuseHazardDistance = diffuseDistance(point, diffuseBest, missingChecks, missingPoint, w);
+	if (point.kind === 'diffuse') diffuseHazardDistance = diffuseDistance(point, pointSource, perLine, missingChecks, missingPoint, w);
 
 	const warnings: string[] = [];
 	for (const line of ctx.path.lines) {
@@ -380,12 +489,14 @@ function evaluateSide(ctx: Context, point: NormPoint, origin: Origin, enclosedBy
 		enclosedBy,
 		beamAfterElement: origin.afterElement,
 		verdict,
-		reason: pointReason(verdict, lines, accessible, enclosedBy),
+		reason: pointReason(verdict, lines, sums, accessible, enclosedBy),
 		missing: [...missing],
 		warnings,
 		lines,
+		sums,
 		worstRatio: ratio,
 		requiredOpticalDensity: od,
+		requiredOpticalDensities,
 		diffuseHazardDistance,
 		skinHazardDistance,
 		breakdown: w.steps
@@ -393,26 +504,43 @@ function evaluateSide(ctx: Context, point: NormPoint, origin: Origin, enclosedBy
 	return { result, ratio, used };
 }
 
-function diffuseDistance(point: NormPoint, best: (NonNullable<LineEval['diffuse']> & { line: number }) | null, missingChecks: CheckKind[], missingPoint: string[], w: Working): DiffuseDistance {
+const SUBSCRIPT_DIGITS = '₀₁₂₃₄₅₆₇₈₉';
+const subscriptOf = (n: number) => String(n).replace(/\d/g, (d) => SUBSCRIPT_DIGITS[Number(d)]);
+
+/**
+ * r_h: within this distance of the reflecting spot the reflection exceeds the limits. Every ratio of a
+ * diffuse reflection falls as 1/r², so r_h = r·√(Σ ratios at r), the sum taken as for a point source
+ * (C_E = 1), which can only lengthen it. For one line this is √(ρ·X·cosθ/(π·EL)).
+ */
+function diffuseDistance(point: NormPoint, sum: number | null, perLine: (LineEval | null)[], missingChecks: CheckKind[], missingPoint: string[], w: Working): DiffuseDistance {
 	const lacking = missingChecks.length ? ` No limit (or no pulse-train rule) for the ${missingChecks.map((k) => k.replace('_', ' ')).join(', ')} check: the distance may be understated.` : '';
-	if (missingPoint.length) return { status: 'incomplete', distance: null, decidingLimit: null, decidingCheck: null, decidingLine: null, missingChecks, reason: `Needs the ${missingPoint.map((m) => m.split('.').pop()).join(' and ')} of the reflection.` };
-	if (!best) return { status: 'no_applicable_limit', distance: null, decidingLimit: null, decidingCheck: null, decidingLine: null, missingChecks, reason: 'No entered limit applies to this reflection: no hazard distance can be given. Not shown as safe.' };
-	if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', 'r_h = √(ρ·X·cosθ / (π·EL))', [['ρ', point.reflectance!, ''], [best.plan.symbol, best.x, best.plan.unit], ['θ', point.viewingAngle, 'rad'], ['EL', best.at.natural!, MEASURE_UNIT[best.plan.measure]]], best.r, 'm', `Most restrictive: “${best.at.limit.label}” (${best.plan.label.toLowerCase()}).`);
+	const none = { distance: null, decidingLimit: null, decidingCheck: null, decidingLine: null, missingChecks };
+	if (missingPoint.length) return { ...none, status: 'incomplete', reason: `Needs the ${missingPoint.map((m) => m.split('.').pop()).join(' and ')} of the reflection.` };
+	if (sum === null) return { ...none, status: 'no_applicable_limit', reason: 'No entered limit applies to this reflection: no hazard distance can be given. Not shown as safe.' };
+	const r = point.viewingDistance! * Math.sqrt(sum);
+	// The line and limit that weigh most.
+	let decidingLine = 0;
+	for (let i = 0; i < perLine.length; i++) if ((perLine[i]?.pointSourceRatio ?? -1) > (perLine[decidingLine]?.pointSourceRatio ?? -1)) decidingLine = i;
+	const deciding = perLine[decidingLine]!.deciding;
+	if (w.enabled) w.add('diffuse-hazard-distance', 'Diffuse-reflection hazard distance', perLine.length > 1 ? 'r_h = r·√(Σ ratios at r)' : 'r_h = r·√(ratio at r)', [['r', point.viewingDistance!, 'm'], ['Σ ratio', sum, '']], r, 'm', 'Each ratio of a diffuse reflection falls as 1/r²; taken for a point source (C_E = 1), which can only lengthen the distance.');
 	return {
 		status: missingChecks.length ? 'partial' : 'finite',
-		distance: best.r,
-		decidingLimit: limitRef(best.at.limit),
-		decidingCheck: best.plan.kind,
-		decidingLine: best.line,
+		distance: r,
+		decidingLimit: deciding ? deciding.limit : null,
+		decidingCheck: deciding ? deciding.check : null,
+		decidingLine,
 		missingChecks,
-		reason: `Within ${sig(best.r)} m of the reflecting spot the reflection exceeds “${best.at.limit.label}”.${lacking}`
+		reason: `Within ${sig(r)} m of the reflecting spot the reflection exceeds ${deciding ? `“${deciding.label}”` : 'its limits'}.${lacking}`
 	};
 }
 
-function pointReason(verdict: Verdict, lines: LineAtPoint[], accessible: boolean, enclosedBy: number | null): string {
+function pointReason(verdict: Verdict, lines: LineAtPoint[], sums: EffectSum[], accessible: boolean, enclosedBy: number | null): string {
 	const lead = accessible ? '' : `Inside the enclosure (element ${enclosedBy! + 1}): not accessible, reported but left out of the overall verdict. `;
 	let decisive: CheckResult | undefined;
 	for (const l of lines) for (const c of l.checks) if (!decisive && c.verdict === verdict) decisive = c;
+	const summed = sums.find((s) => s.lines.length > 1 && s.verdict === 'exceeds_limit');
+	if (verdict === 'exceeds_limit' && summed && !lines.some((l) => l.verdict === 'exceeds_limit'))
+		return lead + `No line exceeds its limits alone, but together they do: the lines acting on the ${summed.label} add up to more than the limit.`;
 	switch (verdict) {
 		case 'exceeds_limit':
 		case 'incomplete':

@@ -28,7 +28,18 @@ export const EYE_VISIBLE: LimitSI = {
 	limitingAperture: '7e-3',
 	pulseBasis: 'continuous',
 	pulseTrainExponent: null,
-	noTrainCorrection: false
+	noTrainCorrection: false,
+	wavelengthFactorKind: 'none',
+	wavelengthFactorValue: null,
+	wavelengthFactorSlope: null,
+	wavelengthFactorOrigin: null,
+	wavelengthFactorFrom: null,
+	wavelengthFactorTo: null,
+	extendedAlphaMin: null,
+	extendedAlphaMax: null,
+	extendedExponent: null,
+	limitingApertureExponent: '0',
+	pulseGroupingTime: null
 };
 
 /** Eye, 400–700 nm, 10 s – 30 000 s: E = 10 W/m² (1 mW/cm², from memory, simplified). */
@@ -73,6 +84,7 @@ export function cwLine(over: Partial<LineSI> = {}): LineSI {
 	return {
 		id: null,
 		label: '',
+		emissionGroup: '',
 		mode: 'continuous',
 		wavelength: '532e-9',
 		wavelengthMax: null,
@@ -96,7 +108,7 @@ export function pulsedLine(over: Partial<LineSI> = {}): LineSI {
 }
 
 export function el(kind: ElementSI['kind'], values: Partial<ElementSI> = {}): ElementSI {
-	return { kind, label: '', length: null, transmission: null, reflectance: null, magnification: null, focalLength: null, coreDiameter: null, numericalAperture: null, couplingTransmission: null, ...values };
+	return { kind, label: '', length: null, transmission: null, reflectance: null, magnification: null, focalLength: null, coreDiameter: null, numericalAperture: null, couplingTransmission: null, bands: null, ...values };
 }
 
 export const free = (length: string | number) => el('propagate', { length: String(length) });

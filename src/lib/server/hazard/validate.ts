@@ -4,17 +4,21 @@
  * field ('lines.0.power', 'elements.2.focalLength', 'points.1.reflectance', 'limits.3.n').
  * The same rules serve the forms (the line form and the limit form check with them before saving).
  */
-import { beamDefinitions, beamProfiles, elementKinds, emissionModes, limitQuantities, pointKinds, pulseBases, tissues } from '$lib/enums';
+import { beamDefinitions, beamProfiles, elementKinds, emissionModes, limitQuantities, pointKinds, pulseBases, tissues, wavelengthFactorKinds } from '$lib/enums';
 import type { BeamDefinition, BeamProfile, ElementKind, EmissionMode, LimitQuantity, PointKind, PulseBasis, Tissue } from '$lib/enums';
 import type { CitedLimit, InputError, LimitRef } from '$lib/assessmentResult';
 import { WAVELENGTH_MAX, WAVELENGTH_MIN } from './constants';
 import { toOneOverE } from './beam';
 
 export interface NormLine {
+	/** Index in the path's lines; the variants of a tunable line share it (see tuning.ts). */
 	index: number;
 	id: string | null;
 	label: string;
+	emissionGroup: string;
 	wavelength: number;
+	/** Upper end of a tunable line's range; null for a fixed line. */
+	wavelengthMax: number | null;
 	mode: EmissionMode;
 	/** Q for pulsed modes, τ, f for repetitive; null otherwise. */
 	pulseEnergy: number | null;
@@ -37,10 +41,18 @@ export interface NormLine {
 	hotSpot: number;
 }
 
+export interface NormBand {
+	from: number;
+	to: number;
+	factor: number;
+}
+
 export type NormElement = { index: number; label: string; kind: ElementKind } & {
 	length: number;
 	/** Power factor of the element (transmission, reflectance, fibre coupling); 1 for the others. */
 	factor: number;
+	/** Per wavelength band (transmission elements, mirrors); empty = the one factor for every line. */
+	bands: NormBand[];
 	magnification: number;
 	focalLength: number;
 	coreDiameter: number;
@@ -74,8 +86,16 @@ export interface NormLimit {
 	quantity: LimitQuantity;
 	k: number;
 	n: number;
+	/** C(λ): null = 1; a constant; or 10^(slope·(clamp(λ, from, to) − origin)). */
+	wavelengthFactor: { kind: 'constant'; value: number } | { kind: 'exponential'; slope: number; origin: number; from: number; to: number } | null;
+	/** C_E(α) rule; null = every source a point source (C_E = 1, conservative). */
+	extendedSource: { alphaMin: number; alphaMax: number; exponent: number } | null;
+	/** Limiting aperture a·tᵇ. */
 	limitingAperture: number;
+	apertureExponent: number;
 	pulseBasis: PulseBasis;
+	/** T_i: pulses closer together than this count as one; null = no grouping rule. */
+	groupingTime: number | null;
 	trainExponent: number | null;
 	noTrainCorrection: boolean;
 	/** Its reference and its citation as results carry them: one object each, shared by every comparison. */
@@ -117,6 +137,9 @@ const NUMERICAL_APERTURE: Rule = { min: 0, minExclusive: true, max: 1, describe:
 const VIEWING_ANGLE: Rule = { min: 0, max: Math.PI / 2, maxExclusive: true, describe: 'at least 0 and less than π/2 rad (90°)' };
 const EXPONENT: Rule = { min: -2, max: 2, describe: 'between −2 and 2' };
 const TRAIN_EXPONENT: Rule = { min: -2, max: 0, describe: 'between −2 and 0 (a pulse train never relaxes a limit)' };
+/** 10^(s·Δλ): ±1e8 per metre is ±0.1 per nanometre, a factor of 10 every 10 nm. */
+const SLOPE: Rule = { min: -1e8, max: 1e8, describe: 'between −1e8 and 1e8 per metre (±0.1 per nm)' };
+const EXTENDED_EXPONENT: Rule = { min: 0, max: 2, describe: 'between 0 and 2' };
 
 export class Errors {
 	readonly items: InputError[] = [];
@@ -188,9 +211,11 @@ export function readLine(raw: unknown, i: number, errors: Errors): NormLine | un
 	}
 	const n0 = errors.items.length;
 	const wavelength = num(errors, `${at}.wavelength`, raw.wavelength, WAVELENGTH, 'The wavelength');
+	let wavelengthMax: number | null = null;
 	if (!isMissing(raw.wavelengthMax)) {
 		const top = num(errors, `${at}.wavelengthMax`, raw.wavelengthMax, WAVELENGTH, 'The upper end of the tuning range');
 		if (top !== undefined && wavelength !== undefined && top < wavelength) errors.add(`${at}.wavelengthMax`, 'The upper end of the tuning range must not be below the wavelength.');
+		else if (top !== undefined && wavelength !== undefined && top > wavelength) wavelengthMax = top;
 	}
 	const mode = oneOf(errors, `${at}.mode`, raw.mode, emissionModes, 'The emission mode');
 	let power: number | undefined;
@@ -219,7 +244,9 @@ export function readLine(raw: unknown, i: number, errors: Errors): NormLine | un
 		index: i,
 		id: typeof raw.id === 'string' ? raw.id : null,
 		label: textOf(raw.label, `line ${i + 1}`),
+		emissionGroup: typeof raw.emissionGroup === 'string' ? raw.emissionGroup.trim() : '',
 		wavelength,
+		wavelengthMax,
 		mode,
 		pulseEnergy: q ?? null,
 		pulseDuration: tau ?? null,
@@ -256,7 +283,7 @@ function readElement(raw: unknown, i: number, errors: Errors): NormElement | und
 	}
 	const kind = oneOf(errors, `${at}.kind`, raw.kind, elementKinds, 'The element kind');
 	if (kind === undefined) return undefined;
-	const e: NormElement = { index: i, label: textOf(raw.label, ''), kind, length: 0, factor: 1, magnification: 1, focalLength: 0, coreDiameter: 0, numericalAperture: 0 };
+	const e: NormElement = { index: i, label: textOf(raw.label, ''), kind, length: 0, factor: 1, bands: [], magnification: 1, focalLength: 0, coreDiameter: 0, numericalAperture: 0 };
 	const n0 = errors.items.length;
 	switch (kind) {
 		case 'propagate':
@@ -265,9 +292,11 @@ function readElement(raw: unknown, i: number, errors: Errors): NormElement | und
 			break;
 		case 'transmission':
 			e.factor = num(errors, `${at}.transmission`, raw.transmission, FRACTION, 'The transmission') ?? 0;
+			e.bands = readBands(raw.bands, at, errors);
 			break;
 		case 'mirror':
 			e.factor = optionalNum(errors, `${at}.reflectance`, raw.reflectance, FRACTION, 'The reflectance') ?? 1;
+			e.bands = readBands(raw.bands, at, errors);
 			break;
 		case 'expander':
 			e.magnification = num(errors, `${at}.magnification`, raw.magnification, MAGNIFICATION, 'The magnification') ?? 1;
@@ -282,6 +311,26 @@ function readElement(raw: unknown, i: number, errors: Errors): NormElement | und
 			break;
 	}
 	return errors.items.length > n0 ? undefined : e;
+}
+
+/** Bands of a transmission element or mirror: inclusive wavelength ranges with what they pass on. */
+function readBands(raw: unknown, at: string, errors: Errors): NormBand[] {
+	if (isMissing(raw)) return [];
+	if (!Array.isArray(raw)) {
+		errors.add(`${at}.bands`, 'The wavelength bands must be a list.');
+		return [];
+	}
+	const out: NormBand[] = [];
+	raw.forEach((b, j) => {
+		const where = `${at}.bands.${j}`;
+		if (!isRecord(b)) return errors.add(where, `Band ${j + 1} must give wavelengthMin, wavelengthMax and transmission.`);
+		const from = num(errors, `${where}.wavelengthMin`, b.wavelengthMin, POSITIVE, 'The shortest wavelength of the band');
+		const to = num(errors, `${where}.wavelengthMax`, b.wavelengthMax, POSITIVE, 'The longest wavelength of the band');
+		const factor = num(errors, `${where}.transmission`, b.transmission, FRACTION, 'The transmission in the band');
+		if (from !== undefined && to !== undefined && to < from) errors.add(`${where}.wavelengthMax`, 'The longest wavelength of the band must not be below the shortest.');
+		else if (from !== undefined && to !== undefined && factor !== undefined) out.push({ from, to, factor });
+	});
+	return out;
 }
 
 function readPoint(raw: unknown, i: number, errors: Errors): NormPoint | undefined {
@@ -348,13 +397,18 @@ export function readLimit(raw: unknown, i: number, errors: Errors): NormLimit | 
 	const k = num(errors, `${at}.k`, raw.k, POSITIVE, 'The coefficient k');
 	const n = num(errors, `${at}.n`, raw.n, EXPONENT, 'The exponent n');
 	const limitingAperture = num(errors, `${at}.limitingAperture`, raw.limitingAperture, NON_NEGATIVE, 'The limiting aperture');
+	const apertureExponent = optionalNum(errors, `${at}.limitingApertureExponent`, raw.limitingApertureExponent, EXPONENT, 'The exponent of the limiting aperture') ?? 0;
 	const pulseBasis = oneOf(errors, `${at}.pulseBasis`, raw.pulseBasis, pulseBases, 'The pulse basis');
+	const groupingTime = optionalNum(errors, `${at}.pulseGroupingTime`, raw.pulseGroupingTime, POSITIVE, 'The pulse-grouping time T_i');
+	const wavelengthFactor = readWavelengthFactor(raw, at, errors, wavelengthMin, wavelengthMax);
+	const extendedSource = readExtendedSource(raw, at, errors);
 	const trainExponent = optionalNum(errors, `${at}.pulseTrainExponent`, raw.pulseTrainExponent, TRAIN_EXPONENT, 'The pulse-train exponent');
 	const noTrainCorrection = raw.noTrainCorrection === true;
 	if (raw.noTrainCorrection !== undefined && raw.noTrainCorrection !== null && typeof raw.noTrainCorrection !== 'boolean') errors.add(`${at}.noTrainCorrection`, 'Must be true or false.');
 	if (wavelengthMin !== undefined && wavelengthMax !== undefined && wavelengthMax < wavelengthMin) errors.add(`${at}.wavelengthMax`, 'The longest wavelength must not be below the shortest.');
 	if (durationMin !== undefined && durationMax !== undefined && durationMax < durationMin) errors.add(`${at}.durationMax`, 'The longest duration must not be below the shortest.');
 	if (pulseBasis === 'continuous' && (trainExponent !== null || noTrainCorrection)) errors.add(`${at}.pulseTrainExponent`, 'Only single-pulse limits take a pulse-train rule.');
+	if (pulseBasis === 'continuous' && groupingTime !== null && groupingTime !== undefined) errors.add(`${at}.pulseGroupingTime`, 'Only single-pulse limits take a pulse-grouping time.');
 	if (trainExponent !== null && trainExponent !== undefined && noTrainCorrection) errors.add(`${at}.noTrainCorrection`, 'Give either a pulse-train exponent or “no train correction”, not both.');
 	if (errors.items.length > n0) return undefined;
 	return {
@@ -371,13 +425,59 @@ export function readLimit(raw: unknown, i: number, errors: Errors): NormLimit | 
 		quantity: quantity!,
 		k: k!,
 		n: n!,
+		wavelengthFactor: wavelengthFactor!,
+		extendedSource: extendedSource!,
 		limitingAperture: limitingAperture!,
+		apertureExponent,
 		pulseBasis: pulseBasis!,
+		groupingTime: groupingTime ?? null,
 		trainExponent: trainExponent ?? null,
 		noTrainCorrection,
 		ref: { id: id!, version: version! },
 		cited: { id: id!, version: version!, label: textOf(raw.label, id!), citation: citation! }
 	};
+}
+
+/** The wavelength factor of a limit: none, a constant C > 0, or 10^(s·(λ − λ₀)) over [from, to]. */
+function readWavelengthFactor(raw: Record<string, unknown>, at: string, errors: Errors, lo: number | undefined, hi: number | undefined): NormLimit['wavelengthFactor'] | undefined {
+	const kind = isMissing(raw.wavelengthFactorKind) ? 'none' : oneOf(errors, `${at}.wavelengthFactorKind`, raw.wavelengthFactorKind, wavelengthFactorKinds, 'The kind of wavelength factor');
+	if (kind === undefined) return undefined;
+	if (kind === 'none') return null;
+	if (kind === 'constant') {
+		const value = num(errors, `${at}.wavelengthFactorValue`, raw.wavelengthFactorValue, POSITIVE, 'The wavelength factor');
+		return value === undefined ? undefined : { kind, value };
+	}
+	const slope = num(errors, `${at}.wavelengthFactorSlope`, raw.wavelengthFactorSlope, SLOPE, 'The slope of the wavelength factor (per metre)');
+	const origin = num(errors, `${at}.wavelengthFactorOrigin`, raw.wavelengthFactorOrigin, POSITIVE, 'The wavelength λ₀ of the factor');
+	const from = optionalNum(errors, `${at}.wavelengthFactorFrom`, raw.wavelengthFactorFrom, POSITIVE, 'The start of the factor’s range');
+	const to = optionalNum(errors, `${at}.wavelengthFactorTo`, raw.wavelengthFactorTo, POSITIVE, 'The end of the factor’s range');
+	if (slope === undefined || origin === undefined || from === undefined || to === undefined || lo === undefined || hi === undefined) return undefined;
+	const a = from ?? lo;
+	const b = to ?? hi;
+	if (b < a) {
+		errors.add(`${at}.wavelengthFactorTo`, 'The end of the factor’s range must not be below its start.');
+		return undefined;
+	}
+	return { kind, slope, origin, from: a, to: b };
+}
+
+/** C_E(α): α_min, α_max and the exponent, all three or none. */
+function readExtendedSource(raw: Record<string, unknown>, at: string, errors: Errors): NormLimit['extendedSource'] | undefined {
+	const given = [raw.extendedAlphaMin, raw.extendedAlphaMax, raw.extendedExponent].filter((v) => !isMissing(v)).length;
+	if (given === 0) return null;
+	if (given < 3) {
+		errors.add(`${at}.extendedAlphaMin`, 'An extended-source rule needs α_min, α_max and its exponent (or none of them: every source is then a point source).');
+		return undefined;
+	}
+	const alphaMin = num(errors, `${at}.extendedAlphaMin`, raw.extendedAlphaMin, POSITIVE, 'α_min');
+	const alphaMax = num(errors, `${at}.extendedAlphaMax`, raw.extendedAlphaMax, POSITIVE, 'α_max');
+	const exponent = num(errors, `${at}.extendedExponent`, raw.extendedExponent, EXTENDED_EXPONENT, 'The exponent of C_E');
+	if (alphaMin === undefined || alphaMax === undefined || exponent === undefined) return undefined;
+	if (alphaMax < alphaMin) {
+		errors.add(`${at}.extendedAlphaMax`, 'α_max must not be below α_min.');
+		return undefined;
+	}
+	return { alphaMin, alphaMax, exponent };
 }
 
 /** The limit rules alone, for the limit form: every problem, named by its field ('n', …). */

@@ -5,7 +5,8 @@
  * their lengths) or acts at the current position with zero length (transmission, mirror, expander,
  * lens, fibre). Every zero-length element starts a new beam — an origin — from which the beam would
  * go on if nothing further stopped it. How each element changes the beam (1/e basis, see beam.ts):
- *  • transmission, mirror: power × T (or R); every factor lies in [0, 1].
+ *  • transmission, mirror: power × T (or R), per wavelength band where bands are given; every factor
+ *    lies in [0, 1].
  *  • expander (magnification M, afocal, thin): D_w' = M·D_w, φ' = φ/M, and the distance back to the
  *    waist scales by the longitudinal magnification M²: z_w' = z_E − M²·(z_E − z_w), so that
  *    D'(z_E) = M·D(z_E) exactly.
@@ -100,7 +101,8 @@ export function walkPath(lines: NormLine[], elements: NormElement[], length: num
 	};
 	const origins: Origin[] = [current];
 	const enclosures: Walk['enclosures'] = [];
-	const next = (e: NormElement, states: BeamState[], factor: number | null): Origin => {
+	/** The beam after a zero-length element; `factors` per line (null: the element passes all power on). */
+	const next = (e: NormElement, states: BeamState[], factors: number[] | null): Origin => {
 		const symbol = e.kind === 'mirror' ? `R${subscript(e.index + 1)}` : `T${subscript(e.index + 1)}`;
 		const o: Origin = {
 			n: origins.length,
@@ -108,8 +110,8 @@ export function walkPath(lines: NormLine[], elements: NormElement[], length: num
 			kind: e.kind,
 			position: z,
 			states,
-			transmission: factor === null ? current.transmission : current.transmission.map((t) => t * factor),
-			factors: factor === null ? current.factors : current.factors.map((f) => [...f, { index: e.index, symbol, value: factor }]),
+			transmission: factors === null ? current.transmission : current.transmission.map((t, i) => t * factors[i]),
+			factors: factors === null ? current.factors : current.factors.map((f, i) => [...f, { index: e.index, symbol, value: factors[i] }]),
 			note: current.note
 		};
 		origins.push(o);
@@ -125,7 +127,7 @@ export function walkPath(lines: NormLine[], elements: NormElement[], length: num
 				break;
 			case 'transmission':
 			case 'mirror':
-				next(e, current.states, e.factor);
+				next(e, current.states, lines.map((l) => bandFactor(e, l.wavelength)));
 				break;
 			case 'expander': {
 				const m = e.magnification;
@@ -154,7 +156,7 @@ export function walkPath(lines: NormLine[], elements: NormElement[], length: num
 				const o = next(
 					e,
 					lines.map(() => ({ waistDiameter: e.coreDiameter, waistPosition: z, divergence: phi })),
-					e.factor
+					lines.map(() => e.factor)
 				);
 				o.note = FIBRE_NOTE;
 				break;
@@ -163,6 +165,17 @@ export function walkPath(lines: NormLine[], elements: NormElement[], length: num
 	}
 	const tolerance = POSITION_TOLERANCE * Math.max(1, length);
 	return { origins, stretches: cut(origins, enclosures, length, tolerance), enclosures, length, tolerance };
+}
+
+/**
+ * What an element passes on at a wavelength: the band that holds it (inclusive ends; where bands
+ * overlap, the larger value, which errs on the safe side), else the element's own value. A dichroic
+ * that removes a line passes 0 of it: the line leaves the branch.
+ */
+export function bandFactor(e: NormElement, wavelength: number): number {
+	let factor = -1;
+	for (const b of e.bands) if (wavelength >= b.from && wavelength <= b.to && b.factor > factor) factor = b.factor;
+	return factor < 0 ? e.factor : factor;
 }
 
 /** Stretches between consecutive origins and enclosure boundaries. */

@@ -26,7 +26,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 	const checks = await eyewear.checksForPaths(cleared.map((c) => c.id));
 	return {
 		items: items.map((i) => ({ ...i, lastCheckedAt: i.lastCheckedAt?.toISOString().slice(0, 10) ?? null, createdAt: i.createdAt.toISOString() })),
-		cleared: cleared.map((c) => ({ ...c, checks: checks.get(c.id) ?? [] })),
+		cleared: cleared.map((c) => ({ ...c, check: checks.get(c.id) ?? null })),
 		canManage: user.role === 'officer'
 	};
 };

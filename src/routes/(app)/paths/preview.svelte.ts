@@ -13,9 +13,9 @@ type BodyOutcome = { ok: true; body: PreviewRequest } | { ok: false; kind: 'unfi
 export function previewBody(form: PathForm, lines: LineColumns[]): BodyOutcome {
 	const si = pathToSI(form);
 	if (!si.ok) return { ok: false, kind: 'unfinished', errors: si.errors };
-	const line = lines.find((l) => l.id === form.lineId);
-	if (!line) return { ok: false, kind: 'line', message: lines.length ? 'Choose the emission line to see the assessment.' : 'This laser has no emission line yet: add one on the laser’s page.' };
-	return { ok: true, body: { path: { lines: [lineFromRow(line)], ...si.value } } };
+	const chosen = lines.filter((l) => form.lineIds.includes(l.id));
+	if (chosen.length === 0) return { ok: false, kind: 'line', message: lines.length ? 'Choose the emission lines to see the assessment.' : 'This laser has no emission line yet: add one on the laser’s page.' };
+	return { ok: true, body: { path: { lines: chosen.map(lineFromRow), ...si.value } } };
 }
 
 export type PreviewStatus = 'idle' | 'waiting' | 'updating' | 'ready' | 'unfinished' | 'refused' | 'failed';

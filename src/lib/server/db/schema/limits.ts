@@ -4,9 +4,10 @@ import { boolean, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, t
 import { user } from './auth';
 import { beamPath, tissueEnum, verdictEnum } from './register';
 
-import { limitQuantities, pulseBases } from '../../../enums';
+import { limitQuantities, pulseBases, wavelengthFactorKinds } from '../../../enums';
 
 export const limitQuantityEnum = pgEnum('limit_quantity', limitQuantities);
+export const wavelengthFactorKindEnum = pgEnum('wavelength_factor_kind', wavelengthFactorKinds);
 export const pulseBasisEnum = pgEnum('pulse_basis', pulseBases);
 
 export const exposureLimit = pgTable('exposure_limit', {
@@ -30,7 +31,22 @@ export const exposureLimitVersion = pgTable(
 		quantity: limitQuantityEnum('quantity').notNull(),
 		k: numeric('k').notNull(),
 		n: numeric('n').notNull(),
+		/** C(λ): none, a constant, or 10^(slope·(λ − origin)) clamped to [from, to] (the limit's own range when null). */
+		wavelengthFactorKind: wavelengthFactorKindEnum('wavelength_factor_kind').notNull().default('none'),
+		wavelengthFactorValue: numeric('wavelength_factor_value'),
+		wavelengthFactorSlope: numeric('wavelength_factor_slope'),
+		wavelengthFactorOrigin: numeric('wavelength_factor_origin'),
+		wavelengthFactorFrom: numeric('wavelength_factor_from'),
+		wavelengthFactorTo: numeric('wavelength_factor_to'),
+		/** C_E(α): (α/α_min)^exponent between α_min and α_max, 1 below, held above; null = every source a point source. */
+		extendedAlphaMin: numeric('extended_alpha_min'),
+		extendedAlphaMax: numeric('extended_alpha_max'),
+		extendedExponent: numeric('extended_exponent'),
+		/** Limiting aperture a·tᵇ: a is limiting_aperture, b this exponent (0 = constant). */
 		limitingAperture: numeric('limiting_aperture').notNull(),
+		limitingApertureExponent: numeric('limiting_aperture_exponent').notNull().default('0'),
+		/** Pulses closer together than T_i count as one (single-pulse limits of repetitive lines). */
+		pulseGroupingTime: numeric('pulse_grouping_time'),
 		pulseBasis: pulseBasisEnum('pulse_basis').notNull(),
 		pulseTrainExponent: numeric('pulse_train_exponent'),
 		/** The officer's statement that the code applies no pulse-train correction to this single-pulse limit. */

@@ -1,7 +1,7 @@
 // The register: laser controlled areas, lasers, emission lines, beam paths, path elements,
 // points of concern. Physical inputs are stored in SI units as PostgreSQL numeric (strings in TS).
 import { sql } from 'drizzle-orm';
-import { boolean, index, integer, numeric, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { boolean, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { user } from './auth';
 import { lab } from './labs';
 
@@ -79,6 +79,8 @@ export const emissionLine = pgTable(
 		id: uuid('id').primaryKey().defaultRandom(),
 		laserId: uuid('laser_id').notNull().references(() => laser.id),
 		label: text('label').notNull().default(''),
+		/** Lines of a laser with the same group name are emitted together (a harmonic and its fundamental); '' = on its own. */
+		emissionGroup: text('emission_group').notNull().default(''),
 		mode: emissionModeEnum('mode').notNull(),
 		/** λ, m; for a tunable line the assessment uses this value and wavelengthMax bounds the range. */
 		wavelength: si('wavelength').notNull(),
@@ -108,9 +110,10 @@ export const beamPath = pgTable(
 	{
 		id: uuid('id').primaryKey().defaultRandom(),
 		laserId: uuid('laser_id').notNull().references(() => laser.id),
-		lineId: uuid('line_id').notNull().references(() => emissionLine.id),
 		name: text('name').notNull(),
 		purpose: text('purpose').notNull().default(''),
+		/** Why the path carries only some of the lines emitted together (required then). */
+		lineChoiceReason: text('line_choice_reason').notNull().default(''),
 		/** Exposure duration for the NOHD, s (e.g. 0.25 s aversion response for visible beams). */
 		nohdExposureDuration: si('nohd_exposure_duration'),
 		/** Verdict of the latest assessment snapshot, null before the first save. */
@@ -132,7 +135,23 @@ export const beamPath = pgTable(
 		createdAt: created(),
 		updatedAt: updated()
 	},
-	(t) => [index('beam_path_laser_idx').on(t.laserId), index('beam_path_line_idx').on(t.lineId), index('beam_path_flagged_idx').on(t.flagged, t.stale), index('beam_path_review_idx').on(t.reviewState, t.awaitingSince)]
+	(t) => [index('beam_path_laser_idx').on(t.laserId), index('beam_path_flagged_idx').on(t.flagged, t.stale), index('beam_path_review_idx').on(t.reviewState, t.awaitingSince)]
+);
+
+/** The emission lines a beam path carries (all lines emitted together, or a subset with a reason). */
+export const pathLine = pgTable(
+	'path_line',
+	{
+		pathId: uuid('path_id')
+			.notNull()
+			.references(() => beamPath.id, { onDelete: 'cascade' }),
+		lineId: uuid('line_id')
+			.notNull()
+			.references(() => emissionLine.id),
+		/** Order of the lines in the path (the order of the laser's lines). */
+		sequence: integer('sequence').notNull()
+	},
+	(t) => [primaryKey({ columns: [t.pathId, t.lineId] }), index('path_line_line_idx').on(t.lineId)]
 );
 
 export const pathElement = pgTable(
@@ -150,7 +169,9 @@ export const pathElement = pgTable(
 		focalLength: si('focal_length'),
 		coreDiameter: si('core_diameter'),
 		numericalAperture: si('numerical_aperture'),
-		couplingTransmission: si('coupling_transmission')
+		couplingTransmission: si('coupling_transmission'),
+		/** Transmission (or reflectance) per wavelength band: [{ wavelengthMin, wavelengthMax, transmission }], SI decimal strings; null = one value for all lines. */
+		bands: jsonb('bands').$type<{ wavelengthMin: string; wavelengthMax: string; transmission: string }[]>()
 	},
 	(t) => [uniqueIndex('path_element_order_idx').on(t.pathId, t.sequence)]
 );
@@ -178,4 +199,5 @@ export type Laser = typeof laser.$inferSelect;
 export type EmissionLine = typeof emissionLine.$inferSelect;
 export type BeamPath = typeof beamPath.$inferSelect;
 export type PathElement = typeof pathElement.$inferSelect;
+export type PathLine = typeof pathLine.$inferSelect;
 export type PointOfConcern = typeof pointOfConcern.$inferSelect;

@@ -35,9 +35,10 @@ export const requiredControl = pgTable(
 		id: uuid('id').primaryKey().defaultRandom(),
 		decisionId: uuid('decision_id').notNull().references(() => reviewDecision.id),
 		kind: controlKindEnum('kind').notNull(),
-		/** Eyewear: the minimum optical density at `wavelength` (m). */
+		/** Eyewear: the minimum optical density at `wavelength` (m), or over `wavelength`–`wavelengthMax`. */
 		minOd: numeric('min_od'),
 		wavelength: numeric('wavelength'),
+		wavelengthMax: numeric('wavelength_max'),
 		details: text('details').notNull().default('')
 	},
 	(t) => [index('required_control_decision_idx').on(t.decisionId)]

@@ -16,7 +16,6 @@ import * as paths from '$lib/server/paths';
 import { exposureProfile } from '$lib/server/profile';
 import * as reviews from '$lib/server/reviews';
 import { diffInputs, diffResults, normaliseInputs } from '$lib/server/snapshotDiff';
-import { formatQuantity } from '$lib/units';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {
@@ -46,19 +45,15 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		if (cleared) changes = [...diffInputs(cleared.inputs, latest.inputs), ...diffResults(cleared.result, latest.result)];
 	}
 	const history = await reviews.history(detail.path.id);
-	const checks = (await eyewear.checksForPaths([detail.path.id])).get(detail.path.id) ?? [];
+	const eyewearCheck = (await eyewear.checksForPaths([detail.path.id])).get(detail.path.id) ?? null;
 	const self = user.role === 'officer' ? reviews.selfReviewReason(detail.path, user.id, latest.createdBy) : null;
-	const worstOd = result?.requiredOpticalDensity?.roundedUpWhole ?? null;
 	const start: DecisionForm = {
 		assessmentId: latest.id,
 		afterDecisionId: history[0]?.id ?? '',
 		decision: 'cleared',
 		comments: '',
 		reviewBy: '',
-		controls:
-			worstOd && Number(worstOd) > 0
-				? [{ kind: 'eyewear', minOd: String(Number(worstOd)), wavelength: formatQuantity(detail.line.wavelength, 'wavelength', { significantDigits: 8 }), details: '' }]
-				: []
+		controls: reviews.eyewearControls(result)
 	};
 	const lastDecision = history[0] ?? null;
 	return {
@@ -71,7 +66,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		limits: limitRows.map((l) => ({ id: l.limitId, version: l.version, label: l.label, citation: l.citation, demonstration: l.demonstration, tissue: l.tissue })),
 		changes,
 		history: history.map((h) => ({ ...h, decidedAt: h.decidedAt.toISOString(), reviewBy: h.reviewBy?.toISOString().slice(0, 10) ?? null, replies: h.replies.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() })) })),
-		eyewearChecks: checks,
+		eyewearCheck,
 		decide: user.role === 'officer' ? { allowed: !self && !detail.path.stale, reason: self ?? (detail.path.stale ? 'The assessment is being re-evaluated; decide once the new result is in.' : null) } : null,
 		decisionForm: await superValidate(start, zod4(decisionSchema), { errors: false, id: 'decision' }),
 		replyForm: await superValidate(zod4(replySchema), { id: 'reply' }),

@@ -9,8 +9,8 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 	const found = await paths.find(await scopeOf(requireUser(locals)), params.pathId);
 	if (!found.ok) return apiError(found.status, found.message);
-	const { path, elements, points, latest, line, lab } = found.detail;
-	return json({ path, lab, line, elements, points, latest, editable: found.editable });
+	const { path, elements, points, latest, lines, lab } = found.detail;
+	return json({ path, lab, lines, elements, points, latest, editable: found.editable });
 });
 
 /** Replace the path (values with units, as in the editor); `version` must be the one read. */
