@@ -10,6 +10,8 @@ export const navigation: NavItem[] = [
 	{ href: '/inspections', label: 'Inspection rota', icon: 'calendar' },
 	{ href: '/eyewear', label: 'Eyewear store', icon: 'eye' },
 	{ href: '/training', label: 'Training', icon: 'badge' },
+	{ href: '/procedures', label: 'Procedures', icon: 'page' },
+	{ href: '/authorisations', label: 'Authorisations', icon: 'key' },
 	{ href: '/limits', label: 'Limit library', icon: 'list' },
 	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: ['admin'] },
 	{ href: '/admin/mail', label: 'Sent mail', icon: 'list', roles: ['admin'] }

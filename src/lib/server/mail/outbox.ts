@@ -14,7 +14,25 @@ import { toIsoDay } from './schedule';
 import * as templates from './templates';
 import { createSender, describeError, isConnectionError, type MailSender } from './transport';
 
-export const mailKinds = ['inspection.due', 'inspection.overdue', 'review.waiting', 'training.expiring', 'training.expired', 'notification', 'digest', 'password.reset'] as const;
+export const mailKinds = [
+	'inspection.due',
+	'inspection.overdue',
+	'review.waiting',
+	'training.expiring',
+	'training.expired',
+	'notification',
+	'digest',
+	'password.reset',
+	// procedures and authorisations (recordId: the procedure, or the authorisation)
+	'procedure.submitted',
+	'procedure.review',
+	'procedure.review_due',
+	'signoff.needed',
+	'signoff.lapsing',
+	'authorisation.waiting',
+	'authorisation.lapsing',
+	'authorisation.lapsed'
+] as const;
 export type MailKind = (typeof mailKinds)[number];
 
 /** Kinds that go out on their own even for digest readers. */
@@ -225,6 +243,8 @@ async function linksFor(tx: Tx, rows: table.MailOutbox[], appUrl: string): Promi
 		if (r.kind === 'inspection.due' || r.kind === 'inspection.overdue') out.set(r.id, templates.link(appUrl, 'inspections', r.recordId));
 		else if (r.kind === 'review.waiting') out.set(r.id, templates.link(appUrl, 'reviews', r.recordId));
 		else if (r.kind === 'training.expiring' || r.kind === 'training.expired') out.set(r.id, templates.link(appUrl, 'training'));
+		else if (r.kind.startsWith('procedure.') || r.kind.startsWith('signoff.')) out.set(r.id, templates.link(appUrl, 'procedures', r.recordId));
+		else if (r.kind.startsWith('authorisation.')) out.set(r.id, templates.link(appUrl, 'authorisations', r.recordId));
 		else if (r.kind === 'notification') {
 			const n = byId.get(r.recordId);
 			out.set(r.id, templates.notificationLink(appUrl, n?.kind ?? '', n?.pathId ?? null));

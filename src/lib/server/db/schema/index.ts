@@ -6,3 +6,5 @@ export * from './limits';
 export * from './reviews';
 export * from './inspections';
 export * from './training';
+export * from './procedures';
+export * from './authorisations';
