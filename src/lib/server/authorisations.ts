@@ -416,3 +416,12 @@ export function summary(r: AuthorisationRow) {
 		validUntil: r.outcome.validUntil
 	};
 }
+
+/** People who can hold an authorisation: active researchers and officers. */
+export async function candidates() {
+	return db
+		.select({ id: table.user.id, name: table.user.name, role: table.user.role })
+		.from(table.user)
+		.where(and(eq(table.user.disabled, false), inArray(table.user.role, ['researcher', 'officer'])))
+		.orderBy(asc(table.user.name));
+}
