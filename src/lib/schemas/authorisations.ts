@@ -1,7 +1,7 @@
 // Forms of authorisations to operate and of visits.
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
-import { targetField } from './procedures';
+import { plainText, targetField } from './procedures';
 
 export const visitorKinds = ['visitor', 'contractor'] as const;
 
@@ -11,7 +11,7 @@ const optionalDay = (what: string) =>
 		.trim()
 		.refine((t) => t === '' || isCalendarDay(t), `Enter ${what} as YYYY-MM-DD, or leave it empty.`)
 		.default('');
-const topics = z.array(z.string().trim().min(1).max(200)).max(20, 'At most 20 trainings.').default([]);
+const topics = z.array(plainText(200).min(1)).max(20, 'At most 20 trainings.').default([]);
 const procedureIds = z.array(z.uuid({ error: 'Unknown procedure.' })).max(20, 'At most 20 procedures.').default([]);
 const version = z.coerce.number({ error: 'Reload the page and try again.' }).int().min(0).max(1_000_000);
 
@@ -19,7 +19,7 @@ const version = z.coerce.number({ error: 'Reload the page and try again.' }).int
 export const requestSchema = z
 	.object({
 		target: targetField,
-		note: z.string().trim().max(1000).default('')
+		note: plainText(1000).default('')
 	})
 	.strict();
 export type RequestForm = z.infer<typeof requestSchema>;
@@ -32,7 +32,7 @@ export const grantSchema = z
 		userId: z.string().trim().min(1, 'Choose the person.').max(64),
 		target: targetField,
 		...conditions,
-		reason: z.string().trim().max(1000).default('')
+		reason: plainText(1000).default('')
 	})
 	.strict();
 export type GrantForm = z.infer<typeof grantSchema>;
@@ -42,7 +42,7 @@ export const decideSchema = z
 	.object({
 		decision: z.enum(['granted', 'refused'], { error: 'Grant or refuse.' }),
 		...conditions,
-		reason: z.string().trim().max(1000).default(''),
+		reason: plainText(1000).default(''),
 		version
 	})
 	.strict()
@@ -53,20 +53,20 @@ export type DecideForm = z.infer<typeof decideSchema>;
 
 export const withdrawSchema = z
 	.object({
-		reason: z.string().trim().min(3, 'Say why it is withdrawn; the person reads it.').max(1000),
+		reason: plainText(1000).min(3, 'Say why it is withdrawn; the person reads it.'),
 		version
 	})
 	.strict();
 
 export const visitSchema = z
 	.object({
-		visitorName: z.string().trim().min(2, 'Enter the visitor’s name.').max(200),
-		organisation: z.string().trim().max(200).default(''),
+		visitorName: plainText(200).min(2, 'Enter the visitor’s name.'),
+		organisation: plainText(200).default(''),
 		kind: z.enum(visitorKinds, { error: 'Visitor or contractor?' }),
 		startsOn: z.string().trim().refine(isCalendarDay, 'Enter the first day of the visit as YYYY-MM-DD.'),
 		endsOn: optionalDay('the last day'),
-		escortName: z.string().trim().min(2, 'Name the authorised person who escorts them.').max(200),
-		briefing: z.string().trim().min(3, 'Say what briefing was given, e.g. “Hazards, eyewear, stay behind the curtain”.').max(2000)
+		escortName: plainText(200).min(2, 'Name the authorised person who escorts them.'),
+		briefing: plainText(2000).min(3, 'Say what briefing was given, e.g. “Hazards, eyewear, stay behind the curtain”.')
 	})
 	.strict()
 	.superRefine((v, ctx) => {

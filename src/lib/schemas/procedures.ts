@@ -6,6 +6,17 @@ import { isCalendarDay } from './dates';
 export const procedureKinds = ['operating', 'alignment', 'service', 'emergency'] as const;
 export type ProcedureKind = (typeof procedureKinds)[number];
 
+// eslint-disable-next-line no-control-regex
+const controlChars = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+const noControlChars = [(t: string) => !controlChars.test(t), 'Remove the control characters (invisible characters pasted from elsewhere).'] as const;
+/** Text a person types, trimmed: at most `max` characters, no control characters (line breaks and tabs are fine). */
+export const plainText = (max: number) =>
+	z
+		.string()
+		.trim()
+		.max(max, `At most ${max.toLocaleString('en')} characters.`)
+		.refine(...noControlChars);
+
 /** 'laser:<id>' or 'area:<id>': what a procedure or an authorisation is for. */
 export const targetField = z
 	.string()
@@ -19,7 +30,10 @@ export function parseTarget(target: string): { laserId: string | null; areaId: s
 
 /** Markdown; about 40 pages of text at most. */
 export const BODY_MAX = 60_000;
-const body = z.string().max(BODY_MAX, `Keep the text under ${BODY_MAX.toLocaleString('en')} characters; attach a PDF for a longer document.`);
+const body = z
+	.string()
+	.max(BODY_MAX, `Keep the text under ${BODY_MAX.toLocaleString('en')} characters; attach a PDF for a longer document.`)
+	.refine(...noControlChars);
 const pathIds = z.array(z.uuid({ error: 'Unknown beam path.' })).max(200, 'At most 200 beam paths.').default([]);
 const version = z.coerce.number({ error: 'Reload the page and try again.' }).int().min(0).max(1_000_000);
 
@@ -27,7 +41,7 @@ export const newProcedureSchema = z
 	.object({
 		target: targetField,
 		kind: z.enum(procedureKinds, { error: 'Choose the kind of procedure.' }),
-		title: z.string().trim().min(3, 'Give the procedure a title, e.g. “Alignment of the compressor”.').max(200),
+		title: plainText(200).min(3, 'Give the procedure a title, e.g. “Alignment of the compressor”.'),
 		pathIds,
 		body
 	})
@@ -38,7 +52,7 @@ export type NewProcedureForm = z.infer<typeof newProcedureSchema>;
 export const draftSchema = z
 	.object({
 		body,
-		changeNote: z.string().trim().max(1000).default(''),
+		changeNote: plainText(1000).default(''),
 		version
 	})
 	.strict();
@@ -49,7 +63,7 @@ export const submitSchema = z.object({ version }).strict();
 export const approveSchema = z
 	.object({
 		reviewBy: z.string().trim().refine(isCalendarDay, 'Enter the review-by date as YYYY-MM-DD.'),
-		comment: z.string().trim().max(1000).default(''),
+		comment: plainText(1000).default(''),
 		version
 	})
 	.strict();
@@ -57,7 +71,7 @@ export type ApproveForm = z.infer<typeof approveSchema>;
 
 export const returnDraftSchema = z
 	.object({
-		comment: z.string().trim().min(3, 'Say what needs changing.').max(2000),
+		comment: plainText(2000).min(3, 'Say what needs changing.'),
 		version
 	})
 	.strict();
@@ -73,7 +87,7 @@ export const coverSchema = z.object({ pathIds, version }).strict();
 
 export const confirmSchema = z
 	.object({
-		note: z.string().trim().min(3, 'Say what you checked, e.g. “Compared with the new path: the steps still apply.”').max(1000),
+		note: plainText(1000).min(3, 'Say what you checked, e.g. “Compared with the new path: the steps still apply.”'),
 		version
 	})
 	.strict();

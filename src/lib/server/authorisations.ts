@@ -11,9 +11,10 @@ import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure 
 import { isUuid } from '$lib/server/lasers';
 import { readMailConfig } from '$lib/server/mail/config';
 import * as outbox from '$lib/server/mail/outbox';
+import { daysBetween } from '$lib/server/mail/schedule';
 import * as procedures from '$lib/server/procedures';
 import * as safetyMail from '$lib/server/safetyMail';
-import { authorisationState, isInForce, type AuthorisationOutcome, type Decision, type ProcedureFact, type TrainingFact } from '$lib/authorisationState';
+import { authorisationState, isInForce, LAPSE_NOTICE_DAYS, type AuthorisationOutcome, type Decision, type ProcedureFact, type TrainingFact } from '$lib/authorisationState';
 import type { DecideForm, GrantForm, RequestForm } from '$lib/schemas/authorisations';
 
 const a = table.authorisation;
@@ -279,6 +280,7 @@ async function eligible(tx: Tx, userId: string, labId: string): Promise<string |
 /** An officer grants directly, with the conditions. */
 export async function grant(scope: Scope, form: GrantForm, today: string): Promise<{ ok: true; id: string } | Failure> {
 	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer grants authorisations.');
+	if (form.userId === scope.userId) return fieldsNeedAttention({ userId: 'Another officer grants your own authorisation.' });
 	return db.transaction(async (tx) => {
 		const target = await procedures.resolveTarget(tx, form.target);
 		if (!target) return fieldsNeedAttention({ target: 'Choose a laser in use or an area.' });
@@ -367,12 +369,13 @@ export async function dutiesOf(scope: Scope, today: string): Promise<Duty[]> {
 	for (const r of mine) {
 		if (r.decision !== 'granted') continue;
 		for (const c of r.outcome.conditions) {
-			const soon = r.outcome.state === 'lapses_soon' && c.until === r.outcome.validUntil;
+			const soon = c.until !== null && daysBetween(today, c.until) <= LAPSE_NOTICE_DAYS;
 			if (c.holds && !soon) continue;
 			if (seen.has(c.key)) continue;
 			seen.add(c.key);
 			if (c.kind === 'procedure') duties.push({ kind: 'sign', text: c.holds ? `Sign again: ${c.detail}` : c.detail, href: `/procedures/${c.key.split(':')[1]}`, state: c.holds ? 'lapses_soon' : r.outcome.state });
 			else if (c.kind === 'training') duties.push({ kind: 'renew', text: c.holds ? `Renew in time: ${c.detail}` : c.detail, href: '/training', state: c.holds ? 'lapses_soon' : r.outcome.state });
+			else if (c.holds) duties.push({ kind: 'request', text: `${r.targetLabel}: ${c.detail} Ask the officer in time if you need it longer.`, href: `/authorisations/${r.id}`, state: 'lapses_soon' });
 			else duties.push({ kind: 'lapsed', text: `${r.targetLabel}: ${c.detail}`, href: `/authorisations/${r.id}`, state: r.outcome.state });
 		}
 	}
