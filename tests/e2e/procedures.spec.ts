@@ -89,14 +89,15 @@ test('a procedure is drafted, approved, signed; authorisations follow the traini
 	await expectAccessible(page);
 
 	// 3. Both researchers get the training, then the authorisation with the training and the procedure.
-	await page.goto('/training');
+	await page.goto('/training', { waitUntil: 'networkidle' });
 	const record = page.getByRole('region', { name: 'Record a training' });
 	for (const p of people) {
 		await record.getByLabel('Person').selectOption({ label: p.name });
 		await record.getByLabel('Training or authorisation').fill(topic);
 		await record.getByLabel('Expires on').fill(format(addYears(new Date(), 1), 'yyyy-MM-dd'));
 		await record.getByRole('button', { name: 'Record the training' }).click();
-		await expect(record.getByRole('status')).toHaveText('Recorded.');
+		await expect(record.getByRole('status')).toHaveText('Recorded.', { timeout: 15_000 });
+		await expect(page.getByRole('row', { name: new RegExp(`${p.name} ${topic}`) })).toHaveCount(1);
 	}
 	const authorisationUrls: string[] = [];
 	for (const p of people) {
@@ -135,7 +136,8 @@ test('a procedure is drafted, approved, signed; authorisations follow the traini
 	// 5. Time passes: Ben's training expired yesterday. His authorisation shows lapsed, with the reason.
 	const sql = postgres(databaseUrl, { max: 1 });
 	try {
-		await sql`UPDATE training_record SET expires_on = ${yesterday} WHERE topic = ${topic} AND user_id = (SELECT id FROM "user" WHERE email = ${people[1].email})`;
+		const aYearAgo = format(addDays(new Date(), -366), 'yyyy-MM-dd');
+		await sql`UPDATE training_record SET completed_on = ${aYearAgo}, expires_on = ${yesterday} WHERE topic = ${topic} AND user_id = (SELECT id FROM "user" WHERE email = ${people[1].email})`;
 		await page.goto(authorisationUrls[1]);
 		await expect(page.getByText('lapsed', { exact: true }).first()).toBeVisible();
 		await expect(page.getByRole('region', { name: 'Why it is not in force' })).toContainText(`The training “${topic}” expired on ${yesterday}.`);
@@ -170,12 +172,12 @@ test('a procedure is drafted, approved, signed; authorisations follow the traini
 	}
 
 	// 7. The officer renews Ben's training: his authorisation is active again.
-	await page.goto('/training');
+	await page.goto('/training', { waitUntil: 'networkidle' });
 	await record.getByLabel('Person').selectOption({ label: people[1].name });
 	await record.getByLabel('Training or authorisation').fill(topic);
 	await record.getByLabel('Expires on').fill(format(addYears(new Date(), 1), 'yyyy-MM-dd'));
 	await record.getByRole('button', { name: 'Record the training' }).click();
-	await expect(record.getByRole('status')).toHaveText('Recorded.');
+	await expect(record.getByRole('status')).toHaveText('Recorded.', { timeout: 15_000 });
 	await page.goto(authorisationUrls[1]);
 	await expect(page.getByText('active', { exact: true }).first()).toBeVisible();
 	await researcher.context().close();
