@@ -23,7 +23,7 @@ export async function migrateDatabase(ownerUrl: string, appRole = 'beamwarden_ap
 			await sql`GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA public TO ${role}`;
 			await sql`GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA public TO ${role}`;
 			// Records a regulator may ask for are append-only for the app.
-			for (const t of ['audit_log', 'review_decision', 'required_control', 'review_reply'])
+			for (const t of ['audit_log', 'review_decision', 'required_control', 'review_reply', 'procedure_version', 'procedure_signoff', 'authorisation_condition', 'authorisation_lapse'])
 				await sql`REVOKE UPDATE, DELETE, TRUNCATE ON ${sql(t)} FROM ${role}`;
 		}
 		await sql`SELECT pg_advisory_unlock(74201)`;

@@ -1,7 +1,7 @@
 // Loads the demo scenario through the app's own data modules, so demo rows are validated,
 // assessed and audited like any other. Safe to run twice: rows are keyed by lab code, e-mail,
 // area name, laser serial and limit label.
-import { desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { db, client } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import { hashPassword } from '$lib/server/auth/password';
@@ -9,7 +9,7 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
-import { demoAreas, demoChecklist, demoClearances, demoEyewear, demoInspections, demoLabs, demoLasers, demoLimits, demoTraining, demoUsers } from './demo';
+import { demoAreas, demoAuthorisations, demoChecklist, demoClearances, demoEyewear, demoInspections, demoLabs, demoLasers, demoLimits, demoProcedures, demoSignoffs, demoTraining, demoUsers, demoVisits } from './demo';
 import * as inspections from '$lib/server/inspections';
 import * as training from '$lib/server/training';
 import { addDays, format } from 'date-fns';
@@ -19,6 +19,9 @@ import * as eyewear from '$lib/server/eyewear';
 import * as reviews from '$lib/server/reviews';
 import { isCurrentResult } from '$lib/assessmentResult';
 import { loadIncidents } from './incidents';
+import * as areas from '$lib/server/areas';
+import * as authorisations from '$lib/server/authorisations';
+import * as procedures from '$lib/server/procedures';
 
 async function loadPeople() {
 	const hashes = await Promise.all(demoUsers.map((u) => hashPassword(u.password)));
@@ -156,6 +159,104 @@ async function loadTraining(officerId: string) {
 	}
 }
 
+// ---------------------------------------------------------------------------------------------
+// Procedures, sign-offs, authorisations and visits. Drafts, submissions, grants, requests and visits
+// go through the data modules; the history behind them (versions approved months ago, sign-offs
+// and decisions in the past) is written as it would have been then.
+
+const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000);
+const dayFromNow = (offset: number) => format(addDays(new Date(), offset), 'yyyy-MM-dd');
+const must = <T extends { ok: boolean }>(what: string, r: T): Extract<T, { ok: true }> => {
+	if (!r.ok) throw new Error(`${what}: ${JSON.stringify(r)}`);
+	return r as Extract<T, { ok: true }>;
+};
+
+async function scopeOfEmail(email: string) {
+	const u = await userByEmail(email);
+	return { user: u, scope: await scopeOf({ id: u.id, email: u.email, name: u.name, role: u.role, disabled: false }) };
+}
+
+async function targetOf(t: { laser?: string; area?: string }) {
+	if (t.laser) {
+		const [l] = await db.select({ id: table.laser.id }).from(table.laser).where(eq(table.laser.serial, t.laser));
+		return `laser:${l.id}`;
+	}
+	const [a] = await db.select({ id: table.area.id }).from(table.area).where(eq(table.area.name, t.area!));
+	return `area:${a.id}`;
+}
+
+async function loadProceduresAndAuthorisations() {
+	const [any] = await db.select({ id: table.procedure.id }).from(table.procedure).limit(1);
+	if (any) return;
+	const [helen, ines] = await Promise.all(demoUsers.filter((u) => u.role === 'officer').map((u) => scopeOfEmail(u.email)));
+	const procedureIds = new Map<string, string>();
+	for (const p of demoProcedures) {
+		const owner = await scopeOfEmail(p.owner);
+		const pathRows = p.paths.length ? await db.select({ id: table.beamPath.id }).from(table.beamPath).where(inArray(table.beamPath.name, p.paths)) : [];
+		const first = p.versions[0]?.body ?? p.draft!.body;
+		const { id } = must(`demo procedure ${p.title}`, await procedures.create(owner.scope, { target: await targetOf(p), kind: p.kind, title: p.title, pathIds: pathRows.map((r) => r.id), body: first }));
+		procedureIds.set(p.title, id);
+		if (p.versions.length)
+			await db.transaction(async (tx) => {
+				await tx.delete(table.procedureDraft).where(eq(table.procedureDraft.procedureId, id));
+				const rows = await tx
+					.insert(table.procedureVersion)
+					.values(
+						p.versions.map((v, i) => ({
+							procedureId: id,
+							number: i + 1,
+							body: v.body,
+							changeNote: v.changeNote,
+							draftedBy: owner.user.id,
+							submittedBy: owner.user.id,
+							submittedAt: daysAgo(v.approvedDaysAgo + 2),
+							approvedBy: helen.user.id,
+							approvedAt: daysAgo(v.approvedDaysAgo),
+							reviewBy: dayFromNow(v.reviewInDays)
+						}))
+					)
+					.returning({ id: table.procedureVersion.id, number: table.procedureVersion.number });
+				await tx.insert(table.auditLog).values({ actorId: null, action: 'seed.procedure_versions', entity: 'procedure', entityId: id, after: rows });
+			});
+		if (p.draft) {
+			const [d] = await db.select().from(table.procedureDraft).where(eq(table.procedureDraft.procedureId, id));
+			must('demo draft', await procedures.saveDraft(owner.scope, id, { body: p.draft.body, changeNote: p.draft.changeNote, version: d?.version ?? 0 }));
+			const [saved] = await db.select().from(table.procedureDraft).where(eq(table.procedureDraft.procedureId, id));
+			if (p.draft.submitted) must('demo submission', await procedures.submit(owner.scope, id, saved.version, { id: owner.user.id, name: owner.user.name }));
+		}
+		if (p.toReview) await db.update(table.procedure).set({ reviewNeeded: true, reviewNeededReason: p.toReview, reviewNeededSince: daysAgo(2) }).where(eq(table.procedure.id, id));
+	}
+	for (const s of demoSignoffs) {
+		const procedureId = procedureIds.get(s.procedure)!;
+		const [v] = await db.select({ id: table.procedureVersion.id }).from(table.procedureVersion).where(and(eq(table.procedureVersion.procedureId, procedureId), eq(table.procedureVersion.number, s.version)));
+		const person = await userByEmail(s.person);
+		await db.insert(table.procedureSignoff).values({ versionId: v.id, procedureId, userId: person.id, signedAt: daysAgo(s.daysAgo) });
+	}
+	for (const a of demoAuthorisations) {
+		const person = await scopeOfEmail(a.person);
+		const officer = person.user.id === helen.user.id ? ines : helen;
+		const target = await targetOf(a);
+		const conditions = { trainingTopics: a.trainings, procedureIds: a.procedures.map((t) => procedureIds.get(t)!), expiresOn: '' };
+		let id: string;
+		if (a.state === 'granted' || a.state === 'withdrawn') {
+			id = must('demo grant', await authorisations.grant(officer.scope, { userId: person.user.id, target, ...conditions, reason: '' }, dayFromNow(0))).id;
+			if (a.state === 'withdrawn') must('demo withdrawal', await authorisations.withdraw(officer.scope, id, a.reason!, 1));
+		} else {
+			id = must('demo request', await authorisations.request(person.scope, { target, note: a.note ?? '' })).id;
+			if (a.state === 'refused') must('demo refusal', await authorisations.decide(officer.scope, id, { decision: 'refused', ...conditions, reason: a.reason!, version: 1 }, dayFromNow(0)));
+		}
+		// Dated as it happened; a past decision is what makes a later failure a lapse.
+		await db
+			.update(table.authorisation)
+			.set({ requestedAt: daysAgo(a.askedDaysAgo), ...(a.decidedDaysAgo !== undefined ? { decidedAt: daysAgo(a.decidedDaysAgo) } : {}) })
+			.where(eq(table.authorisation.id, id));
+	}
+	for (const v of demoVisits) {
+		const [area] = await db.select({ id: table.area.id }).from(table.area).where(eq(table.area.name, v.area));
+		must('demo visit', await areas.recordVisit(helen.scope, area.id, { visitorName: v.visitorName, organisation: v.organisation, kind: v.kind, startsOn: dayFromNow(v.startsInDays), endsOn: dayFromNow(v.startsInDays + v.days - 1), escortName: v.escort, briefing: v.briefing }));
+	}
+}
+
 export async function loadDemo(): Promise<{ labs: number; users: number; limits: number; lasers: number }> {
 	const people = await loadPeople();
 	const officer = await userByEmail(demoUsers.find((u) => u.role === 'officer')!.email);
@@ -167,6 +268,7 @@ export async function loadDemo(): Promise<{ labs: number; users: number; limits:
 	await loadInspections(officer.id);
 	await loadTraining(officer.id);
 	await loadIncidents(officer.email);
+	await loadProceduresAndAuthorisations();
 	return { ...people, limits: limitCount, lasers: laserCount };
 }
 

@@ -11,6 +11,8 @@ export const navigation: NavItem[] = [
 	{ href: '/eyewear', label: 'Eyewear store', icon: 'eye' },
 	{ href: '/training', label: 'Training', icon: 'badge' },
 	{ href: '/incidents', label: 'Incidents', icon: 'flag' },
+	{ href: '/procedures', label: 'Procedures', icon: 'page' },
+	{ href: '/authorisations', label: 'Authorisations', icon: 'key' },
 	{ href: '/limits', label: 'Limit library', icon: 'list' },
 	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: ['admin'] },
 	{ href: '/admin/mail', label: 'Sent mail', icon: 'list', roles: ['admin'] }

@@ -63,3 +63,40 @@ export const profileWords: Record<string, string> = { gaussian: 'Gaussian', flat
 
 export const caution =
 	'Computed from the data entered here. It does not replace measurement; the laser safety officer and the applicable local code decide.';
+
+export const procedureWords: Record<string, StateWord> = {
+	draft: { word: 'draft', icon: 'half', tone: 'quiet', hint: 'Being written; not yet submitted for approval.' },
+	submitted: { word: 'awaiting approval', icon: 'clock', tone: 'caution', hint: 'Submitted; waiting for a laser safety officer who did not write it.' },
+	approved: { word: 'approved', icon: 'ok', tone: 'calm', hint: 'Approved by a laser safety officer and in force.' },
+	superseded: { word: 'superseded', icon: 'list', tone: 'quiet', hint: 'A later approved version replaces it; kept for the record.' },
+	review_due: { word: 'review due soon', icon: 'clock', tone: 'caution', hint: 'Its review-by date is within 30 days.' },
+	review_overdue: { word: 'review overdue', icon: 'alert', tone: 'alert', hint: 'Past its review-by date: the officer should review it.' },
+	to_be_reviewed: { word: 'to be reviewed', icon: 'alert', tone: 'alert', hint: 'A beam path it covers changed and went back to review: the text may no longer match the set-up.' }
+};
+
+export const procedureKindWords: Record<string, string> = {
+	operating: 'Operating procedure',
+	alignment: 'Alignment procedure',
+	service: 'Maintenance and service procedure',
+	emergency: 'Emergency procedure'
+};
+
+export const signoffWords: Record<string, StateWord> = {
+	signed: { word: 'signed', icon: 'ok', tone: 'calm', hint: 'The current version is signed and the sign-off has not lapsed.' },
+	signoff_lapses_soon: { word: 'sign again soon', icon: 'clock', tone: 'caution', hint: 'The sign-off lapses within 30 days: read and sign again.' },
+	signoff_lapsed: { word: 'sign-off lapsed', icon: 'alert', tone: 'alert', hint: 'The sign-off is older than the programme’s interval: read and sign again.' },
+	to_sign: { word: 'to sign', icon: 'pen', tone: 'caution', hint: 'The current approved version has not been signed yet.' },
+	no_approved_version: { word: 'nothing to sign yet', icon: 'blank', tone: 'quiet', hint: 'No version has been approved yet.' }
+};
+
+export const authorisationWords: Record<string, StateWord> = {
+	requested: { word: 'requested', icon: 'clock', tone: 'caution', hint: 'Waiting for a laser safety officer to grant or refuse it.' },
+	pending: { word: 'not yet in force', icon: 'half', tone: 'caution', hint: 'Granted, but a condition has not been met yet.' },
+	active: { word: 'active', icon: 'ok', tone: 'calm', hint: 'Granted, and every condition holds today.' },
+	lapses_soon: { word: 'lapses soon', icon: 'clock', tone: 'caution', hint: 'In force, but a condition ends within 30 days.' },
+	lapsed: { word: 'lapsed', icon: 'alert', tone: 'alert', hint: 'A condition no longer holds: the person may not operate until it does again.' },
+	refused: { word: 'refused', icon: 'out', tone: 'quiet', hint: 'Refused by a laser safety officer, with a reason.' },
+	withdrawn: { word: 'withdrawn', icon: 'list', tone: 'quiet', hint: 'Withdrawn by a laser safety officer; kept for the record.' }
+};
+
+export const visitorKindWords: Record<string, string> = { visitor: 'Visitor', contractor: 'Contractor' };

@@ -58,6 +58,10 @@ test.beforeAll(async () => {
 	const [spx] = await sql`SELECT i.id AS inspection_id, d.id AS document_id FROM inspection i JOIN area a ON a.id = i.area_id JOIN lab l ON l.id = a.lab_id LEFT JOIN document d ON d.entity_id = i.id::text WHERE l.code = 'SPX' AND d.id IS NOT NULL LIMIT 1`;
 	const [goggles] = await sql`SELECT id FROM eyewear LIMIT 1`;
 	const [incident] = await sql`SELECT id FROM incident WHERE state <> 'draft' ORDER BY number LIMIT 1`;
+	// Procedures, authorisations and areas of the demo researcher's lab SPX.
+	const [spxArea] = await sql`SELECT a.id FROM area a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
+	const [spxProcedure] = await sql`SELECT p.id FROM procedure p JOIN lab l ON l.id = p.lab_id WHERE l.code = 'SPX' LIMIT 1`;
+	const [spxAuthorisation] = await sql`SELECT a.id FROM authorisation a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
 	await sql.end();
 	sample = {
 		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
@@ -69,6 +73,9 @@ test.beforeAll(async () => {
 		documentId: spx.document_id,
 		eyewearId: goggles.id,
 		incidentId: incident.id,
+		areaId: spxArea.id,
+		procedureId: spxProcedure.id,
+		authorisationId: spxAuthorisation.id,
 		token: 'not-a-real-token'
 	};
 	// A disabled person whose session was live before the disable

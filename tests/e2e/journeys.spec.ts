@@ -33,7 +33,7 @@ for (const role of roles) {
 		const nav = page.getByRole('navigation', { name: 'Sections' });
 		await expect(nav.getByRole('link', { name: 'People and labs' })).toHaveCount(role === 'admin' ? 1 : 0);
 		await expectAccessible(page);
-		for (const name of ['Register', 'Review desk', 'Inspection rota', 'Eyewear store', 'Training', 'Limit library']) {
+		for (const name of ['Register', 'Review desk', 'Inspection rota', 'Eyewear store', 'Training', 'Procedures', 'Authorisations', 'Limit library']) {
 			await nav.getByRole('link', { name }).click();
 			await expect(page.getByRole('heading', { level: 1, name: name === 'Register' ? 'Register' : name })).toBeVisible();
 			await expectAccessible(page);

@@ -1,10 +1,10 @@
 // The exposure-limit form: values typed with their units, checked the same way in browser and server.
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
-import { parseQuantity, type QuantityKind } from '$lib/units';
-import { limitQuantities, pulseBases, tissues } from '../enums';
+import { formatQuantity, parseQuantity, UnitDecimal, type QuantityKind } from '$lib/units';
+import { limitQuantities, pulseBases, tissues, wavelengthFactorKinds } from '../enums';
 
-export { limitQuantities, pulseBases };
+export { limitQuantities, pulseBases, wavelengthFactorKinds };
 
 const withUnit = (kind: QuantityKind, what: string, defaultUnit?: string) =>
 	z
@@ -25,6 +25,26 @@ const number = (what: string) =>
 		.max(32)
 		.regex(/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/, 'Enter a plain number, like 0.75 or -0.25.');
 
+/** A quantity with its unit that may be left empty. */
+const optionalWithUnit = (kind: QuantityKind, defaultUnit?: string) =>
+	z
+		.string()
+		.trim()
+		.max(64)
+		.default('')
+		.superRefine((t, ctx) => {
+			if (t === '') return;
+			const p = parseQuantity(t, kind, { defaultUnit });
+			if (!p.ok) ctx.addIssue({ code: 'custom', message: p.reason });
+		});
+
+const optionalNumber = z
+	.string()
+	.trim()
+	.max(32)
+	.default('')
+	.refine((t) => t === '' || /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t), 'Enter a plain number, or leave it empty.');
+
 const date = z
 	.string()
 	.trim()
@@ -42,7 +62,22 @@ export const limitFormSchema = z
 		quantity: z.enum(limitQuantities, { error: 'Choose irradiance or radiant exposure.' }).default('irradiance'),
 		k: z.string().trim().min(1, 'Enter the coefficient k.').max(64),
 		n: number('the exponent n (0 for a constant)').default('0'),
+		/** C(λ): none, a constant, or 10^(s·(λ − λ₀)) with s per nanometre, over its own range (empty: the limit's). */
+		wavelengthFactorKind: z.enum(wavelengthFactorKinds, { error: 'Choose none, a constant or the exponential form.' }).default('none'),
+		wavelengthFactorValue: optionalNumber,
+		wavelengthFactorSlope: optionalNumber,
+		wavelengthFactorOrigin: optionalWithUnit('wavelength'),
+		wavelengthFactorFrom: optionalWithUnit('wavelength'),
+		wavelengthFactorTo: optionalWithUnit('wavelength'),
+		/** C_E(α) = (α/α_min)^exponent between α_min and α_max; all three or none (none: every source a point source). */
+		extendedAlphaMin: optionalWithUnit('angle', 'mrad'),
+		extendedAlphaMax: optionalWithUnit('angle', 'mrad'),
+		extendedExponent: optionalNumber,
 		limitingAperture: withUnit('length', 'the limiting aperture', 'mm'),
+		/** The aperture a·tᵇ: b (0 for a constant aperture). */
+		limitingApertureExponent: optionalNumber,
+		/** Pulses closer together than T_i count as one pulse. */
+		pulseGroupingTime: optionalWithUnit('time'),
 		pulseBasis: z.enum(pulseBases, { error: 'Choose what the limit applies to.' }).default('continuous'),
 		pulseTrainExponent: z
 			.string()
@@ -79,6 +114,16 @@ export const limitFormSchema = z
 			ctx.addIssue({ code: 'custom', path: ['pulseTrainExponent'], message: 'A pulse-train exponent belongs to a single-pulse limit.' });
 		if (l.noTrainCorrection && l.pulseBasis !== 'single_pulse') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Only a single-pulse limit has a pulse-train rule.' });
 		if (l.noTrainCorrection && l.pulseTrainExponent !== '') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Give either a pulse-train exponent or “no train correction”, not both.' });
+		if (l.wavelengthFactorKind === 'constant' && l.wavelengthFactorValue === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorValue'], message: 'Enter the factor’s value.' });
+		if (l.wavelengthFactorKind === 'exponential') {
+			if (l.wavelengthFactorSlope === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorSlope'], message: 'Enter the slope s (per nm), e.g. 0.002.' });
+			if (l.wavelengthFactorOrigin === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorOrigin'], message: 'Enter the wavelength λ₀, e.g. 700 nm.' });
+		}
+		const extended = [l.extendedAlphaMin, l.extendedAlphaMax, l.extendedExponent].filter((t) => t !== '').length;
+		if (extended > 0 && extended < 3)
+			for (const f of ['extendedAlphaMin', 'extendedAlphaMax', 'extendedExponent'] as const)
+				if (l[f] === '') ctx.addIssue({ code: 'custom', path: [f], message: 'An extended-source rule needs α_min, α_max and its exponent — or none of them.' });
+		if (l.pulseGroupingTime !== '' && l.pulseBasis !== 'single_pulse') ctx.addIssue({ code: 'custom', path: ['pulseGroupingTime'], message: 'A pulse-grouping time belongs to a single-pulse limit.' });
 	});
 
 export type LimitForm = z.infer<typeof limitFormSchema>;
@@ -100,7 +145,19 @@ export function limitToSI(l: LimitForm) {
 		quantity: l.quantity,
 		k: si(l.k, l.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure'),
 		n: l.n,
+		wavelengthFactorKind: l.wavelengthFactorKind,
+		wavelengthFactorValue: l.wavelengthFactorKind === 'constant' ? l.wavelengthFactorValue : null,
+		// s is entered per nanometre and stored per metre.
+		wavelengthFactorSlope: l.wavelengthFactorKind === 'exponential' ? new UnitDecimal(l.wavelengthFactorSlope).times(1e9).toString() : null,
+		wavelengthFactorOrigin: l.wavelengthFactorKind === 'exponential' ? si(l.wavelengthFactorOrigin, 'wavelength') : null,
+		wavelengthFactorFrom: l.wavelengthFactorKind === 'exponential' && l.wavelengthFactorFrom !== '' ? si(l.wavelengthFactorFrom, 'wavelength') : null,
+		wavelengthFactorTo: l.wavelengthFactorKind === 'exponential' && l.wavelengthFactorTo !== '' ? si(l.wavelengthFactorTo, 'wavelength') : null,
+		extendedAlphaMin: l.extendedAlphaMin === '' ? null : si(l.extendedAlphaMin, 'angle', 'mrad'),
+		extendedAlphaMax: l.extendedAlphaMax === '' ? null : si(l.extendedAlphaMax, 'angle', 'mrad'),
+		extendedExponent: l.extendedExponent === '' ? null : l.extendedExponent,
 		limitingAperture: si(l.limitingAperture, 'length', 'mm'),
+		limitingApertureExponent: l.limitingApertureExponent === '' ? '0' : l.limitingApertureExponent,
+		pulseGroupingTime: l.pulseGroupingTime === '' ? null : si(l.pulseGroupingTime, 'time'),
 		pulseBasis: l.pulseBasis,
 		pulseTrainExponent: l.pulseTrainExponent === '' ? null : l.pulseTrainExponent,
 		noTrainCorrection: l.pulseBasis === 'single_pulse' && l.noTrainCorrection,
@@ -108,5 +165,47 @@ export function limitToSI(l: LimitForm) {
 		demonstration: l.demonstration,
 		validFrom: l.validFrom ? new Date(l.validFrom + 'T00:00:00Z') : null,
 		validUntil: l.validUntil ? new Date(l.validUntil + 'T00:00:00Z') : null
+	};
+}
+
+/** A stored limit version (numbers as exact decimal strings in SI) — the columns the form shows. */
+export type StoredLimit = Omit<ReturnType<typeof limitToSI>, 'validFrom' | 'validUntil'> & { validFrom: Date | null; validUntil: Date | null };
+
+/** The form of a stored limit: each quantity in a readable unit, exact to 12 significant digits. */
+export function limitFormValues(c: StoredLimit, version: number): LimitForm {
+	const text = (v: string, kind: QuantityKind, unit?: string) => formatQuantity(v, kind, { significantDigits: 12, unit });
+	const maybe = (v: string | null, kind: QuantityKind, unit?: string) => (v === null ? '' : text(v, kind, unit));
+	const plain = (v: string | null) => (v === null ? '' : new UnitDecimal(v).toString());
+	const day = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : '');
+	return {
+		label: c.label,
+		tissue: c.tissue,
+		wavelengthMin: text(c.wavelengthMin, 'wavelength'),
+		wavelengthMax: text(c.wavelengthMax, 'wavelength'),
+		durationMin: text(c.durationMin, 'time'),
+		durationMax: text(c.durationMax, 'time'),
+		quantity: c.quantity,
+		k: text(c.k, c.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure'),
+		n: plain(c.n),
+		wavelengthFactorKind: c.wavelengthFactorKind,
+		wavelengthFactorValue: plain(c.wavelengthFactorValue),
+		wavelengthFactorSlope: c.wavelengthFactorSlope === null ? '' : new UnitDecimal(c.wavelengthFactorSlope).div(1e9).toString(),
+		wavelengthFactorOrigin: maybe(c.wavelengthFactorOrigin, 'wavelength'),
+		wavelengthFactorFrom: maybe(c.wavelengthFactorFrom, 'wavelength'),
+		wavelengthFactorTo: maybe(c.wavelengthFactorTo, 'wavelength'),
+		extendedAlphaMin: maybe(c.extendedAlphaMin, 'angle', 'mrad'),
+		extendedAlphaMax: maybe(c.extendedAlphaMax, 'angle', 'mrad'),
+		extendedExponent: plain(c.extendedExponent),
+		limitingAperture: text(c.limitingAperture, 'length', 'mm'),
+		limitingApertureExponent: new UnitDecimal(c.limitingApertureExponent).isZero() ? '' : plain(c.limitingApertureExponent),
+		pulseGroupingTime: maybe(c.pulseGroupingTime, 'time'),
+		pulseBasis: c.pulseBasis,
+		pulseTrainExponent: plain(c.pulseTrainExponent),
+		noTrainCorrection: c.noTrainCorrection,
+		citation: c.citation,
+		demonstration: c.demonstration,
+		validFrom: day(c.validFrom),
+		validUntil: day(c.validUntil),
+		version
 	};
 }

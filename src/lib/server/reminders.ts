@@ -10,6 +10,7 @@ import * as outbox from '$lib/server/mail/outbox';
 import type { MailInput } from '$lib/server/mail/outbox';
 import { actionOverdueStep, inspectionStep, reviewWaitStep, shiftDay, startOfUtcDay, toIsoDay, trainingStep } from '$lib/server/mail/schedule';
 import * as templates from '$lib/server/mail/templates';
+import * as safetyReminders from '$lib/server/safetyReminders';
 import { TRAINING_EXPIRED_NOTICE_DAYS, TRAINING_NOTICE_DAYS } from '$lib/trainingState';
 
 /** In-app notifications younger than this are mailed; older ones are history, not news. */
@@ -24,6 +25,8 @@ export type DailyCounts = {
 	trainingExpired: number;
 	actionOverdue: number;
 	notifications: number;
+	/** Procedures and authorisations (see safetyReminders). */
+	safety: Omit<safetyReminders.SafetyCounts, 'held'>;
 	/** Of the new rows, how many wait for a digest. */
 	held: number;
 	digests: number;
@@ -270,6 +273,7 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 	const expiring = await enqueueAll(trainings.filter((m) => m.kind === 'training.expiring'));
 	const expired = await enqueueAll(trainings.filter((m) => m.kind === 'training.expired'));
 	const actions = await enqueueAll(await actionOverdueMails(day, appUrl));
+	const { held: safetyHeld, ...safety } = await safetyReminders.runDaily(day, appUrl, enqueueAll);
 	const start = startOfUtcDay(shiftDay(day, -NOTIFICATION_WINDOW_DAYS));
 	const notes = await enqueueAll(await notificationMailsBetween(start, startOfUtcDay(shiftDay(day, 1)), appUrl));
 	const digests = await outbox.assembleDigests(day);
@@ -283,7 +287,8 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 		trainingExpired: expired.inserted,
 		actionOverdue: actions.inserted,
 		notifications: notes.inserted,
-		held: due.held + overdue.held + reviews.held + expiring.held + expired.held + actions.held + notes.held,
+		safety,
+		held: due.held + overdue.held + reviews.held + expiring.held + expired.held + actions.held + notes.held + safetyHeld,
 		digests: digests.digests,
 		digestItems: digests.items
 	};

@@ -10,6 +10,7 @@ import { isUuid } from '$lib/server/lasers';
 import { needsReview } from '$lib/server/assessments';
 import { notify, officerIds } from '$lib/server/notifications';
 import * as suspensions from '$lib/server/suspensions';
+import * as procedures from '$lib/server/procedures';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
 import type { DecisionForm } from '$lib/schemas/reviews';
@@ -28,6 +29,7 @@ export async function afterSnapshot(tx: Tx, path: PathRow, verdict: table.Assess
 	if (path.reviewState === 'returned' && cause === 'reassess') return {};
 	if (path.reviewState === 'awaiting_review') return {};
 	const again = path.reviewState === 'cleared';
+	await procedures.pathReviewReopened(tx, path); // procedures covering the path: to be reviewed
 	await notify(tx, {
 		userIds: await officerIds(tx),
 		kind: 'path.flagged',

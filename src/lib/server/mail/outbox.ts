@@ -24,7 +24,16 @@ export const mailKinds = [
 	'digest',
 	'password.reset',
 	'incident.eye_exposure',
-	'action.overdue'
+	'action.overdue',
+	// procedures and authorisations (recordId: the procedure, or the authorisation)
+	'procedure.submitted',
+	'procedure.review',
+	'procedure.review_due',
+	'signoff.needed',
+	'signoff.lapsing',
+	'authorisation.waiting',
+	'authorisation.lapsing',
+	'authorisation.lapsed'
 ] as const;
 export type MailKind = (typeof mailKinds)[number];
 
@@ -238,6 +247,8 @@ async function linksFor(tx: Tx, rows: table.MailOutbox[], appUrl: string): Promi
 		else if (r.kind === 'training.expiring' || r.kind === 'training.expired') out.set(r.id, templates.link(appUrl, 'training'));
 		else if (r.kind === 'incident.eye_exposure') out.set(r.id, templates.link(appUrl, 'incidents', r.recordId));
 		else if (r.kind === 'action.overdue') out.set(r.id, templates.link(appUrl, 'incidents'));
+		else if (r.kind.startsWith('procedure.') || r.kind.startsWith('signoff.')) out.set(r.id, templates.link(appUrl, 'procedures', r.recordId));
+		else if (r.kind.startsWith('authorisation.')) out.set(r.id, templates.link(appUrl, 'authorisations', r.recordId));
 		else if (r.kind === 'notification') {
 			const n = byId.get(r.recordId);
 			out.set(r.id, templates.notificationLink(appUrl, n?.kind ?? '', n?.pathId ?? null));

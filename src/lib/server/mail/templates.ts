@@ -6,7 +6,7 @@ export type Rendered = { subject: string; text: string; html: string };
 
 export type Fact = [label: string, value: string];
 
-type Layout = {
+export type Layout = {
 	appUrl: string;
 	heading: string;
 	paragraphs: string[];
@@ -58,7 +58,7 @@ const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? o
 
 const ACCENT = '#1d5c7a';
 
-function render(subject: string, l: Layout): Rendered {
+export function render(subject: string, l: Layout): Rendered {
 	const preferences = link(l.appUrl, 'preferences');
 	const facts = (l.facts ?? []).map(([k, v]) => [cleanHeaderText(k, 80), cleanBodyText(v)] as const);
 

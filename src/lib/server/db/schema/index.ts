@@ -7,3 +7,5 @@ export * from './reviews';
 export * from './inspections';
 export * from './training';
 export * from './incidents';
+export * from './procedures';
+export * from './authorisations';

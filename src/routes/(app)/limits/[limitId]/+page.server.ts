@@ -2,42 +2,20 @@ import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
-import { limitFormSchema, type LimitForm } from '$lib/schemas/limits';
+import { limitFormSchema, limitFormValues } from '$lib/schemas/limits';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { failForm } from '$lib/server/forms';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
-import { formatQuantity } from '$lib/units';
 import type { Actions, PageServerLoad } from './$types';
 
-const text = (v: string, kind: Parameters<typeof formatQuantity>[1]) => formatQuantity(v, kind, { significantDigits: 12 });
-const day = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : '');
 
 export const load: PageServerLoad = async ({ locals, params }) => {
 	const user = requireUser(locals);
 	const found = await limits.find(params.limitId);
 	if (!found) error(404, { message: 'No such limit.' });
 	const c = found.current;
-	const values: LimitForm = {
-		label: c.label,
-		tissue: c.tissue,
-		wavelengthMin: text(c.wavelengthMin, 'wavelength'),
-		wavelengthMax: text(c.wavelengthMax, 'wavelength'),
-		durationMin: text(c.durationMin, 'time'),
-		durationMax: text(c.durationMax, 'time'),
-		quantity: c.quantity,
-		k: text(c.k, c.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure'),
-		n: String(Number(c.n)),
-		limitingAperture: formatQuantity(c.limitingAperture, 'length', { unit: 'mm', significantDigits: 12 }),
-		pulseBasis: c.pulseBasis,
-		pulseTrainExponent: c.pulseTrainExponent === null ? '' : String(Number(c.pulseTrainExponent)),
-		noTrainCorrection: c.noTrainCorrection,
-		citation: c.citation,
-		demonstration: c.demonstration,
-		validFrom: day(c.validFrom),
-		validUntil: day(c.validUntil),
-		version: found.currentVersion
-	};
+	const values = limitFormValues(c, found.currentVersion);
 	return {
 		limit: { id: found.id, retired: found.retired, currentVersion: found.currentVersion, label: c.label },
 		versions: found.versions.map((v) => ({ ...v, createdAt: v.createdAt.toISOString() })),
