@@ -1,7 +1,9 @@
 /**
  * The benchmark's synthetic campus register: seeded, in the product's one beam-path shape (every
  * field present, null when absent, as the mapper from rows gives it). A mix of continuous,
- * single-pulse and repetitive lines with a few elements each, four points and three limits per path.
+ * single-pulse and repetitive lines with a few elements each, four points and three limits per path;
+ * a third of the paths carry two or three lines (a fundamental and its harmonics, emitted together),
+ * some through a dichroic that passes each line its own share.
  * The limits are invented synthetic data shaped like real ones (k·tⁿ); their values are from no code.
  */
 import type { BeamPath, ElementSI, LimitSI, PointSI } from '../src/lib/schemas/assessment';
@@ -64,6 +66,7 @@ const element = (kind: ElementSI['kind'], values: Partial<ElementSI>): ElementSI
 	coreDiameter: null,
 	numericalAperture: null,
 	couplingTransmission: null,
+	bands: null,
 	...values
 });
 
@@ -75,7 +78,8 @@ export function registerOf(n: number, seed: number): RegisterPath[] {
 	const logU = (lo: number, hi: number) => Math.exp(Math.log(lo) + rnd() * (Math.log(hi) - Math.log(lo))).toPrecision(4);
 	const makePath = (i: number): RegisterPath => {
 		const mode = pick(['continuous', 'continuous', 'single_pulse', 'repetitive', 'repetitive'] as const);
-		const wl = pick(WAVELENGTHS);
+		const harmonics = i % 3 === 2 ? 1 + Math.floor(rnd() * 2) : 0;
+		const wl = harmonics ? pick(['1064e-9', '800e-9', '1550e-9']) : pick(WAVELENGTHS);
 		const beamDiameter = logU(0.5e-3, 10e-3);
 		const beamDiameterDefinition = pick(DEFS);
 		const divergence = rnd() < 0.05 ? '0' : logU(0.1e-3, 5e-3);
@@ -110,6 +114,11 @@ export function registerOf(n: number, seed: number): RegisterPath[] {
 				elements.push(element('enclosure', { length: String(L) }));
 			}
 		}
+		if (harmonics && rnd() < 0.5) {
+			// A dichroic: the fundamental passes, the first harmonic mostly reflected away.
+			const h2 = Number(wl) / 2;
+			elements.push(element('transmission', { label: 'dichroic', transmission: '0.95', bands: [{ wavelengthMin: String(h2 * 0.99), wavelengthMax: String(h2 * 1.01), transmission: '0.002' }] }));
+		}
 		elements.push(element('propagate', { length: '2' }));
 		length += 2;
 		const points: PointSI[] = [];
@@ -125,7 +134,12 @@ export function registerOf(n: number, seed: number): RegisterPath[] {
 		}
 		return {
 			path: {
-				lines: [{ id: null, label: '', mode, wavelength: wl, wavelengthMax: null, power, pulseEnergy, pulseDuration, repetitionRate, beamProfile: 'gaussian', beamDiameter, beamDiameterDefinition, divergence, divergenceDefinition, beamQuality, hotSpotFactor: null }],
+				lines: [1, 2, 3].slice(0, 1 + harmonics).map((order, k) => {
+					// Harmonic k: λ/order, a share of the fundamental's power or energy.
+					const share = k === 0 ? 1 : [0.5, 0.2][k - 1];
+					const scaled = (v: string | null) => (v === null ? null : (Number(v) * share).toPrecision(4));
+					return { id: null, label: '', emissionGroup: harmonics ? 'harmonics' : '', mode, wavelength: (Number(wl) / order).toPrecision(6), wavelengthMax: null, power: scaled(power), pulseEnergy: scaled(pulseEnergy), pulseDuration, repetitionRate, beamProfile: 'gaussian' as const, beamDiameter, beamDiameterDefinition, divergence, divergenceDefinition, beamQuality, hotSpotFactor: null };
+				}),
 				elements,
 				points,
 				nohdExposureDuration: i % 2 ? '0.25' : '10'
