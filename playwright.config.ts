@@ -14,7 +14,8 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 1,
 	retries: 0,
-	timeout: 30_000,
+	// Journeys of several pages with accessibility checks on a shared 2-core machine.
+	timeout: 60_000,
 	reporter: [['list']],
 	use: {
 		baseURL: `http://127.0.0.1:${port}`,

@@ -1,5 +1,6 @@
 // Beamwarden's words for states, shared by every screen. Status is always a word plus an icon.
 import type { IconName } from '$lib/components/Icon.svelte';
+import type { PathState } from '$lib/pathState';
 
 export type Tone = 'alert' | 'caution' | 'calm' | 'quiet';
 export type StateWord = { word: string; icon: IconName; tone: Tone; hint: string };
@@ -14,16 +15,24 @@ export const verdictWords: Record<string, StateWord> = {
 		hint: 'No limit in the library covers this wavelength, tissue and duration. This is not a sign of safety.'
 	},
 	incomplete: { word: 'incomplete', icon: 'half', tone: 'caution', hint: 'Some input needed for the assessment is missing.' },
-	stale: { word: 'stale', icon: 'clock', tone: 'caution', hint: 'The path, its laser line or a limit changed since this assessment; it is being re-evaluated.' },
 	unassessed: { word: 'not yet assessed', icon: 'blank', tone: 'quiet', hint: 'No assessment has been saved for this path.' }
 };
 
-export const reviewWords: Record<string, StateWord> = {
-	awaiting_review: { word: 'awaiting review', icon: 'clock', tone: 'caution', hint: 'Waiting for the laser safety officer.' },
-	cleared: { word: 'cleared with controls', icon: 'ok', tone: 'calm', hint: 'The laser safety officer cleared it with the required controls.' },
+/** Where a beam path stands (see pathState.ts): one name per state, everywhere. */
+export const pathStateWords: Record<PathState, StateWord> = {
+	being_reevaluated: { word: 'being re-evaluated', icon: 'clock', tone: 'caution', hint: 'Its laser line, a limit or the engine changed; the assessment is being computed again.' },
+	awaiting_review: { word: 'awaiting review', icon: 'clock', tone: 'caution', hint: 'Not within limit: waiting for the laser safety officer.' },
+	changed_since_clearance: { word: 'changed since clearance', icon: 'clock', tone: 'caution', hint: 'It was cleared, then changed: waiting for the laser safety officer again.' },
 	returned: { word: 'returned', icon: 'out', tone: 'alert', hint: 'The laser safety officer returned it with comments for the researcher.' },
-	not_needed: { word: 'no review needed', icon: 'blank', tone: 'quiet', hint: 'The latest assessment is within limit.' }
+	cleared: { word: 'cleared with controls', icon: 'ok', tone: 'calm', hint: 'The laser safety officer cleared it with the required controls.' },
+	no_review_needed: { word: 'no review needed', icon: 'blank', tone: 'quiet', hint: 'The latest assessment is within limit.' }
 };
+
+/** A stored snapshot that a change of line, limit or engine made out of date (a newer one replaces it). */
+export const snapshotOutdatedWord: StateWord = { word: 'out of date', icon: 'clock', tone: 'caution', hint: 'Its laser line, a limit or the engine changed after this snapshot; a re-evaluation replaces it.' };
+
+/** A review decision, in the words of the state it sets. */
+export const decisionWords: Record<'cleared' | 'returned', StateWord> = { cleared: pathStateWords.cleared, returned: pathStateWords.returned };
 
 export const eyewearWords: Record<string, StateWord> = {
 	adequate: { word: 'adequate', icon: 'ok', tone: 'calm', hint: 'The lab holds one usable pair that covers every line of the path at its required OD.' },

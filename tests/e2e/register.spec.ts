@@ -67,7 +67,7 @@ test('an officer revises a limit; the dependent assessments go stale and are re-
 	await page.goto('/limits');
 	await expect(page.getByText(/Demonstration values/)).toBeVisible();
 	await expectAccessible(page);
-	await page.getByRole('link', { name: 'Eye, 400–700 nm, 5 µs – 10 s' }).click();
+	await page.getByRole('link', { name: 'Eye, 400–1050 nm, 5 µs – 10 s' }).click();
 	await page.getByLabel('Coefficient k').fill('17 J/m²');
 	await page.getByRole('button', { name: /Save as version 2/ }).click();
 	await expect(page).toHaveURL(/revised=2/);

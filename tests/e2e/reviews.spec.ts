@@ -17,17 +17,29 @@ test('an officer clears a flagged path with controls; a later change puts it bac
 
 	// The working is there to read, with the limits and their citations.
 	await expect(page.getByRole('heading', { level: 1, name: 'Feed to target chamber B' })).toBeVisible();
-	await expect(page.getByText(/1050–1150 nm/).first()).toBeVisible();
+	await expect(page.getByText(/1050–1400 nm/).first()).toBeVisible();
 	await page.getByText('Show the working for the beam and the NOHD').click();
 	await expect(page.getByText('E_ph = h·c / λ').first()).toBeVisible();
 	await page.getByText('Show the working for “Open stretch beside the expander”').click();
 	await expect(page.getByText('H_beam = Q / (π·D²/4)').first()).toBeVisible();
 	await expectAccessible(page);
 
-	// Clear with eyewear of at least OD 5 at 1064 nm and an enclosure.
+	// The eyewear the assessment asks for starts filled in (OD 7 at 1064 nm). Eyewear that does not
+	// protect is refused with the numbers side by side, and nothing is recorded.
 	const decision = page.getByRole('region', { name: 'Your decision' });
 	const control1 = decision.getByRole('group', { name: /^Control 1:/ });
+	await expect(control1.getByLabel('Minimum optical density')).toHaveValue('7');
 	await control1.getByLabel('Minimum optical density').fill('5');
+	await decision.getByRole('button', { name: 'Record the decision' }).click();
+	await expect(control1.getByText(/The 1064 nm line needs at least OD 7 \(assessed 6\.\d\d, rounded up\); this control gives OD 5 at 1064 nm\./)).toBeVisible();
+	await expect(page.getByRole('status').filter({ hasText: 'Decision recorded' })).toHaveCount(0);
+	await control1.getByLabel('At wavelength').fill('5 nm');
+	await decision.getByRole('button', { name: 'Record the decision' }).click();
+	await expect(control1.getByText(/OD 5 at 5 nm concerns no line of this path \(it carries 1064 nm\)/)).toBeVisible();
+	await expect(decision.getByText(/The 1064 nm line needs at least OD 7 .*no eyewear control covers it/)).toBeVisible();
+
+	// Clear with eyewear of at least OD 7 at 1064 nm and an enclosure.
+	await control1.getByLabel('Minimum optical density').fill('7');
 	await control1.getByLabel('At wavelength').fill('1064 nm');
 	await decision.getByRole('button', { name: 'Add a control' }).click();
 	const control2 = decision.getByRole('group', { name: /^Control 2:/ });
@@ -36,8 +48,8 @@ test('an officer clears a flagged path with controls; a later change puts it bac
 	await decision.getByRole('button', { name: 'Record the decision' }).click();
 	await expect(page.getByRole('status').filter({ hasText: 'Decision recorded' })).toBeVisible();
 	await expect(page.getByText('cleared with controls').first()).toBeVisible();
-	await expect(page.getByText(/at least OD 5 at 1064 nm/)).toBeVisible();
-	await expect(page.locator('li', { hasText: 'at least OD 5 at 1064 nm' }).getByText('adequate')).toBeVisible();
+	await expect(page.getByText(/at least OD 7 at 1064 nm/)).toBeVisible();
+	await expect(page.locator('li', { hasText: 'at least OD 7 at 1064 nm' }).getByText('adequate')).toBeVisible();
 
 	await page.goto('/eyewear');
 	await expect(page.getByRole('row', { name: /Feed to target chamber B/ })).toContainText('adequate');
@@ -56,8 +68,7 @@ test('an officer clears a flagged path with controls; a later change puts it bac
 
 	await page.goto('/reviews');
 	const back = page.getByRole('row', { name: /Feed to target chamber B/ });
-	await expect(back).toContainText('awaiting review');
-	await expect(back).toContainText('clearance stale');
+	await expect(back).toContainText('changed since clearance');
 	await back.getByRole('link', { name: 'Feed to target chamber B' }).click();
 	const changes = page.getByRole('region', { name: 'Changed since the last clearance' });
 	await expect(changes.getByRole('heading', { name: 'Changed since the last clearance' })).toBeVisible();

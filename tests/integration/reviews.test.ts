@@ -48,6 +48,37 @@ const clearance = (assessmentId: string, afterDecisionId = ''): DecisionForm => 
 });
 
 describe('review decisions', () => {
+	it('refuses eyewear that does not protect every line at the rounded-up OD, with the numbers, and saves nothing', async () => {
+		const { pathId, detail } = await flaggedPath();
+		const result = detail.latest!.result as { requiredOpticalDensities: { od: { value: number; roundedUpWhole: number } }[] };
+		const need = result.requiredOpticalDensities[0].od;
+		expect(need.roundedUpWhole).toBeGreaterThan(1);
+		const weak = String(need.roundedUpWhole - 1);
+		const before = await db.$count(table.reviewDecision, eq(table.reviewDecision.pathId, pathId));
+		const tooLow = await reviews.decide(officer, pathId, { ...clearance(detail.latest!.id), controls: [{ kind: 'eyewear', minOd: weak, wavelength: '532 nm', wavelengthMax: '', details: '' }] });
+		expect(tooLow).toMatchObject({ ok: false, status: 400, fields: { 'controls.0.minOd': [`The 532 nm line needs at least OD ${need.roundedUpWhole} (assessed ${need.value.toFixed(2)}, rounded up); this control gives OD ${weak} at 532 nm.`] } });
+		const elsewhere = await reviews.decide(officer, pathId, { ...clearance(detail.latest!.id), controls: [{ kind: 'eyewear', minOd: '9', wavelength: '5 nm', wavelengthMax: '', details: '' }] });
+		expect(elsewhere).toMatchObject({ ok: false, status: 400, fields: { 'controls.0.wavelength': [expect.stringMatching(/^OD 9 at 5 nm concerns no line of this path \(it carries 532 nm\)/)], controls: [expect.stringMatching(/no eyewear control covers it/)] } });
+		expect(await db.$count(table.reviewDecision, eq(table.reviewDecision.pathId, pathId))).toBe(before);
+		const enough = await reviews.decide(officer, pathId, { ...clearance(detail.latest!.id), controls: [{ kind: 'eyewear', minOd: String(need.roundedUpWhole), wavelength: '532 nm', wavelengthMax: '', details: '' }] });
+		expect(enough.ok).toBe(true);
+	});
+
+	it('calls eyewear adequate only when it covers what the cleared assessment asks, even for a clearance recorded with less', async () => {
+		const { pathId, detail } = await flaggedPath();
+		const need = (detail.latest!.result as { requiredOpticalDensities: { od: { roundedUpWhole: number } }[] }).requiredOpticalDensities[0].od.roundedUpWhole;
+		// A clearance from before the controls were checked: eyewear OD 1 at 532 nm (written as such a record was).
+		const [decision] = await db.insert(table.reviewDecision).values({ pathId, assessmentId: detail.latest!.id, decision: 'cleared', decidedBy: officer.userId }).returning();
+		await db.insert(table.requiredControl).values({ decisionId: decision.id, kind: 'eyewear', minOd: '1', wavelength: '5.32e-7' });
+		const form = { labId: lab.id, location: 'door', frame: 'goggle', condition: 'good' as const, lastCheckedAt: '', version: 0 };
+		const weak = await eyewear.save(officer, null, { ...form, label: `weak-${Date.now()}`, bands: [{ wavelengthMin: '530 nm', wavelengthMax: '535 nm', od: '1' }] });
+		if (!weak.ok) throw new Error('save');
+		const check = (await eyewear.checksForPaths([pathId])).get(pathId)!;
+		expect(check.result.status).toBe('inadequate');
+		expect(check.requirements.map((r) => r.label)).toEqual(['OD 1 at 532 nm', `OD ${need} at 532 nm (assessed)`]);
+		expect(await eyewear.retire(officer, weak.id, 1)).toEqual({ ok: true }); // the lab's store as the next test expects it
+	});
+
 	it('a flagged path waits for review and the officers are told', async () => {
 		const { pathId, detail } = await flaggedPath();
 		expect(detail.path.reviewState).toBe('awaiting_review');
@@ -67,6 +98,8 @@ describe('review decisions', () => {
 		expect(after.ok && after.detail.path.reviewState).toBe('cleared');
 		const [note] = await db.select().from(table.notification).where(eq(table.notification.kind, 'review.cleared')).orderBy(desc(table.notification.createdAt)).limit(1);
 		expect(note.userId).toBe(researcher.userId);
+		// The notice (and the mail made from it) lists each required control, not just how many.
+		expect(note.body).toBe('Required controls:\n• Protective eyewear: at least OD 5 at 532 nm\n• Beam enclosure — Tube from the splitter to the lens.\n\nComments: Enclose above bench height.');
 
 		expect((await eyewear.checksForPaths([pathId])).get(pathId)?.result.status).toBe('none_on_record');
 		const form = { labId: lab.id, label: 'G-1', location: 'door', frame: 'goggle', condition: 'good' as const, lastCheckedAt: '', version: 0 };

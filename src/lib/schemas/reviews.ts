@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
-import { parseQuantity } from '$lib/units';
+import { formatQuantity, parseQuantity } from '$lib/units';
 
 export const controlKinds = ['eyewear', 'enclosure', 'interlock', 'signage', 'beam_stop', 'procedure', 'training', 'other'] as const;
 
@@ -14,6 +14,12 @@ export const controlWords: Record<(typeof controlKinds)[number], string> = {
 	training: 'Training required',
 	other: 'Other'
 };
+
+/** One required control in words, as the screens and the mails show it (wavelengths in SI, as stored). */
+export function describeControl(c: { kind: (typeof controlKinds)[number]; minOd: string | null; wavelength: string | null; wavelengthMax: string | null; details: string }): string {
+	const eyewear = c.kind === 'eyewear' && c.wavelength !== null ? `: at least OD ${Number(c.minOd)} at ${formatQuantity(c.wavelength, 'wavelength')}${c.wavelengthMax ? `–${formatQuantity(c.wavelengthMax, 'wavelength')}` : ''}` : '';
+	return `${controlWords[c.kind]}${eyewear}${c.details ? ` — ${c.details}` : ''}`;
+}
 
 const wavelengthText = z
 	.string()

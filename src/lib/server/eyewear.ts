@@ -79,7 +79,7 @@ async function usableBands(labIds: string[]): Promise<Map<string, BandOnRecord[]
 	const byLab = new Map<string, BandOnRecord[]>();
 	if (labIds.length === 0) return byLab;
 	const rows = await db
-		.select({ labId: table.eyewear.labId, eyewearId: table.eyewear.id, label: table.eyewear.label, wavelengthMin: table.eyewearBand.wavelengthMin, wavelengthMax: table.eyewearBand.wavelengthMax, od: table.eyewearBand.od })
+		.select({ labId: table.eyewear.labId, eyewearId: table.eyewear.id, label: table.eyewear.label, location: table.eyewear.location, wavelengthMin: table.eyewearBand.wavelengthMin, wavelengthMax: table.eyewearBand.wavelengthMax, od: table.eyewearBand.od })
 		.from(table.eyewearBand)
 		.innerJoin(table.eyewear, eq(table.eyewear.id, table.eyewearBand.eyewearId))
 		.where(and(inArray(table.eyewear.labId, labIds), eq(table.eyewear.retired, false), ne(table.eyewear.condition, 'damaged')));
@@ -87,7 +87,7 @@ async function usableBands(labIds: string[]): Promise<Map<string, BandOnRecord[]
 	return byLab;
 }
 
-/** A cleared path's eyewear: what its clearance requires (one need per eyewear control) and whether the lab's store covers it with one pair. */
+/** A cleared path's eyewear: what its clearance requires (each eyewear control, and each line at the OD its cleared assessment asks for) and whether the lab's store covers it with one pair. */
 export type EyewearCheck = { requirements: Requirement[]; result: AdequacyResult };
 
 /** For each cleared path (by id): the eyewear controls of its latest clearance against its lab's eyewear. */
@@ -95,7 +95,13 @@ export async function checksForPaths(pathIds: string[]): Promise<Map<string, Eye
 	const out = new Map<string, EyewearCheck>();
 	if (pathIds.length === 0) return out;
 	const rows = await db
-		.select({ pathId: table.beamPath.id, labId: table.laser.labId, control: table.requiredControl })
+		.select({
+			pathId: table.beamPath.id,
+			labId: table.laser.labId,
+			control: table.requiredControl,
+			// What the cleared assessment asks per line: a clearance from before controls were checked against it may ask less.
+			assessed: sql<{ wavelengthMin: number; wavelengthMax: number; od: { roundedUpWhole: number } }[] | null>`(SELECT a.result->'requiredOpticalDensities' FROM assessment a WHERE a.id = ${table.reviewDecision.assessmentId})`
+		})
 		.from(table.beamPath)
 		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
 		.innerJoin(
@@ -114,6 +120,16 @@ export async function checksForPaths(pathIds: string[]): Promise<Map<string, Eye
 		const entry = needs.get(r.pathId) ?? { labId: r.labId, requirements: [] };
 		entry.requirements.push({ wavelengthMin: c.wavelength, wavelengthMax: max, od: c.minOd, label });
 		needs.set(r.pathId, entry);
+	}
+	const assessedAdded = new Set<string>();
+	for (const r of rows) {
+		if (assessedAdded.has(r.pathId) || !needs.has(r.pathId) || !Array.isArray(r.assessed)) continue;
+		assessedAdded.add(r.pathId);
+		for (const o of r.assessed) {
+			if (!(o.od?.roundedUpWhole > 0)) continue;
+			const label = `OD ${o.od.roundedUpWhole} at ${formatQuantity(o.wavelengthMin, 'wavelength')}${o.wavelengthMax > o.wavelengthMin ? `–${formatQuantity(o.wavelengthMax, 'wavelength')}` : ''} (assessed)`;
+			needs.get(r.pathId)!.requirements.push({ wavelengthMin: String(o.wavelengthMin), wavelengthMax: String(o.wavelengthMax), od: String(o.od.roundedUpWhole), label });
+		}
 	}
 	for (const [pathId, { labId, requirements }] of needs) out.set(pathId, { requirements, result: adequacy(bands.get(labId) ?? [], requirements) });
 	return out;

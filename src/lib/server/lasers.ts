@@ -173,6 +173,8 @@ async function loadDetail(laserId: string) {
 				verdict: table.beamPath.verdict,
 				flagged: table.beamPath.flagged,
 				stale: table.beamPath.stale,
+				reviewState: table.beamPath.reviewState,
+				clearedAssessmentId: table.beamPath.clearedAssessmentId,
 				updatedAt: table.beamPath.updatedAt
 			})
 			.from(table.beamPath)

@@ -11,6 +11,8 @@ import * as table from '$lib/server/db/schema';
 import { failForm } from '$lib/server/forms';
 import * as lasers from '$lib/server/lasers';
 import * as paths from '$lib/server/paths';
+import * as reviews from '$lib/server/reviews';
+import { replySchema } from '$lib/schemas/reviews';
 import { orError } from '$lib/server/pages';
 import type { AssessmentResult } from '$lib/assessmentResult';
 import type { LineColumns } from '$lib/schemas/assessment';
@@ -127,7 +129,10 @@ export async function loadPath(locals: App.Locals, pathId: string) {
 		editable,
 		path: { stale: p.stale, flagged: p.flagged, verdict: p.verdict, staleReason: detail.latest?.staleReason ?? null },
 		latest: detail.latest ? { createdAt: detail.latest.createdAt.toISOString(), result: detail.latest.result as AssessmentResult | { errors: unknown[] }, cause: detail.latest.cause } : null,
-		history: history.map((h) => ({ ...h, createdAt: h.createdAt.toISOString() }))
+		history: history.map((h) => ({ ...h, createdAt: h.createdAt.toISOString() })),
+		// Where the path stands with the officer: the researcher reads the decision here.
+		review: await reviews.record(p, editable),
+		replyForm: await superValidate(zod4(replySchema), { id: 'reply' })
 	};
 }
 

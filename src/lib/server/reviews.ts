@@ -13,8 +13,11 @@ import * as suspensions from '$lib/server/suspensions';
 import * as procedures from '$lib/server/procedures';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
-import type { DecisionForm } from '$lib/schemas/reviews';
-import type { AssessmentResult } from '$lib/assessmentResult';
+import { describeControl, type DecisionForm } from '$lib/schemas/reviews';
+import * as eyewear from '$lib/server/eyewear';
+import { isCurrentResult, type AssessmentResult } from '$lib/assessmentResult';
+import { pathStateOf, pathStates, type PathState } from '$lib/pathState';
+import { controlShortfalls, type EyewearControl, type Need } from '$lib/server/eyewearAdequacy';
 import { formatQuantity, parseQuantity } from '$lib/units';
 
 type PathRow = typeof table.beamPath.$inferSelect;
@@ -42,24 +45,49 @@ export async function afterSnapshot(tx: Tx, path: PathRow, verdict: table.Assess
 	return { reviewState: 'awaiting_review', awaitingSince: new Date() };
 }
 
+const wl = (v: number | string) => formatQuantity(v, 'wavelength', { significantDigits: 8 });
+
+/** Per line of the path, what the assessment asks of eyewear (OD 0: none). */
+export function eyewearNeeds(result: AssessmentResult): Need[] {
+	return result.lines.map((line) => {
+		const od = result.requiredOpticalDensities.find((o) => o.line === line.index)?.od ?? null;
+		const max = line.wavelengthMax ?? line.wavelength;
+		return { wavelengthMin: String(line.wavelength), wavelengthMax: String(max), od: od?.roundedUpWhole ?? 0, odAssessed: od?.value ?? 0, label: max > line.wavelength ? `${wl(line.wavelength)}–${wl(max)}` : wl(line.wavelength) };
+	});
+}
+
+function eyewearControlsOf(controls: DecisionForm['controls'], wavelengths: ({ min: string; max: string | null } | null)[]): EyewearControl[] {
+	const out: EyewearControl[] = [];
+	controls.forEach((c, index) => {
+		const w = wavelengths[index];
+		if (c.kind !== 'eyewear' || !w) return;
+		out.push({ index, wavelengthMin: w.min, wavelengthMax: w.max ?? w.min, od: c.minOd, label: `OD ${c.minOd} at ${wl(w.min)}${w.max ? `–${wl(w.max)}` : ''}` });
+	});
+	return out;
+}
+
 /** The eyewear controls a clearance starts from: one per line that needs it, at the whole OD the assessment asks for. */
 export function eyewearControls(result: AssessmentResult | null): DecisionForm['controls'] {
-	const wl = (v: number) => formatQuantity(v, 'wavelength', { significantDigits: 8 });
 	return (result?.requiredOpticalDensities ?? [])
 		.filter((o) => o.od.roundedUpWhole > 0)
 		.map((o) => ({ kind: 'eyewear' as const, minOd: String(o.od.roundedUpWhole), wavelength: wl(o.wavelengthMin), wavelengthMax: o.wavelengthMax > o.wavelengthMin ? wl(o.wavelengthMax) : '', details: '' }));
 }
 
-export type QueueFilter = { labId?: string; state?: 'awaiting_review' | 'returned' | 'cleared' | 'all' };
+/** pathStateOf (src/lib/pathState.ts) in SQL, for filters and counters. */
+const pathStateSql = sql<PathState>`(CASE WHEN ${table.beamPath.stale} THEN 'being_reevaluated' WHEN ${table.beamPath.reviewState} = 'awaiting_review' AND ${table.beamPath.clearedAssessmentId} IS NOT NULL THEN 'changed_since_clearance' WHEN ${table.beamPath.reviewState} = 'not_needed' THEN 'no_review_needed' ELSE ${table.beamPath.reviewState}::text END)`;
+
+/** 'waiting': everything the officer has to decide on; 'all': every path that was ever reviewed or waits. */
+export type QueueFilter = { labId?: string; state?: PathState | 'waiting' | 'all' };
 
 /** Paths waiting for review (or as filtered), oldest first; one query for the page. */
 export async function queue(scope: Scope, filter: QueueFilter = {}) {
 	const where: SQL[] = [eq(table.beamPath.retired, false)];
 	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
 	if (filter.labId) where.push(eq(table.laser.labId, filter.labId));
-	const state = filter.state ?? 'awaiting_review';
-	if (state === 'all') where.push(sql`${table.beamPath.reviewState} <> 'not_needed'`);
-	else where.push(eq(table.beamPath.reviewState, state));
+	const state = filter.state ?? 'waiting';
+	if (state === 'all') where.push(sql`(${table.beamPath.reviewState} <> 'not_needed' OR ${table.beamPath.stale})`);
+	else if (state === 'waiting') where.push(eq(table.beamPath.reviewState, 'awaiting_review'));
+	else where.push(sql`${pathStateSql} = ${state}`);
 	// The latest snapshot of each listed path only (a lateral join on the path's index), never a
 	// pass over every snapshot ever taken.
 	const latest = db
@@ -77,9 +105,7 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 		.select({
 			pathId: table.beamPath.id,
 			pathName: table.beamPath.name,
-			reviewState: table.beamPath.reviewState,
-			stale: table.beamPath.stale,
-			cleared: sql<boolean>`${table.beamPath.clearedAssessmentId} IS NOT NULL`,
+			state: pathStateSql,
 			awaitingSince: table.beamPath.awaitingSince,
 			updatedAt: table.beamPath.updatedAt,
 			laserId: table.laser.id,
@@ -103,22 +129,22 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 
 export type QueueRow = Awaited<ReturnType<typeof queue>>[number];
 
-/** Counts for the overview: what waits for whom. */
-export async function counts(scope: Scope) {
+/** Counts for the overview and the review desk: live paths in each state, under the state's one name. */
+export async function counts(scope: Scope): Promise<Record<PathState, number> & { total: number }> {
 	const where: SQL[] = [eq(table.beamPath.retired, false)];
 	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
-	const [row] = await db
-		.select({
-			awaiting: sql<number>`count(*) FILTER (WHERE ${table.beamPath.reviewState} = 'awaiting_review')::int`,
-			returned: sql<number>`count(*) FILTER (WHERE ${table.beamPath.reviewState} = 'returned')::int`,
-			cleared: sql<number>`count(*) FILTER (WHERE ${table.beamPath.reviewState} = 'cleared')::int`,
-			stale: sql<number>`count(*) FILTER (WHERE ${table.beamPath.stale})::int`,
-			total: sql<number>`count(*)::int`
-		})
+	const rows = await db
+		.select({ state: pathStateSql, n: sql<number>`count(*)::int` })
 		.from(table.beamPath)
 		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
-		.where(and(...where));
-	return row;
+		.where(and(...where))
+		.groupBy(pathStateSql);
+	const out = { ...(Object.fromEntries(pathStates.map((s) => [s, 0])) as Record<PathState, number>), total: 0 };
+	for (const r of rows) {
+		out[r.state] = r.n;
+		out.total += r.n;
+	}
+	return out;
 }
 
 /** Every decision on a path, newest first, with its controls and the researcher's replies. */
@@ -188,6 +214,12 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 			return failure(409, 'Another officer decided on this path while you were reviewing it. Nothing was saved; reload to read their decision, then decide again if needed.');
 		const self = selfReviewReason(path, officer.userId, latest.createdBy);
 		if (self) return failure(403, self);
+		if (form.decision === 'cleared') {
+			// Eyewear that is required must protect: every line at the OD the assessment asks for, rounded up.
+			if (!isCurrentResult(latest.result)) return failure(409, 'This assessment was made by an older engine and is being re-evaluated. Decide once the new result is in.');
+			const short = controlShortfalls(eyewearNeeds(latest.result), eyewearControlsOf(controls, wavelengths));
+			if (Object.keys(short).length) return fieldsNeedAttention(short);
+		}
 		const [decision] = await tx
 			.insert(table.reviewDecision)
 			.values({
@@ -217,7 +249,7 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 			kind: `review.${form.decision}`,
 			pathId,
 			title: form.decision === 'cleared' ? `“${path.name}” cleared with controls` : `“${path.name}” returned with comments`,
-			body: form.decision === 'cleared' ? `${controls.length} required control${controls.length === 1 ? '' : 's'}. ${form.comments}` : form.comments
+			body: form.decision === 'cleared' ? clearedBody(controls, wavelengths, form.comments) : form.comments
 		});
 		await audit.record(tx, {
 			actorId: officer.userId,
@@ -233,6 +265,26 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 	if (outcome.ok) await jobs.nudge(queues.mailDeliver);
 	return outcome;
 }
+
+/** The cleared notice (and its mail): every required control in words, then the comments. */
+function clearedBody(controls: DecisionForm['controls'], wavelengths: ({ min: string; max: string | null } | null)[], comments: string): string {
+	const list = controls.map((c, i) => `• ${describeControl({ kind: c.kind, minOd: c.kind === 'eyewear' ? c.minOd : null, wavelength: wavelengths[i]?.min ?? null, wavelengthMax: wavelengths[i]?.max ?? null, details: c.details })}`);
+	const head = controls.length ? `Required control${controls.length === 1 ? '' : 's'}:\n${list.join('\n')}` : 'No control is required.';
+	return comments ? `${head}\n\nComments: ${comments}` : head;
+}
+
+/** Where a path stands with the officer, for the path page and the review page: its state, every decision with its controls and replies, the eyewear check, and whether the reader may answer. */
+export async function record(path: PathRow, editable: boolean) {
+	const [decisions, check] = await Promise.all([history(path.id), eyewear.checksForPaths([path.id])]);
+	return {
+		state: pathStateOf(path),
+		history: decisions,
+		eyewearCheck: check.get(path.id) ?? null,
+		canReply: editable && decisions[0]?.decision === 'returned'
+	};
+}
+
+export type ReviewRecord = Awaited<ReturnType<typeof record>>;
 
 /** The researcher answers a returned review (they then change the path and save it). */
 export async function reply(scope: Scope, pathId: string, body: string): Promise<{ ok: true } | Failure> {

@@ -3,10 +3,11 @@ import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as labs from '$lib/server/labs';
 import * as reviews from '$lib/server/reviews';
+import { pathStates } from '$lib/pathState';
 import type { PageServerLoad } from './$types';
 
 const filterSchema = z.object({
-	state: z.enum(['awaiting_review', 'returned', 'cleared', 'all']).catch('awaiting_review'),
+	state: z.enum([...pathStates, 'waiting', 'all']).catch('waiting'),
 	lab: z.uuid().optional().catch(undefined)
 });
 

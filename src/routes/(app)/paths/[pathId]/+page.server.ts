@@ -1,4 +1,12 @@
+import { redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { replySchema } from '$lib/schemas/reviews';
+import { requireRole } from '$lib/server/auth/guard';
+import { scopeOf } from '$lib/server/auth/scope';
+import { failForm } from '$lib/server/forms';
 import { loadPath, savePath } from '$lib/server/pathForms';
+import * as reviews from '$lib/server/reviews';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, params }) => loadPath(locals, params.pathId);
@@ -6,5 +14,14 @@ export const load: PageServerLoad = ({ locals, params }) => loadPath(locals, par
 export const actions: Actions = {
 	save: async function savePathChanges({ locals, request, params }) {
 		return savePath(locals, request, null, params.pathId);
+	},
+	/** The researcher answers a returned review from the path page the mail links to. */
+	reply: async function replyFromPath({ locals, request, params }) {
+		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const form = await superValidate(request, zod4(replySchema));
+		if (!form.valid) return fail(400, { replyForm: form });
+		const result = await reviews.reply(scope, params.pathId, form.data.body);
+		if (!result.ok) return failForm(form, result);
+		redirect(303, `/paths/${params.pathId}?replied=1`);
 	}
 };

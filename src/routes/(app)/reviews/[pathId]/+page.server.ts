@@ -7,7 +7,6 @@ import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import * as eyewear from '$lib/server/eyewear';
 import { failForm } from '$lib/server/forms';
 import { isCurrentResult } from '$lib/assessmentResult';
 import { orError } from '$lib/server/pages';
@@ -44,8 +43,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		const [cleared] = await db.select({ inputs: table.assessment.inputs, result: table.assessment.result }).from(table.assessment).where(eq(table.assessment.id, clearedId));
 		if (cleared) changes = [...diffInputs(cleared.inputs, latest.inputs), ...diffResults(cleared.result, latest.result)];
 	}
-	const history = await reviews.history(detail.path.id);
-	const eyewearCheck = (await eyewear.checksForPaths([detail.path.id])).get(detail.path.id) ?? null;
+	const review = await reviews.record(detail.path, editable);
+	const history = review.history;
 	const self = user.role === 'officer' ? reviews.selfReviewReason(detail.path, user.id, latest.createdBy) : null;
 	const start: DecisionForm = {
 		assessmentId: latest.id,
@@ -55,7 +54,6 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		reviewBy: '',
 		controls: reviews.eyewearControls(result)
 	};
-	const lastDecision = history[0] ?? null;
 	return {
 		path: { ...detail.path, createdAt: detail.path.createdAt.toISOString(), updatedAt: detail.path.updatedAt.toISOString() },
 		laser: { id: detail.laser.id, name: `${detail.laser.maker} ${detail.laser.model}`, laserClass: detail.laser.laserClass },
@@ -65,12 +63,10 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		profile,
 		limits: limitRows.map((l) => ({ id: l.limitId, version: l.version, label: l.label, citation: l.citation, demonstration: l.demonstration, tissue: l.tissue })),
 		changes,
-		history: history.map((h) => ({ ...h, decidedAt: h.decidedAt.toISOString(), reviewBy: h.reviewBy?.toISOString().slice(0, 10) ?? null, replies: h.replies.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() })) })),
-		eyewearCheck,
+		review,
 		decide: user.role === 'officer' ? { allowed: !self && !detail.path.stale, reason: self ?? (detail.path.stale ? 'The assessment is being re-evaluated; decide once the new result is in.' : null) } : null,
 		decisionForm: await superValidate(start, zod4(decisionSchema), { errors: false, id: 'decision' }),
-		replyForm: await superValidate(zod4(replySchema), { id: 'reply' }),
-		canReply: editable && lastDecision?.decision === 'returned'
+		replyForm: await superValidate(zod4(replySchema), { id: 'reply' })
 	};
 };
 

@@ -4,13 +4,14 @@ import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as paths from '$lib/server/paths';
+import { pathStateOf } from '$lib/pathState';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 	const found = await paths.find(await scopeOf(requireUser(locals)), params.pathId);
 	if (!found.ok) return apiError(found.status, found.message);
 	const { path, elements, points, latest, lines, lab } = found.detail;
-	return json({ path, lab, lines, elements, points, latest, editable: found.editable });
+	return json({ path, state: pathStateOf(path), lab, lines, elements, points, latest, editable: found.editable });
 });
 
 /** Replace the path (values with units, as in the editor); `version` must be the one read. */

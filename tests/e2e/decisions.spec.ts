@@ -1,0 +1,96 @@
+// The decision reaches the researcher: the path page (where the mails lead) shows where the path
+// stands, the officer's comments with an answer box, and the required controls with where the
+// eyewear is kept; each state has one name on the desk, the overview, the filters and the API.
+import { expect, test, type Page } from '@playwright/test';
+import { demoUsers } from '../../seed/demo';
+import { demo, expectAccessible, signIn, signedInClient } from './helpers';
+
+const priya = demoUsers.find((u) => u.email.startsWith('priya'))!;
+
+async function openReview(page: Page, name: string) {
+	await page.goto('/reviews?state=all');
+	await page.getByRole('link', { name }).click();
+	await expect(page.getByRole('heading', { level: 1, name })).toBeVisible();
+}
+
+async function openPath(page: Page, laser: string, name: string) {
+	await page.goto(`/lasers?q=${encodeURIComponent(laser)}`);
+	await page.getByRole('link', { name: new RegExp(laser) }).click();
+	await page.getByRole('link', { name }).click();
+}
+
+test('a returned path shows the comments and takes an answer on the path page; a cleared one lists its controls and where the eyewear is', async ({ page, browser }) => {
+	test.setTimeout(120_000);
+	await signIn(page, demo('officer'));
+	await openReview(page, 'Raman excitation, table 2');
+	const decision = page.getByRole('region', { name: 'Your decision' });
+	await decision.getByRole('radio', { name: 'Return to the researcher' }).check();
+	await decision.getByLabel('What should change').fill('Enclose the pick-off before the power monitor.');
+	await decision.getByRole('button', { name: 'Record the decision' }).click();
+	await expect(page.getByRole('status').filter({ hasText: 'Decision recorded' })).toBeVisible();
+
+	const researcher = await (await browser.newContext()).newPage();
+	await signIn(researcher, priya);
+	await openPath(researcher, 'Solace 5G', 'Raman excitation, table 2');
+	const record = researcher.getByTestId('review-record');
+	await expect(record).toContainText('returned');
+	await expect(record).toContainText('What should change: Enclose the pick-off before the power monitor.');
+	await expect(researcher.getByText('awaiting review')).toHaveCount(0);
+	await record.getByLabel('Your answer to the officer').fill('A tube is ordered; I will add it to the path when fitted.');
+	await record.getByRole('button', { name: 'Send the answer' }).click();
+	await expect(researcher).toHaveURL(/replied=1/);
+	await expect(researcher.getByTestId('review-record').locator('blockquote')).toContainText('A tube is ordered');
+	await expectAccessible(researcher);
+
+	// A clearance: the eyewear the assessment asks for starts filled in; add a procedure.
+	await openReview(page, 'Compressor to the pump–probe table');
+	const clear = page.getByRole('region', { name: 'Your decision' });
+	await expect(clear.getByRole('group', { name: /^Control 1: Protective eyewear/ }).getByLabel('At wavelength')).toHaveValue('800 nm');
+	await clear.getByRole('button', { name: 'Add a control' }).click();
+	const procedure = clear.getByRole('group', { name: /^Control 2:/ });
+	await procedure.getByLabel('Kind').selectOption('procedure');
+	await procedure.getByLabel('What is required').fill('Alignment at low power, SOP UFL-02');
+	await clear.getByRole('button', { name: 'Record the decision' }).click();
+	await expect(page.getByRole('status').filter({ hasText: 'Decision recorded' })).toBeVisible();
+
+	await openPath(researcher, 'Aurora 1K', 'Compressor to the pump–probe table');
+	const cleared = researcher.getByTestId('review-record');
+	await expect(cleared).toContainText('cleared with controls');
+	const controls = cleared.getByTestId('required-controls');
+	await expect(controls).toContainText(/Protective eyewear: at least OD \d+ at 800 nm/);
+	await expect(controls).toContainText('Procedure (SOP) — Alignment at low power, SOP UFL-02');
+	await expect(cleared.getByTestId('eyewear-check')).toContainText('UFL-T3 (kept at: shelf by the amplifier) covers every line.');
+	await expectAccessible(researcher);
+	await researcher.context().close();
+});
+
+test('a path changed after its clearance has one name everywhere: badge, desk counter, overview counter, filter and API', async ({ page, browser }) => {
+	// The demo's cleared cutter path, changed by its researcher.
+	const tomas = await (await browser.newContext()).newPage();
+	await signIn(tomas, demoUsers.find((u) => u.email.startsWith('tomas'))!);
+	await openPath(tomas, 'CX-60', 'Cutting head over the bed');
+	await tomas.getByLabel('Purpose (optional)').fill('Beam delivery to the cutting head; lid open during set-up (revised).');
+	await tomas.getByRole('button', { name: 'Save the path' }).click();
+	await expect(tomas).toHaveURL(/saved=/);
+	const pathId = /\/paths\/([0-9a-f-]{36})/.exec(tomas.url())![1];
+	await expect(tomas.getByTestId('review-record')).toContainText('changed since clearance');
+	await tomas.context().close();
+
+	await signIn(page, demo('officer'));
+	await page.goto('/reviews');
+	const row = page.getByRole('row', { name: /Cutting head over the bed/ });
+	await expect(row).toContainText('changed since clearance');
+	await expect(row).not.toContainText('awaiting review');
+	await expect(page.getByTestId('desk-count-changed_since_clearance')).not.toHaveText('0');
+	await page.getByLabel('Show').selectOption('changed_since_clearance');
+	await expect(page.getByRole('row', { name: /Cutting head over the bed/ })).toBeVisible();
+	await expect(page.getByRole('row', { name: /Feed to target chamber B|Welding head in cell 1/ })).toHaveCount(0);
+	await page.goto('/overview');
+	await expect(page.getByTestId('count-changed_since_clearance')).not.toHaveText('0');
+	await page.getByTestId('count-changed_since_clearance').click();
+	await expect(page.getByRole('row', { name: /Cutting head over the bed/ })).toContainText('changed since clearance');
+
+	const api = await signedInClient(demo('officer'));
+	const body = await (await api.get(`/api/paths/${pathId}`)).json();
+	expect(body.state).toBe('changed_since_clearance');
+});
