@@ -307,6 +307,13 @@ export interface InputError {
 export type Outcome = { ok: true; result: AssessmentResult } | { ok: false; errors: InputError[] };
 
 /** True for a result of this engine generation (2.x); snapshots of older engines have another shape. */
+/** The inputs an accessible point still lacks ('points.1.reflectance', …): a path with any is a draft. */
+export function draftGaps(result: AssessmentResult): string[] {
+	const gaps = new Set<string>();
+	for (const p of result.points) if (p.accessible) for (const m of p.missing) gaps.add(m);
+	return [...gaps];
+}
+
 export function isCurrentResult(r: unknown): r is AssessmentResult {
 	return typeof r === 'object' && r !== null && Array.isArray((r as AssessmentResult).lines) && typeof (r as AssessmentResult).engineVersion === 'string';
 }

@@ -21,6 +21,7 @@ export const verdictWords: Record<string, StateWord> = {
 /** Where a beam path stands (see pathState.ts): one name per state, everywhere. */
 export const pathStateWords: Record<PathState, StateWord> = {
 	being_reevaluated: { word: 'being re-evaluated', icon: 'clock', tone: 'caution', hint: 'Its laser line, a limit or the engine changed; the assessment is being computed again.' },
+	draft: { word: 'draft', icon: 'half', tone: 'caution', hint: 'Some accessible point lacks an input: it is saved as work in progress and cannot be reviewed or cleared until every accessible point is complete.' },
 	awaiting_review: { word: 'awaiting review', icon: 'clock', tone: 'caution', hint: 'Not within limit: waiting for the laser safety officer.' },
 	changed_since_clearance: { word: 'changed since clearance', icon: 'clock', tone: 'caution', hint: 'It was cleared, then changed: waiting for the laser safety officer again.' },
 	returned: { word: 'returned', icon: 'out', tone: 'alert', hint: 'The laser safety officer returned it with comments for the researcher.' },

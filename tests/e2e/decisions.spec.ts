@@ -94,3 +94,46 @@ test('a path changed after its clearance has one name everywhere: badge, desk co
 	const body = await (await api.get(`/api/paths/${pathId}`)).json();
 	expect(body.state).toBe('changed_since_clearance');
 });
+
+test('a path with an incomplete point is a draft: saved, shown as such, off the desk, and not clearable until complete', async ({ page }) => {
+	const api = await signedInClient(priya);
+	const lasers = (await (await api.get('/api/lasers?q=Solace')).json()) as { items: { id: string }[] };
+	const laserId = lasers.items[0].id;
+	const lineId = (await (await api.get(`/api/lasers/${laserId}`)).json()).lines[0].id;
+	const element = { label: '', length: '', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '' };
+	const point = { label: '', kind: 'intrabeam', tissue: 'eye', position: '1 m', exposureDuration: '0.25 s', reflectance: '', viewingAngle: '', viewingDistance: '' };
+	const body = (reflectance: string, version: number) => ({
+		lineIds: [lineId],
+		lineChoiceReason: '',
+		name: 'Draft: reflection off the cuvette',
+		purpose: '',
+		nohdExposureDuration: '0.25 s',
+		elements: [{ ...element, kind: 'propagate', length: '2 m' }],
+		points: [
+			{ ...point, key: 'a', label: 'On the beam' },
+			{ ...point, key: 'b', label: 'Off the cuvette', kind: 'diffuse', reflectance, viewingDistance: '0.5 m' }
+		],
+		version
+	});
+	const created = await api.post(`/api/lasers/${laserId}/paths`, { data: body('', 0) });
+	expect(created.status()).toBe(201);
+	const { id } = await created.json();
+	expect((await (await api.get(`/api/paths/${id}`)).json()).state).toBe('draft');
+
+	await signIn(page, demo('officer'));
+	await page.goto('/reviews');
+	await expect(page.getByRole('row', { name: /Draft: reflection off the cuvette/ })).toHaveCount(0);
+	await page.getByLabel('Show').selectOption('draft');
+	await expect(page.getByRole('row', { name: /Draft: reflection off the cuvette/ })).toContainText('draft');
+	await page.goto(`/reviews/${id}`);
+	await expect(page.getByText('This beam path is a draft: an accessible point lacks an input.')).toBeVisible();
+	await expect(page.getByRole('button', { name: 'Record the decision' })).toHaveCount(0);
+	await page.goto(`/paths/${id}`);
+	await expect(page.getByTestId('review-record')).toContainText('draft');
+	await expectAccessible(page);
+
+	// Completed, it goes to the desk.
+	expect((await api.put(`/api/paths/${id}`, { data: body('0.5', 1) })).status()).toBe(200);
+	await page.goto('/reviews');
+	await expect(page.getByRole('row', { name: /Draft: reflection off the cuvette/ })).toContainText('awaiting review');
+});

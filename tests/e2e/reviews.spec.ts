@@ -49,7 +49,7 @@ test('an officer clears a flagged path with controls; a later change puts it bac
 	await expect(page.getByRole('status').filter({ hasText: 'Decision recorded' })).toBeVisible();
 	await expect(page.getByText('cleared with controls').first()).toBeVisible();
 	await expect(page.getByText(/at least OD 7 at 1064 nm/)).toBeVisible();
-	await expect(page.locator('li', { hasText: 'at least OD 7 at 1064 nm' }).getByText('adequate')).toBeVisible();
+	await expect(page.getByTestId('eyewear-check')).toContainText('HEL-G1 (kept at: hook by the inner door) covers every line.');
 
 	await page.goto('/eyewear');
 	await expect(page.getByRole('row', { name: /Feed to target chamber B/ })).toContainText('adequate');

@@ -1,5 +1,6 @@
-// The several-lines migration on a database holding paths from before it: each path keeps its line,
-// its snapshots and its review history. Runs on a database of its own, migrated in two steps.
+// The several-lines and drafts migrations on a database holding paths from before them: each path keeps
+// its line, its snapshots and its review history; an incomplete one becomes a draft. Runs on a database
+// of its own, migrated in two steps.
 import { cpSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -72,6 +73,10 @@ describe('migration to paths with several lines', () => {
 				INSERT INTO review_decision (path_id, assessment_id, decision, decided_by, comments)
 				VALUES (${paths[0].id}, ${snapshot.id}, 'cleared', 'officer-m', 'enclosed') RETURNING id`;
 			await sql`INSERT INTO required_control (decision_id, kind, min_od, wavelength) VALUES (${decision.id}, 'eyewear', 4, 5.32e-7)`;
+			// The second path waits for review although a point of it lacks its reflectance: it becomes a draft.
+			const incomplete = { points: [{ accessible: true, missing: ['points.0.reflectance'] }, { accessible: false, missing: [] }] };
+			await sql`UPDATE beam_path SET review_state = 'awaiting_review', flagged = true, awaiting_since = now() WHERE id = ${paths[1].id}`;
+			await sql`INSERT INTO assessment (path_id, path_version, engine_version, inputs, result, verdict, limit_versions) VALUES (${paths[1].id}, 1, '2.0.0', '{}'::jsonb, ${sql.json(incomplete)}, 'incomplete', '[]'::jsonb)`;
 
 			await migrated('drizzle');
 
@@ -81,6 +86,11 @@ describe('migration to paths with several lines', () => {
 			expect(n).toBe(0);
 			const history = await sql`SELECT d.decision, d.comments, c.kind, c.min_od, c.wavelength, c.wavelength_max FROM review_decision d JOIN required_control c ON c.decision_id = d.id WHERE d.path_id = ${paths[0].id}`;
 			expect(history).toEqual([{ decision: 'cleared', comments: 'enclosed', kind: 'eyewear', min_od: '4', wavelength: '0.000000532', wavelength_max: null }]);
+			const states = await sql`SELECT id, draft, flagged, review_state FROM beam_path ORDER BY name`;
+			expect(states.map((s) => [s.id, s.draft, s.flagged, s.review_state])).toEqual([
+				[paths[0].id, false, false, 'not_needed'],
+				[paths[1].id, true, false, 'not_needed']
+			]);
 			const [kept1] = await sql`SELECT count(*)::int AS n FROM assessment WHERE path_id = ${paths[0].id}`;
 			expect(kept1.n).toBe(1);
 			// Old limit versions read as before: no wavelength factor, an aperture that does not grow with time.

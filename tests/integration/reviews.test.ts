@@ -48,6 +48,32 @@ const clearance = (assessmentId: string, afterDecisionId = ''): DecisionForm => 
 });
 
 describe('review decisions', () => {
+	it('keeps a path with an incomplete point as a draft: saved, off the desk, not clearable until complete', async () => {
+		const created = await lasers.create(researcher, laserForm(lab.id));
+		if (!created.ok) throw new Error('laser');
+		const found = await lasers.find(researcher, created.id);
+		if (!found.ok) throw new Error('laser');
+		const form = pathForm(found.detail.lines[0].id);
+		form.points = [...form.points, { key: 'p3', label: 'Card', kind: 'diffuse', tissue: 'eye', position: '0.4 m', exposureDuration: '0.25 s', reflectance: '', viewingAngle: '', viewingDistance: '0.5 m' }];
+		const saved = await paths.save(researcher, created.id, null, form);
+		if (!saved.ok) throw new Error(JSON.stringify(saved));
+		const draft = await paths.find(officer, saved.id);
+		if (!draft.ok) throw new Error('path');
+		expect(draft.detail.path).toMatchObject({ draft: true, flagged: false, reviewState: 'not_needed' });
+		expect((await reviews.queue(officer)).map((q) => q.pathId)).not.toContain(saved.id);
+		expect((await reviews.queue(officer, { state: 'draft' })).find((q) => q.pathId === saved.id)?.state).toBe('draft');
+		const refused = await reviews.decide(officer, saved.id, clearance(draft.detail.latest!.id));
+		expect(refused).toMatchObject({ ok: false, status: 409, message: reviews.draftReason });
+
+		form.points[2].reflectance = '0.5';
+		const completed = await paths.save(researcher, created.id, saved.id, { ...form, version: draft.detail.path.version });
+		if (!completed.ok) throw new Error(JSON.stringify(completed));
+		const done = await paths.find(officer, saved.id);
+		if (!done.ok) throw new Error('path');
+		expect(done.detail.path).toMatchObject({ draft: false, flagged: true, reviewState: 'awaiting_review' });
+		expect((await reviews.queue(officer)).map((q) => q.pathId)).toContain(saved.id);
+	});
+
 	it('refuses eyewear that does not protect every line at the rounded-up OD, with the numbers, and saves nothing', async () => {
 		const { pathId, detail } = await flaggedPath();
 		const result = detail.latest!.result as { requiredOpticalDensities: { od: { value: number; roundedUpWhole: number } }[] };

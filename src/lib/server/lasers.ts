@@ -173,6 +173,7 @@ async function loadDetail(laserId: string) {
 				verdict: table.beamPath.verdict,
 				flagged: table.beamPath.flagged,
 				stale: table.beamPath.stale,
+				draft: table.beamPath.draft,
 				reviewState: table.beamPath.reviewState,
 				clearedAssessmentId: table.beamPath.clearedAssessmentId,
 				updatedAt: table.beamPath.updatedAt

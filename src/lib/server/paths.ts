@@ -13,6 +13,7 @@ import { ENGINE_VERSION, type AssessmentResult, type InputError } from '$lib/ser
 import { beamPathFromRows, beamPathSchema, lineFromRow, type BeamPath } from '$lib/schemas/assessment';
 import { pathToSI, type PathForm } from '$lib/schemas/register';
 import { diffInputs } from '$lib/server/snapshotDiff';
+import { draftGaps } from '$lib/assessmentResult';
 
 async function loadPath(pathId: string, ex: typeof db | Tx = db) {
 	const [row] = await ex
@@ -130,7 +131,8 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 		let previous: table.BeamPath;
 		// Point ids kept from the form: only ids of this path's own points (never another path's).
 		let ownPointIds = new Set<string>();
-		const status = { verdict: result.verdict, flagged: needsReview(result.verdict), stale: false, updatedBy: scope.userId, updatedAt: now };
+		const draft = draftGaps(result).length > 0;
+		const status = { verdict: result.verdict, flagged: needsReview(result.verdict) && !draft, draft, stale: false, updatedBy: scope.userId, updatedAt: now };
 		const common = { name: form.name, purpose: form.purpose, lineChoiceReason: form.lineChoiceReason, nohdExposureDuration: si.value.nohdExposureDuration, ...status };
 		if (pathId === null) {
 			const [created] = await tx.insert(table.beamPath).values({ laserId, createdBy: scope.userId, ...common }).returning();
@@ -176,7 +178,7 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 			cause: 'save',
 			createdBy: scope.userId
 		});
-		const review = await reviews.afterSnapshot(tx, previous, result.verdict, 'save');
+		const review = await reviews.afterSnapshot(tx, previous, result.verdict, 'save', draft);
 		if (Object.keys(review).length) await tx.update(table.beamPath).set(review).where(eq(table.beamPath.id, id));
 		await audit.record(tx, {
 			actorId: scope.userId,
@@ -240,8 +242,9 @@ export async function reassessStale(batch = 200): Promise<{ reassessed: number }
 				limitVersions: result?.limitsConsidered ?? limits.map((l) => ({ id: l.limitId, version: String(l.version) })),
 				cause: engineOnly ? 'engine' : 'reassess'
 			});
-			const review = answerChanged ? await reviews.afterSnapshot(tx, detail.path, verdict, 'reassess') : {};
-			await tx.update(table.beamPath).set({ verdict, flagged: needsReview(verdict), stale: false, ...review }).where(eq(table.beamPath.id, id));
+			const draft = result !== null && draftGaps(result).length > 0;
+			const review = answerChanged ? await reviews.afterSnapshot(tx, detail.path, verdict, 'reassess', draft) : {};
+			await tx.update(table.beamPath).set({ verdict, flagged: needsReview(verdict) && !draft, draft, stale: false, ...review }).where(eq(table.beamPath.id, id));
 			await audit.record(tx, { actorId: null, action: 'path.reassess', entity: 'beam_path', entityId: id, before: { verdict: detail.path.verdict }, after: { verdict } });
 			return true;
 		});

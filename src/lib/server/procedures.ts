@@ -304,7 +304,7 @@ export async function find(scope: Scope, procedureId: string, today: string) {
 			.innerJoin(drafter, eq(drafter.id, d.updatedBy))
 			.where(eq(d.procedureId, proc.id)),
 		db
-			.select({ id: table.beamPath.id, name: table.beamPath.name, reviewState: table.beamPath.reviewState, stale: table.beamPath.stale, clearedAssessmentId: table.beamPath.clearedAssessmentId, retired: table.beamPath.retired })
+			.select({ id: table.beamPath.id, name: table.beamPath.name, reviewState: table.beamPath.reviewState, stale: table.beamPath.stale, draft: table.beamPath.draft, clearedAssessmentId: table.beamPath.clearedAssessmentId, retired: table.beamPath.retired })
 			.from(table.procedurePath)
 			.innerJoin(table.beamPath, eq(table.beamPath.id, table.procedurePath.pathId))
 			.where(eq(table.procedurePath.procedureId, proc.id))

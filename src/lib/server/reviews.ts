@@ -27,8 +27,9 @@ type PathRow = typeof table.beamPath.$inferSelect;
  * within limit waits for review — again after a clearance, whose snapshot no longer matches. A
  * returned path waits for its researcher, unless the researcher saved a change (cause 'save').
  */
-export async function afterSnapshot(tx: Tx, path: PathRow, verdict: table.Assessment['verdict'], cause: 'save' | 'reassess'): Promise<Partial<PathRow>> {
-	if (!needsReview(verdict)) return { reviewState: 'not_needed', awaitingSince: null };
+export async function afterSnapshot(tx: Tx, path: PathRow, verdict: table.Assessment['verdict'], cause: 'save' | 'reassess', draft = false): Promise<Partial<PathRow>> {
+	// A draft is not submitted: it waits for its researcher to complete it, whatever it stood at before.
+	if (draft || !needsReview(verdict)) return { reviewState: 'not_needed', awaitingSince: null };
 	if (path.reviewState === 'returned' && cause === 'reassess') return {};
 	if (path.reviewState === 'awaiting_review') return {};
 	const again = path.reviewState === 'cleared';
@@ -74,7 +75,7 @@ export function eyewearControls(result: AssessmentResult | null): DecisionForm['
 }
 
 /** pathStateOf (src/lib/pathState.ts) in SQL, for filters and counters. */
-const pathStateSql = sql<PathState>`(CASE WHEN ${table.beamPath.stale} THEN 'being_reevaluated' WHEN ${table.beamPath.reviewState} = 'awaiting_review' AND ${table.beamPath.clearedAssessmentId} IS NOT NULL THEN 'changed_since_clearance' WHEN ${table.beamPath.reviewState} = 'not_needed' THEN 'no_review_needed' ELSE ${table.beamPath.reviewState}::text END)`;
+const pathStateSql = sql<PathState>`(CASE WHEN ${table.beamPath.stale} THEN 'being_reevaluated' WHEN ${table.beamPath.draft} THEN 'draft' WHEN ${table.beamPath.reviewState} = 'awaiting_review' AND ${table.beamPath.clearedAssessmentId} IS NOT NULL THEN 'changed_since_clearance' WHEN ${table.beamPath.reviewState} = 'not_needed' THEN 'no_review_needed' ELSE ${table.beamPath.reviewState}::text END)`;
 
 /** 'waiting': everything the officer has to decide on; 'all': every path that was ever reviewed or waits. */
 export type QueueFilter = { labId?: string; state?: PathState | 'waiting' | 'all' };
@@ -177,6 +178,8 @@ export async function history(pathId: string) {
 
 export type Decision = Awaited<ReturnType<typeof history>>[number];
 
+export const draftReason = 'This beam path is a draft: an accessible point lacks an input. It can be reviewed once every accessible point is complete.';
+
 /** Nobody clears a path they registered or last changed, whatever their role. */
 export function selfReviewReason(path: PathRow, officerId: string, latestBy: string | null): string | null {
 	if (path.createdBy === officerId) return 'You registered this beam path: another officer must review it.';
@@ -209,6 +212,7 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 		if (latest.id !== form.assessmentId)
 			return failure(409, 'The assessment changed while you were reviewing it. Nothing was saved; read the new working and decide again.');
 		if (path.stale) return failure(409, 'This assessment is stale and is being re-evaluated. Decide once the new result is in.');
+		if (path.draft) return failure(409, draftReason);
 		const [newest] = await tx.select({ id: table.reviewDecision.id }).from(table.reviewDecision).where(eq(table.reviewDecision.pathId, pathId)).orderBy(desc(table.reviewDecision.decidedAt)).limit(1);
 		if ((newest?.id ?? '') !== form.afterDecisionId)
 			return failure(409, 'Another officer decided on this path while you were reviewing it. Nothing was saved; reload to read their decision, then decide again if needed.');

@@ -120,6 +120,8 @@ export const beamPath = pgTable(
 		verdict: verdictEnum('verdict'),
 		/** True while the latest snapshot exceeds a limit (or cannot be shown as safe) and no review cleared it. */
 		flagged: boolean('flagged').notNull().default(false),
+		/** Some accessible point lacks an input: saved as work in progress, not reviewable until complete. */
+		draft: boolean('draft').notNull().default(false),
 		/** The latest snapshot no longer reflects the path, its line or the limits it used. */
 		stale: boolean('stale').notNull().default(false),
 		retired: boolean('retired').notNull().default(false),

@@ -64,7 +64,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		limits: limitRows.map((l) => ({ id: l.limitId, version: l.version, label: l.label, citation: l.citation, demonstration: l.demonstration, tissue: l.tissue })),
 		changes,
 		review,
-		decide: user.role === 'officer' ? { allowed: !self && !detail.path.stale, reason: self ?? (detail.path.stale ? 'The assessment is being re-evaluated; decide once the new result is in.' : null) } : null,
+		decide: user.role === 'officer' ? { allowed: !self && !detail.path.stale && !detail.path.draft, reason: self ?? (detail.path.stale ? 'The assessment is being re-evaluated; decide once the new result is in.' : detail.path.draft ? reviews.draftReason : null) } : null,
 		decisionForm: await superValidate(start, zod4(decisionSchema), { errors: false, id: 'decision' }),
 		replyForm: await superValidate(zod4(replySchema), { id: 'reply' })
 	};
