@@ -29,6 +29,9 @@ export const pathStateWords: Record<PathState, StateWord> = {
 	no_review_needed: { word: 'no review needed', icon: 'blank', tone: 'quiet', hint: 'The latest assessment is within limit.' }
 };
 
+/** A stored emission line whose values the engine refuses (stored before the line rules, or imported). */
+export const lineNeedsAttentionWord: StateWord = { word: 'cannot be assessed', icon: 'half', tone: 'caution', hint: 'The line’s stored values break the rules of the assessment; correct the line before relying on any path of it.' };
+
 /** A stored snapshot that a change of line, limit or engine made out of date (a newer one replaces it). */
 export const snapshotOutdatedWord: StateWord = { word: 'out of date', icon: 'clock', tone: 'caution', hint: 'Its laser line, a limit or the engine changed after this snapshot; a re-evaluation replaces it.' };
 

@@ -6,6 +6,7 @@ import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { lineToSI, type LineValues, type NewLaserForm } from '$lib/schemas/register';
+import { lineFromRow } from '$lib/schemas/assessment';
 import { lineProblems } from '$lib/server/hazard';
 import type { LaserClass, LaserStatus } from '$lib/enums';
 import type { z } from 'zod';
@@ -51,6 +52,8 @@ export type InventoryRow = {
 	pathCount: number;
 	flaggedCount: number;
 	staleCount: number;
+	/** Lines stored with values the engine cannot assess (saved before the line rules, or imported): said, never hidden. */
+	linesNeedingAttention: number;
 	/** An officer suspended it after an incident (laser_suspension): no new clearance until lifted. */
 	suspended: boolean;
 	updatedAt: string;
@@ -149,8 +152,23 @@ export async function inventory(scope: Scope, q: InventoryQuery): Promise<Invent
 		.leftJoin(lines, eq(lines.laserId, table.laser.id))
 		.where(inArray(table.laser.id, ids));
 	const byId = new Map(rows.map((r) => [r.id, r]));
-	const items = ids.map((id) => byId.get(id)!).map((r) => ({ ...r, updatedAt: r.updatedAt.toISOString() }));
+	const attention = await linesNeedingAttention(ids);
+	const items = ids.map((id) => byId.get(id)!).map((r) => ({ ...r, linesNeedingAttention: attention.get(r.id) ?? 0, updatedAt: r.updatedAt.toISOString() }));
 	return { items, total, page: q.page, pageSize: q.pageSize };
+}
+
+/** Per laser, how many of its lines the engine's own rules refuse (the same rules the line form applies). */
+async function linesNeedingAttention(laserIds: string[]): Promise<Map<string, number>> {
+	const out = new Map<string, number>();
+	if (laserIds.length === 0) return out;
+	const rows = await db.select().from(table.emissionLine).where(inArray(table.emissionLine.laserId, laserIds));
+	for (const row of rows) if (lineProblems(lineFromRow(row)).length) out.set(row.laserId, (out.get(row.laserId) ?? 0) + 1);
+	return out;
+}
+
+/** The engine's objections to a stored line, by field ('' when it has none). */
+export function lineObjections(row: typeof table.emissionLine.$inferSelect): string[] {
+	return lineProblems(lineFromRow(row)).map((p) => p.reason);
 }
 
 export type LaserDetail = Awaited<ReturnType<typeof loadDetail>>;
