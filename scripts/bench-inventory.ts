@@ -3,6 +3,7 @@
 //   npm run bench:inventory            (npm run bench:inventory -- --reuse keeps the multiplied database)
 import { execFileSync, spawn } from 'node:child_process';
 import { performance } from 'node:perf_hooks';
+import { freePort } from '../tests/free-port';
 
 const port = process.env.BEAMWARDEN_PGPORT ?? '54329';
 const dbName = 'beamwarden_scale';
@@ -45,9 +46,10 @@ for (const [label, scope, q] of queries) {
 await client.end();
 
 // Over HTTP, against the built server (build it first: npx vite build).
-const server = spawn('node', ['build'], { env: { ...env, HOST: '127.0.0.1', PORT: '3400', ORIGIN: 'http://127.0.0.1:3400', BEAMWARDEN_JOBS: 'off' }, stdio: 'ignore' });
+const appPort = await freePort();
+const base = `http://127.0.0.1:${appPort}`;
+const server = spawn('node', ['build'], { env: { ...env, HOST: '127.0.0.1', PORT: String(appPort), ORIGIN: base, BEAMWARDEN_JOBS: 'off' }, stdio: 'ignore' });
 try {
-	const base = 'http://127.0.0.1:3400';
 	for (let i = 0; i < 50; i++) {
 		try {
 			if ((await fetch(`${base}/api/health`)).ok) break;

@@ -5,6 +5,7 @@ ensure_node_modules() {
 		echo "Installing npm packages…"
 		npm ci --no-audit --no-fund --loglevel=error
 	fi
+	node scripts/patch-postgres.mjs >/dev/null # idempotent; see the script for why
 }
 
 ensure_chromium() {

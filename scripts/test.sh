@@ -19,3 +19,5 @@ echo "== build"
 npx vite build --logLevel error
 echo "== end-to-end tests (Chromium)"
 npx playwright test
+echo "== two app instances on one PostgreSQL"
+npx playwright test -c playwright.scale.config.ts

@@ -1,5 +1,7 @@
-// Multiplies the demo register to campus scale for the inventory benchmark:
-//   tsx seed/multiply.ts [lasers=5000] [elementsPerPath=4]
+// Multiplies the demo register to campus scale for the benchmarks (the scale seed):
+//   tsx seed/multiply.ts [lasers=5000] [elementsPerPath=4] [awaitingReview=0]
+// awaitingReview: that many of the new paths wait on the review desk, each with an assessment
+// snapshot copied from a flagged demo path's.
 // Invented data in bulk (one INSERT per table per batch), in the database of DATABASE_URL.
 import { sql } from 'drizzle-orm';
 import { db, client } from '$lib/server/db';
@@ -7,6 +9,7 @@ import * as table from '$lib/server/db/schema';
 
 const lasers = Number(process.argv[2] ?? 5000);
 const perPath = Number(process.argv[3] ?? 4);
+const awaiting = Number(process.argv[4] ?? 0);
 const classes = ['3B', '4', '4', '3R', '4'] as const;
 const statuses = ['active', 'active', 'active', 'in_storage', 'retired'] as const;
 const lines = [
@@ -67,7 +70,26 @@ while (made < lasers) {
 	});
 	made += n;
 }
+if (awaiting > 0) {
+	// Snapshots copied from a flagged demo path: the review desk shows each path's latest one.
+	await db.execute(sql`
+		WITH picked AS (
+			SELECT p.id, row_number() OVER (ORDER BY p.id) AS n FROM beam_path p JOIN laser l ON l.id = p.laser_id
+			WHERE l.serial LIKE 'SCALE-%' AND l.status <> 'retired' LIMIT ${awaiting}
+		)
+		UPDATE beam_path SET review_state = 'awaiting_review', flagged = true, stale = false, verdict = 'exceeds_limit',
+			awaiting_since = now() - (picked.n || ' minutes')::interval
+		FROM picked WHERE picked.id = beam_path.id`);
+	await db.execute(sql`
+		INSERT INTO assessment (path_id, path_version, engine_version, inputs, result, verdict, worst_ratio, required_od, limit_versions, cause, created_at)
+		SELECT p.id, p.version, a.engine_version, a.inputs, a.result, a.verdict, a.worst_ratio, a.required_od, a.limit_versions, 'save', p.awaiting_since
+		FROM beam_path p JOIN laser l ON l.id = p.laser_id,
+			LATERAL (SELECT * FROM assessment WHERE verdict = 'exceeds_limit' ORDER BY created_at DESC LIMIT 1) a
+		WHERE l.serial LIKE 'SCALE-%' AND p.review_state = 'awaiting_review'`);
+}
 await db.execute(sql`ANALYZE`);
-const [{ lasers: nl, elements: ne }] = await db.execute<{ lasers: number; elements: number }>(sql`SELECT (SELECT count(*)::int FROM laser) AS lasers, (SELECT count(*)::int FROM path_element) AS elements`);
-console.log(`Register multiplied: ${nl} lasers, ${ne} path elements (${((Date.now() - started) / 1000).toFixed(1)} s).`);
+const [{ lasers: nl, elements: ne, waiting }] = await db.execute<{ lasers: number; elements: number; waiting: number }>(
+	sql`SELECT (SELECT count(*)::int FROM laser) AS lasers, (SELECT count(*)::int FROM path_element) AS elements, (SELECT count(*)::int FROM beam_path WHERE review_state = 'awaiting_review') AS waiting`
+);
+console.log(`Register multiplied: ${nl} lasers, ${ne} path elements, ${waiting} paths awaiting review (${((Date.now() - started) / 1000).toFixed(1)} s).`);
 await client.end();

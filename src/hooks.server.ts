@@ -3,12 +3,14 @@ import { error, json, redirect, type Handle, type HandleServerError, type Server
 import { sequence } from '@sveltejs/kit/hooks';
 import { client } from '$lib/server/db';
 import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from '$lib/server/db/errors';
+import { databaseDown, noteUnavailable, onOutage } from '$lib/server/db/outage';
 import { readConfig } from '$lib/server/config';
 import { startJobs, stopJobs } from '$lib/server/jobs';
 import * as auth from '$lib/server/auth/session';
 import { allows, ruleFor } from '$lib/server/auth/policy';
 import { forbidden } from '$lib/server/auth/guard';
 import { apiError } from '$lib/server/api';
+import { bodyLimitFor, drain, tooLargeMessage, withBodyLimit } from '$lib/server/bodyLimit';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -59,6 +61,45 @@ const handleUnavailable: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
+// Body limits by kind of route (bodyLimit.ts): a declared size over the limit is refused before
+// anything reads it; a streamed body is cut off where it passes the limit, and its reader answers 413.
+const handleBodyLimit: Handle = async ({ event, resolve }) => {
+	const { method, headers } = event.request;
+	if (method === 'GET' || method === 'HEAD' || !event.request.body) return resolve(event);
+	const limit = bodyLimitFor(event.route.id, event.url);
+	if (Number(headers.get('content-length') ?? 0) > limit) {
+		void drain(event.request.body);
+		const close = { connection: 'close' };
+		if (isApi(event.url.pathname)) return json({ message: tooLargeMessage } satisfies App.Error, { status: 413, headers: close });
+		if ((headers.get('accept') ?? '').includes('application/json')) return json({ type: 'error', error: { message: tooLargeMessage } }, { status: 413, headers: close });
+		return new Response(tooLargeMessage, { status: 413, headers: { 'content-type': 'text/plain; charset=utf-8', ...close } });
+	}
+	event.request = withBodyLimit(event.request, limit);
+	return resolve(event);
+};
+
+// While the database is down, answer at once (db/outage.ts) rather than queue behind reconnects;
+// a request already in flight when the outage is noticed gets IN_FLIGHT_GRACE_MS to finish, then its
+// 503 (a write not finished by then is not acknowledged: it either committed or rolled back).
+const IN_FLIGHT_GRACE_MS = 300;
+const handleOutage: Handle = async ({ event, resolve }) => {
+	if (databaseDown()) {
+		void drain(event.request.body);
+		return unavailable(event.url.pathname);
+	}
+	let timer: ReturnType<typeof setTimeout> | undefined;
+	let forget = () => {};
+	const cutOff = new Promise<Response>((done) => {
+		forget = onOutage(() => (timer = setTimeout(() => done(unavailable(event.url.pathname)), IN_FLIGHT_GRACE_MS)));
+	});
+	try {
+		return await Promise.race([resolve(event), cutOff]);
+	} finally {
+		forget();
+		clearTimeout(timer);
+	}
+};
+
 const handleSession: Handle = async ({ event, resolve }) => {
 	const token = event.cookies.get(auth.sessionCookieName);
 	event.locals.user = null;
@@ -71,7 +112,10 @@ const handleSession: Handle = async ({ event, resolve }) => {
 			event.locals.user = user;
 			event.locals.session = session;
 		} catch (e) {
-			if (isDatabaseUnavailable(e)) return unavailable(event.url.pathname);
+			if (isDatabaseUnavailable(e)) {
+				noteUnavailable();
+				return unavailable(event.url.pathname);
+			}
 			throw e;
 		}
 	}
@@ -122,10 +166,11 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(securityHeaders, handleUnavailable, handleSession, handleJsonOrigin, handleGuard);
+export const handle = sequence(securityHeaders, handleUnavailable, handleBodyLimit, handleOutage, handleSession, handleJsonOrigin, handleGuard);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (isDatabaseUnavailable(error)) {
+		noteUnavailable();
 		event.locals.databaseUnavailable = true;
 		return { message: DATABASE_UNAVAILABLE };
 	}

@@ -1,83 +1,20 @@
 // The access matrix: every route × method (and form action) × anonymous, each role and a
 // disabled user, compared with the written policy. A route missing from the policy fails.
-import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join, relative } from 'node:path';
 import { expect, test, type APIRequestContext } from '@playwright/test';
-import postgres from 'postgres';
 import { routePolicy, allows } from '../../src/lib/server/auth/policy';
 import { roles, type Role } from '../../src/lib/roles';
 import { anonymousClient, demo, signedInClient } from './helpers';
-
-type Endpoint = { routeId: string; kind: 'page' | 'api'; method: string; action?: string };
-
-function discover(dir = 'src/routes'): Endpoint[] {
-	const found: Endpoint[] = [];
-	const walk = (d: string) => {
-		for (const name of readdirSync(d)) {
-			const p = join(d, name);
-			if (statSync(p).isDirectory()) walk(p);
-		}
-		const routeId = '/' + relative(dir, d).split('\\').join('/');
-		const id = routeId === '/' ? '/' : routeId.replace(/\/$/, '');
-		const has = (f: string) => readdirSync(d).includes(f);
-		if (has('+page.svelte') || has('+page.server.ts')) {
-			found.push({ routeId: id, kind: 'page', method: 'GET' });
-			if (has('+page.server.ts')) {
-				const src = readFileSync(join(d, '+page.server.ts'), 'utf8');
-				const block = src.split('export const actions')[1];
-				if (block) for (const m of block.matchAll(/^\t(\w+): async function/gm)) found.push({ routeId: id, kind: 'page', method: 'POST', action: m[1] });
-			}
-		}
-		if (has('+server.ts')) {
-			const src = readFileSync(join(d, '+server.ts'), 'utf8');
-			for (const m of src.matchAll(/export (?:const|async function) (GET|POST|PUT|PATCH|DELETE)\b/g)) found.push({ routeId: id, kind: 'api', method: m[1] });
-		}
-	};
-	walk(dir);
-	return found;
-}
+import { discover, sampleIds, urlOf as fill } from './routes';
 
 const endpoints = discover();
 let clients: Record<Role | 'anonymous' | 'disabled', APIRequestContext>;
 let sample: Record<string, string>;
 
-function urlOf(routeId: string, action?: string) {
-	const path = routeId.replace(/\/\([^)]+\)/g, '').replace(/\[(\w+)\]/g, (_, name: string) => sample[name]) || '/';
-	return action && action !== 'default' ? `${path}?/${action}` : path;
-}
+const urlOf = (routeId: string, action?: string) => fill(routeId, sample, action);
 
 test.beforeAll(async () => {
 	const admin = await signedInClient(demo('admin'));
-	const list = (await (await admin.get('/api/admin/users')).json()) as { users: { id: string; email: string }[] };
-	// Records the demo researcher may see: a laser of their lab, its line and path, and a limit.
-	const inventory = await (await admin.get('/api/lasers?q=Solace')).json();
-	const laser = await (await admin.get(`/api/lasers/${inventory.items[0].id}`)).json();
-	const { limits } = await (await admin.get('/api/limits')).json();
-	// Records without a JSON listing are looked up in the end-to-end database itself.
-	const sql = postgres(`postgres://beamwarden_app@127.0.0.1:${process.env.BEAMWARDEN_PGPORT ?? '54329'}/beamwarden_e2e`, { max: 1 });
-	const [spx] = await sql`SELECT i.id AS inspection_id, d.id AS document_id FROM inspection i JOIN area a ON a.id = i.area_id JOIN lab l ON l.id = a.lab_id LEFT JOIN document d ON d.entity_id = i.id::text WHERE l.code = 'SPX' AND d.id IS NOT NULL LIMIT 1`;
-	const [goggles] = await sql`SELECT id FROM eyewear LIMIT 1`;
-	const [incident] = await sql`SELECT id FROM incident WHERE state <> 'draft' ORDER BY number LIMIT 1`;
-	// Procedures, authorisations and areas of the demo researcher's lab SPX.
-	const [spxArea] = await sql`SELECT a.id FROM area a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
-	const [spxProcedure] = await sql`SELECT p.id FROM procedure p JOIN lab l ON l.id = p.lab_id WHERE l.code = 'SPX' LIMIT 1`;
-	const [spxAuthorisation] = await sql`SELECT a.id FROM authorisation a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
-	await sql.end();
-	sample = {
-		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
-		laserId: laser.laser.id,
-		lineId: laser.lines[0].id,
-		pathId: laser.paths[0].id,
-		limitId: limits[0].limitId,
-		inspectionId: spx.inspection_id,
-		documentId: spx.document_id,
-		eyewearId: goggles.id,
-		incidentId: incident.id,
-		areaId: spxArea.id,
-		procedureId: spxProcedure.id,
-		authorisationId: spxAuthorisation.id,
-		token: 'not-a-real-token'
-	};
+	sample = await sampleIds(admin);
 	// A disabled person whose session was live before the disable
 	const person = { email: `disabled-${Date.now()}@test.example`, password: 'a long enough test passphrase' };
 	const created = await admin.post('/api/admin/users', { data: { name: 'Soon Disabled', email: person.email, role: 'officer', labIds: [], password: person.password } });

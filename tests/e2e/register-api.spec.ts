@@ -1,6 +1,6 @@
-// The register's JSON API: lab scope (403), bad input (400 with field messages), stale versions (409)
+// The register's JSON API: lab scope (404, like an unknown id), bad input (400 with field messages), stale versions (409)
 // and the documented answers (200/201).
-import { expect, test, type APIRequestContext } from '@playwright/test';
+import { expect, test, type APIRequestContext, type APIResponse } from '@playwright/test';
 import { demoUsers } from '../../seed/demo';
 import { demo, signedInClient } from './helpers';
 
@@ -12,6 +12,15 @@ let officer: APIRequestContext;
 let laserId: string;
 let lineId: string;
 let labId: string;
+
+/** The same status and the same body (pages: with the per-request CSP nonce and request ids blanked). */
+async function expectLikeUnknown(theirs: Promise<APIResponse>, unknown: Promise<APIResponse>) {
+	const [a, b] = await Promise.all([theirs, unknown]);
+	const blank = (t: string) => t.replace(/nonce="[^"]*"|nonce-[A-Za-z0-9+/=]+/g, 'nonce').replace(/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/g, 'id');
+	expect(a.status()).toBe(404);
+	expect(b.status()).toBe(404);
+	expect(blank(await a.text())).toBe(blank(await b.text()));
+}
 
 const line = { label: '', mode: 'continuous', wavelength: '633 nm', wavelengthMax: '', power: '20 mW', pulseEnergy: '', pulseDuration: '', repetitionRate: '', beamDiameter: '0.8 mm', beamDiameterDefinition: '1/e2', divergence: '1.2 mrad', divergenceDefinition: '1/e2', beamQuality: '' };
 const element = { label: '', length: '', transmission: '', reflectance: '', magnification: '', focalLength: '', coreDiameter: '', numericalAperture: '', couplingTransmission: '' };
@@ -43,12 +52,14 @@ test('lasers: documented answers, lab scope and field messages', async () => {
 	const page = await (await mine.get('/api/lasers?band=visible&sort=updated&dir=desc&pageSize=5')).json();
 	expect(page).toMatchObject({ page: 1, pageSize: 5 });
 	expect(page.items.length).toBeGreaterThan(0);
-	expect(Object.keys(page.items[0]).sort()).toEqual(['areaName', 'flaggedCount', 'id', 'labCode', 'labName', 'laserClass', 'lineCount', 'maker', 'model', 'pathCount', 'serial', 'staleCount', 'status', 'suspended', 'updatedAt', 'wavelengthMax', 'wavelengthMin']);
+	expect(Object.keys(page.items[0]).sort()).toEqual(['areaName', 'flaggedCount', 'id', 'labCode', 'labName', 'laserClass', 'lineCount', 'linesNeedingAttention', 'maker', 'model', 'pathCount', 'serial', 'staleCount', 'status', 'suspended', 'updatedAt', 'wavelengthMax', 'wavelengthMin']);
 	// another lab's researcher sees neither the laser nor it in the list
-	expect((await other.get(`/api/lasers/${laserId}`)).status()).toBe(403);
+	// exactly like an unknown id (status and body): another lab's records never reveal they exist
+	await expectLikeUnknown(other.get(`/api/lasers/${laserId}`), other.get(`/api/lasers/${crypto.randomUUID()}`));
+	await expectLikeUnknown(other.get(`/lasers/${laserId}`), other.get(`/lasers/${crypto.randomUUID()}`));
 	const theirs = await (await other.get('/api/lasers?q=HeNe%2020')).json();
 	expect(theirs.total).toBe(0);
-	expect((await other.patch(`/api/lasers/${laserId}`, { data: { labId, maker: 'x', model: 'y', serial: '', laserClass: '4', status: 'active', notes: '', version: 1 } })).status()).toBe(403);
+	expect((await other.patch(`/api/lasers/${laserId}`, { data: { labId, maker: 'x', model: 'y', serial: '', laserClass: '4', status: 'active', notes: '', version: 1 } })).status()).toBe(404);
 	// bad query and bad body
 	const badQuery = await mine.get('/api/lasers?band=gamma&page=0');
 	expect(badQuery.status()).toBe(400);
@@ -84,7 +95,7 @@ test('lasers: a stale edit answers 409 and loses nothing', async () => {
 	expect((await (await mine.get(`/api/lasers/${laserId}`)).json()).laser.model).toBe('HeNe 20 (renamed)');
 });
 
-test('beam paths: create, read, 400 naming the field, 409 on a stale version, 403 for another lab', async () => {
+test('beam paths: create, read, 400 naming the field, 409 on a stale version, 404 for another lab', async () => {
 	const created = await mine.post(`/api/lasers/${laserId}/paths`, { data: pathBody() });
 	expect(created.status()).toBe(201);
 	const saved = await created.json();
@@ -103,9 +114,11 @@ test('beam paths: create, read, 400 naming the field, 409 on a stale version, 40
 	expect(stale.status()).toBe(409);
 	expect((await (await mine.get(`/api/paths/${saved.id}`)).json()).path.name).toBe('first');
 
-	expect((await other.get(`/api/paths/${saved.id}`)).status()).toBe(403);
-	expect((await other.put(`/api/paths/${saved.id}`, { data: pathBody({ version: 2 }) })).status()).toBe(403);
-	expect((await other.post(`/api/lasers/${laserId}/paths`, { data: pathBody() })).status()).toBe(403);
+	await expectLikeUnknown(other.get(`/api/paths/${saved.id}`), other.get(`/api/paths/${crypto.randomUUID()}`));
+	await expectLikeUnknown(other.get(`/paths/${saved.id}`), other.get(`/paths/${crypto.randomUUID()}`));
+	await expectLikeUnknown(other.get(`/reviews/${saved.id}`), other.get(`/reviews/${crypto.randomUUID()}`));
+	await expectLikeUnknown(other.put(`/api/paths/${saved.id}`, { data: pathBody({ version: 2 }) }), other.put(`/api/paths/${crypto.randomUUID()}`, { data: pathBody({ version: 2 }) }));
+	await expectLikeUnknown(other.post(`/api/lasers/${laserId}/paths`, { data: pathBody() }), other.post(`/api/lasers/${crypto.randomUUID()}/paths`, { data: pathBody() }));
 });
 
 test('preview: the engine result with its working, or 400 naming the field', async () => {

@@ -1,10 +1,12 @@
 import { createHash } from 'node:crypto';
-import { eq, sql } from 'drizzle-orm';
+import { eq, isNull, sql } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import { hashPassword, passwordProblem, verifyPassword } from '$lib/server/auth/password';
 import * as auth from '$lib/server/auth/session';
+import * as deviceCookies from '$lib/server/auth/device';
+import * as throttle from '$lib/server/auth/throttle';
 import * as passwordResets from '$lib/server/passwordResets';
 import * as users from '$lib/server/users';
 import { makeLab, makeUser } from './factories';
@@ -99,30 +101,183 @@ describe('sessions [ASVS 7.2.x, 7.3.x, 7.4.x]', () => {
 	});
 });
 
-describe('sign-in throttling [ASVS 6.3.1]', () => {
+describe('sign-in throttling [ASVS 6.1.1, 6.3.1]: slow the attacker, never lock the owner out', () => {
+	let n = 0;
+	/** A fresh documentation-range address per call, so tests never share counters. */
+	const addr = () => `198.18.${Math.floor(++n / 250)}.${n % 250}.${process.pid % 100}`;
+	const signedInBefore = async (u: { email: string; password: string }, address: string) => {
+		const first = await users.authenticate(u.email, u.password, address);
+		if (!first.ok) throw new Error('the owner could not sign in');
+		return first.deviceToken;
+	};
+
 	it('locks an account at one address after repeated failures, while its owner signs in from elsewhere', async () => {
 		const u = await makeUser();
-		const attacker = '203.0.113.7'; // documentation address range (RFC 5737)
-		for (let i = 0; i < 5; i++) expect(await users.authenticate(u.email, 'wrong guess number ' + i, attacker)).toEqual({ ok: false, reason: 'invalid' });
+		const attacker = addr();
+		for (let i = 0; i < throttle.LIMITS.pair; i++) expect(await users.authenticate(u.email, 'wrong guess number ' + i, attacker)).toEqual({ ok: false, reason: 'invalid' });
 		const locked = await users.authenticate(u.email, u.password, attacker);
-		expect(locked.ok).toBe(false);
-		expect(locked).toMatchObject({ reason: 'throttled' });
-		const owner = await users.authenticate(u.email, u.password, '198.51.100.20');
-		expect(owner).toEqual({ ok: true, userId: u.id });
+		expect(locked).toMatchObject({ ok: false, reason: 'throttled' });
+		expect(await users.authenticate(u.email, u.password, addr())).toMatchObject({ ok: true, userId: u.id });
+	});
+
+	it('a stranger at the same address (a shared proxy) trying many accounts, and the owner’s own account, never stops the browser the owner signed in from before', async () => {
+		const owner = await makeUser();
+		const proxy = addr();
+		const device = await signedInBefore(owner, proxy);
+		// spraying: one guess on each of 60 accounts, then guesses on the owner's account, all from the proxy
+		// (the stranger's failures recorded as a failed authenticate records them, without 70 password hashings)
+		await users.authenticate(`nobody-first-${proxy}@test.example`, 'Spring2026!', proxy);
+		for (let i = 0; i < 60; i++) await throttle.recordFailure({ email: `nobody-${i}-${proxy}@test.example`, address: proxy, device: null });
+		for (let i = 0; i < 10; i++) await throttle.recordFailure({ email: owner.email, address: proxy, device: null });
+		// a browser that never signed in to the account waits…
+		const colleague = await makeUser();
+		expect(await users.authenticate(colleague.email, colleague.password, proxy)).toMatchObject({ ok: false, reason: 'throttled' });
+		// …the owner's browser that signed in before does not
+		expect(await users.authenticate(owner.email, owner.password, proxy, device)).toMatchObject({ ok: true, userId: owner.id });
+	});
+
+	it('failures on one account from many addresses (100 over 25) never stop the owner’s browser that signed in before; a new browser waits', async () => {
+		const owner = await makeUser();
+		const device = await signedInBefore(owner, addr());
+		for (let a = 0; a < 25; a++) {
+			const from = addr();
+			for (let i = 0; i < 4; i++) await throttle.recordFailure({ email: owner.email, address: from, device: null });
+		}
+		expect(await users.authenticate(owner.email, owner.password, addr())).toMatchObject({ ok: false, reason: 'throttled' });
+		expect(await users.authenticate(owner.email, owner.password, addr(), device)).toMatchObject({ ok: true, userId: owner.id });
+	});
+
+	it('a device cookie counts only for the account it was issued to, signed with our key; guessing with a stolen one locks that cookie alone', async () => {
+		const owner = await makeUser();
+		const other = await makeUser();
+		const device = await signedInBefore(owner, addr());
+		const [nonce, signature] = device.split('.');
+		expect(await deviceCookies.verify(device, owner.email)).toBe(nonce);
+		expect(await deviceCookies.verify(device, ` ${owner.email.toUpperCase()} `)).toBe(nonce);
+		expect(await deviceCookies.verify(device, other.email)).toBeNull();
+		expect(await deviceCookies.verify(`${nonce}x.${signature}`, owner.email)).toBeNull();
+		expect(await deviceCookies.verify(`${nonce}.${signature.slice(1)}A`, owner.email)).toBeNull();
+		expect(await deviceCookies.verify(`${device}.extra`, owner.email)).toBeNull();
+		expect(await deviceCookies.verify(undefined, owner.email)).toBeNull();
+
+		const thief = addr();
+		for (let i = 0; i < throttle.LIMITS.device; i++) await users.authenticate(owner.email, `stolen cookie guess ${i}`, thief, device);
+		expect(await users.authenticate(owner.email, owner.password, thief, device)).toMatchObject({ ok: false, reason: 'throttled' });
+		// the account itself is not locked by the stolen cookie's failures
+		expect(await users.authenticate(owner.email, owner.password, addr())).toMatchObject({ ok: true });
 	});
 
 	it('answers an unknown account exactly like a wrong password', async () => {
 		const u = await makeUser();
-		const unknown = await users.authenticate('nobody-here@test.example', 'whatever password', '192.0.2.1');
-		const wrong = await users.authenticate(u.email, 'not the password', '192.0.2.2');
+		const unknown = await users.authenticate('nobody-here@test.example', 'whatever password', addr());
+		const wrong = await users.authenticate(u.email, 'not the password', addr());
 		expect(unknown).toEqual(wrong);
 	});
 
 	it('keeps the counters in PostgreSQL, where every app instance sees them', async () => {
 		const u = await makeUser();
-		await users.authenticate(u.email, 'nope nope nope', '192.0.2.9');
-		const rows = await db.select().from(table.signInThrottle).where(sql`${table.signInThrottle.key} LIKE ${'%' + u.email + '%'}`);
-		expect(rows.map((r) => r.key.split(':')[0]).sort()).toEqual(['account', 'pair']);
+		const from = addr();
+		await users.authenticate(u.email, 'nope nope nope', from);
+		const rows = await db.select().from(table.signInThrottle).where(sql`${table.signInThrottle.key} LIKE ${'%' + u.email + '%'} OR ${table.signInThrottle.key} = ${'address:' + from}`);
+		expect(rows.map((r) => r.key.split(':')[0]).sort()).toEqual(['account', 'address', 'pair']);
+	});
+
+	it('purges rows whose window and lock have passed, and keeps the ones that still count', async () => {
+		const u = await makeUser();
+		const longAgo = new Date(Date.now() - 2 * throttle.WINDOW_MS - throttle.LOCK_MS);
+		const old = { email: u.email, address: addr(), device: null };
+		for (let i = 0; i < throttle.LIMITS.pair; i++) await throttle.recordFailure(old, longAgo);
+		const live = { email: u.email, address: addr(), device: null };
+		await throttle.recordFailure(live);
+		const keyOf = (a: { email: string; address: string }) => `pair:${a.email}|${a.address}`;
+		expect(await throttle.purge()).toBeGreaterThanOrEqual(1);
+		const left = (await db.select({ key: table.signInThrottle.key }).from(table.signInThrottle)).map((r) => r.key);
+		expect(left).not.toContain(keyOf(old));
+		expect(left).toContain(keyOf(live));
+	});
+
+	it('a completed password reset ends the account’s locks, so the owner can sign in from a new browser', async () => {
+		const owner = await makeUser();
+		for (let a = 0; a < 5; a++) {
+			const from = addr();
+			for (let i = 0; i < 5; i++) await users.authenticate(owner.email, `guess ${a}-${i}`, from);
+		}
+		const home = addr();
+		expect(await users.authenticate(owner.email, owner.password, home)).toMatchObject({ reason: 'throttled' });
+		const token = `reset-for-${owner.id}`;
+		await db.insert(table.passwordReset).values({ tokenHash: createHash('sha256').update(token).digest('hex'), userId: owner.id, expiresAt: new Date(Date.now() + 60_000) });
+		expect(await passwordResets.complete(token, 'a brand new passphrase 4040')).toEqual({ ok: true });
+		expect(await users.authenticate(owner.email, 'a brand new passphrase 4040', home)).toMatchObject({ ok: true });
+	});
+});
+
+describe('password reset requests [ASVS 6.3.x]: the same work for every address, limited per client and per account', () => {
+	let n = 0;
+	const addr = () => `198.19.${Math.floor(++n / 250)}.${n % 250}`;
+	const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
+	it('writes the same for a known and an unknown address (one request row, no link yet); the mail job links only the active account', async () => {
+		const u = await makeUser();
+		const links = () => db.$count(table.passwordReset, eq(table.passwordReset.userId, u.id));
+		const mails = () => db.$count(table.mailOutbox, eq(table.mailOutbox.kind, 'password.reset'));
+		const [linksBefore, mailsBefore] = [await links(), await mails()];
+		expect(await passwordResets.request(u.email, addr())).toEqual({ ok: true });
+		expect(await passwordResets.request(`nobody-${u.id}@test.example`, addr())).toEqual({ ok: true });
+		expect([await links(), await mails()]).toEqual([linksBefore, mailsBefore]);
+		const rows = await db.select().from(table.passwordResetRequest).where(sql`${table.passwordResetRequest.email} IN (${u.email}, ${`nobody-${u.id}@test.example`})`);
+		expect(rows).toHaveLength(2);
+		expect(rows.every((r) => r.processedAt === null)).toBe(true);
+		await passwordResets.processRequests();
+		expect([await links(), await mails()]).toEqual([linksBefore + 1, mailsBefore + 1]);
+		expect(await db.$count(table.passwordResetRequest, isNull(table.passwordResetRequest.processedAt))).toBe(0);
+	});
+
+	it('takes as long for a known address as for an unknown one', async () => {
+		const u = await makeUser();
+		const known: number[] = [];
+		const unknown: number[] = [];
+		const time = async (email: string) => {
+			const t = performance.now();
+			await passwordResets.request(email, addr());
+			return performance.now() - t;
+		};
+		for (let i = 0; i < 30; i++) {
+			const k = await time(u.email);
+			const x = await time(`unknown-${i}-${u.id}@test.example`);
+			if (i >= 5) [known.push(k), unknown.push(x)];
+		}
+		const ratio = median(known) / median(unknown);
+		expect(ratio, `known ${median(known).toFixed(2)} ms, unknown ${median(unknown).toFixed(2)} ms`).toBeGreaterThan(0.6);
+		expect(ratio, `known ${median(known).toFixed(2)} ms, unknown ${median(unknown).toFixed(2)} ms`).toBeLessThan(1.6);
+	});
+
+	it('answers 429 after 10 requests an hour from one client address, whichever accounts they name', async () => {
+		const from = addr();
+		for (let i = 0; i < passwordResets.MAX_PER_ADDRESS_PER_HOUR; i++) expect(await passwordResets.request(`spray-${i}-${from}@test.example`, from)).toEqual({ ok: true });
+		expect(await passwordResets.request('one-more@test.example', from)).toMatchObject({ ok: false, status: 429 });
+		expect(await passwordResets.request('one-more@test.example', addr())).toEqual({ ok: true });
+	});
+
+	it('mails at most 3 links an hour to one account, however many addresses ask; the answer never changes', async () => {
+		const u = await makeUser();
+		for (let i = 0; i < 8; i++) expect(await passwordResets.request(u.email, addr())).toEqual({ ok: true });
+		await passwordResets.processRequests();
+		expect(await db.$count(table.passwordReset, eq(table.passwordReset.userId, u.id))).toBe(passwordResets.MAX_LINKS_PER_ACCOUNT_PER_HOUR);
+	});
+
+	it('two mail jobs at once never take the same request', async () => {
+		const people = await Promise.all([makeUser(), makeUser(), makeUser(), makeUser()]);
+		for (const p of people) await passwordResets.request(p.email, addr());
+		const [a, b] = await Promise.all([passwordResets.processRequests(), passwordResets.processRequests()]);
+		expect(a.linked + b.linked).toBe(4);
+		for (const p of people) expect(await db.$count(table.passwordReset, eq(table.passwordReset.userId, p.id))).toBe(1);
+	});
+
+	it('forgets requests older than a day', async () => {
+		const from = addr();
+		await passwordResets.request('old-request@test.example', from, new Date(Date.now() - 25 * 3600_000));
+		expect(await passwordResets.purgeRequests()).toBeGreaterThanOrEqual(1);
+		expect(await db.$count(table.passwordResetRequest, eq(table.passwordResetRequest.address, from))).toBe(0);
 	});
 });
 

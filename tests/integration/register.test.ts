@@ -44,7 +44,10 @@ describe('lasers', () => {
 		expect(Number(laser.lines[0].wavelength)).toBe(5.32e-7);
 		expect(Number(laser.laser.wavelengthMin)).toBe(5.32e-7);
 		expect(await lasers.create(researcher, laserForm(labB.id))).toMatchObject({ ok: false, status: 403 });
-		expect(await lasers.find(researcher, (await newLaser(officer, labB.id)).laser.id)).toMatchObject({ ok: false, status: 403 });
+		// another lab's laser answers exactly like an unknown id: its existence never leaks
+		const theirs = await lasers.find(researcher, (await newLaser(officer, labB.id)).laser.id);
+		expect(theirs).toMatchObject({ ok: false, status: 404 });
+		expect(theirs).toEqual(await lasers.find(researcher, crypto.randomUUID()));
 	});
 
 	it('names the field of a value that does not parse, and saves nothing', async () => {
@@ -68,6 +71,14 @@ describe('lasers', () => {
 });
 
 describe('beam paths and their assessment snapshots', () => {
+	it('another lab’s laser is unknown to a path save; a retired laser’s paths are kept but not changed, saying why', async () => {
+		const theirs = await newLaser(officer, labB.id);
+		expect(await paths.save(researcher, theirs.laser.id, null, pathForm(theirs.lines[0].id))).toMatchObject({ ok: false, status: 404 });
+		const mine = await newLaser(researcher, labA.id);
+		await db.update(table.laser).set({ status: 'retired' }).where(eq(table.laser.id, mine.laser.id));
+		expect(await paths.save(researcher, mine.laser.id, null, pathForm(mine.lines[0].id))).toMatchObject({ ok: false, status: 403, message: expect.stringMatching(/retired/) });
+	});
+
 	it('saves a path with a splitter and a lens; with no applicable limit it is flagged, never within limit', async () => {
 		const laser = await newLaser(researcher, labA.id);
 		const saved = await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id));

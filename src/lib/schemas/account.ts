@@ -1,6 +1,8 @@
 import { z } from 'zod';
 
-export const resetRequestSchema = z.object({ email: z.string().trim().min(1, 'Enter your e-mail address.').max(254) }).strict();
+export const resetRequestSchema = z
+	.object({ email: z.string().trim().min(1, 'Enter your e-mail address.').max(254).pipe(z.email({ error: 'Enter an e-mail address like name@example.org.' })) })
+	.strict();
 
 export const newPasswordSchema = z
 	.object({

@@ -4,7 +4,7 @@ import { roles } from '$lib/roles';
 const email = z.email({ error: 'Enter an e-mail address like name@example.org.' }).max(254).trim().toLowerCase();
 
 export const signInSchema = z.object({
-	email: z.string().trim().min(1, 'Enter your e-mail address.').max(254),
+	email: z.string().trim().min(1, 'Enter your e-mail address.').max(254).pipe(z.email({ error: 'Enter an e-mail address like name@example.org.' })),
 	password: z.string().min(1, 'Enter your password.').max(256, 'That is longer than any password here.')
 });
 

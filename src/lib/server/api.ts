@@ -2,6 +2,8 @@
 import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from './db/errors';
+import { noteUnavailable } from './db/outage';
+import { isTooLarge, tooLargeMessage } from './bodyLimit';
 
 export type ApiError = App.Error;
 
@@ -18,7 +20,10 @@ export function endpoint<H extends RequestHandler<any, any>>(handler: H): H {
 		} catch (e) {
 			if (isRedirect(e)) throw e;
 			if (isHttpError(e)) return json(e.body, { status: e.status });
-			if (isDatabaseUnavailable(e)) return apiError(503, DATABASE_UNAVAILABLE);
+			if (isDatabaseUnavailable(e)) {
+				noteUnavailable();
+				return apiError(503, DATABASE_UNAVAILABLE);
+			}
 			const refused = refusedInput(e);
 			if (refused) {
 				console.error('API input refused by the database', event.route.id, (e as Error).message);
@@ -38,7 +43,8 @@ export async function readJson<S extends z.ZodType>(
 	let body: unknown;
 	try {
 		body = await request.json();
-	} catch {
+	} catch (e) {
+		if (isTooLarge(e)) return { ok: false, response: apiError(413, tooLargeMessage) };
 		return { ok: false, response: apiError(400, 'The request body must be JSON.') };
 	}
 	const parsed = schema.safeParse(body);

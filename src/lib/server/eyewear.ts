@@ -5,7 +5,7 @@ import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, type Scope } from '$lib/server/auth/scope';
-import { changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import { adequacy, type AdequacyResult, type BandOnRecord, type Requirement } from '$lib/server/eyewearAdequacy';
 import type { EyewearForm } from '$lib/schemas/eyewear';
@@ -36,7 +36,7 @@ export async function find(scope: Scope, eyewearId: string) {
 }
 
 export async function save(scope: Scope, eyewearId: string | null, form: EyewearForm): Promise<{ ok: true; id: string } | Failure> {
-	if (scope.role !== 'officer' || !canEdit(scope, form.labId)) return notYours('eyewear');
+	if (scope.role !== 'officer' || !canEdit(scope, form.labId)) return cannotChange('eyewear');
 	const values = {
 		labId: form.labId,
 		label: form.label,
@@ -141,7 +141,7 @@ export async function retire(scope: Scope, eyewearId: string, version: number): 
 	return db.transaction(async (tx) => {
 		const [old] = await tx.select().from(table.eyewear).where(eq(table.eyewear.id, eyewearId)).for('update');
 		if (!old) return notFound('eyewear');
-		if (scope.role !== 'officer' || !canEdit(scope, old.labId)) return notYours('eyewear');
+		if (scope.role !== 'officer' || !canEdit(scope, old.labId)) return cannotChange('eyewear');
 		if (old.version !== version || old.retired) return changedMeanwhile('eyewear');
 		const [after] = await tx.update(table.eyewear).set({ retired: true, version: version + 1 }).where(eq(table.eyewear.id, eyewearId)).returning();
 		await audit.record(tx, { actorId: scope.userId, action: 'eyewear.retire', entity: 'eyewear', entityId: eyewearId, before: old, after });

@@ -6,7 +6,7 @@ import { eyewearSchema, type EyewearForm } from '$lib/schemas/eyewear';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
 import { formatQuantity } from '$lib/units';
 
@@ -34,7 +34,7 @@ export async function loadEyewearForm(locals: App.Locals, eyewearId: string | nu
 
 export async function saveEyewearForm(locals: App.Locals, request: Request, eyewearId: string | null) {
 	const scope = await scopeOf(requireRole(locals, 'officer'));
-	const form = await superValidate(request, zod4(eyewearSchema));
+	const form = await readForm(request, zod4(eyewearSchema));
 	if (!form.valid) return fail(400, { form });
 	const result = await eyewear.save(scope, eyewearId, form.data);
 	if (!result.ok) return failForm(form, result);

@@ -9,6 +9,9 @@ export function failure(status: Failure['status'], message: string, fields?: Rec
 
 export const fieldsNeedAttention = (fields: Record<string, string | string[]>) => failure(400, 'Some fields need attention.', fields);
 export const notFound = (what: string) => failure(404, `No such ${what}.`);
-export const notYours = (what: string) => failure(403, `This ${what} belongs to a lab you are not a member of, or your role cannot change it.`);
+/** A record of a lab the person may not see answers exactly like an unknown id: its existence never leaks. */
+export const notYours = notFound;
+/** A record the person may see but not change (their role, or a lab they may read but not edit). */
+export const cannotChange = (what: string) => failure(403, `You can see this ${what} but not change it: it belongs to a lab you are not a member of, or your role cannot change it.`);
 export const changedMeanwhile = (what: string) =>
 	failure(409, `Someone else changed this ${what} while you were editing. Nothing was saved; reload to see their change, then apply yours again.`);

@@ -5,20 +5,18 @@ import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { closeActionSchema, reportSchema } from '$lib/schemas/incidents';
 import type { Scope } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, formFields, readFormData } from '$lib/server/forms';
 import * as incidents from '$lib/server/incidents';
 import { readUploads } from '$lib/server/uploads';
 import { failure } from '$lib/server/failure';
 
 export async function saveReportForm(scope: Scope, request: Request, incidentId: string | null) {
-	let data: FormData;
-	try {
-		data = await request.formData();
-	} catch {
+	const data = await formFields(request);
+	if (!data) {
 		const form = await superValidate(zod4(reportSchema));
 		return failForm(form, failure(400, 'The form could not be read; send it again.'));
 	}
-	const form = await superValidate(data, zod4(reportSchema));
+	const form = await readFormData(data, zod4(reportSchema));
 	if (!form.valid) return fail(400, { form });
 	const files = await readUploads(data, 'photos');
 	if (!files.ok) return failForm(form, { ...files, message: `${files.message} Nothing was saved; choose the photos again.` });
@@ -29,13 +27,11 @@ export async function saveReportForm(scope: Scope, request: Request, incidentId:
 
 /** Closing an action with its evidence (text and photos), from this page or from the list of one's actions. */
 export async function closeActionFromForm(scope: Scope, request: Request) {
-	let data: FormData;
-	try {
-		data = await request.formData();
-	} catch {
+	const data = await formFields(request);
+	if (!data) {
 		return failForm(await superValidate(zod4(closeActionSchema), { id: 'close-action' }), failure(400, 'The form could not be read; send it again.'));
 	}
-	const form = await superValidate(data, zod4(closeActionSchema));
+	const form = await readFormData(data, zod4(closeActionSchema));
 	if (!form.valid) return fail(400, { closeActionForm: form });
 	const files = await readUploads(data, 'photos');
 	if (!files.ok) return failForm(form, { ...files, message: `${files.message} Nothing was saved; choose the photos again.` });

@@ -4,12 +4,13 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
-import { changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { lineToSI, type LineValues, type NewLaserForm } from '$lib/schemas/register';
 import { lineFromRow } from '$lib/schemas/assessment';
 import { lineProblems } from '$lib/server/hazard';
 import type { LaserClass, LaserStatus } from '$lib/enums';
 import type { z } from 'zod';
+import { inventoryQuerySchema } from '$lib/schemas/inventory';
 import type { editLaserSchema, lineSchema } from '$lib/schemas/register';
 
 /** Wavelength bands of the inventory filter, m. */
@@ -71,6 +72,15 @@ const sortColumns: Record<SortKey, SQL | typeof table.laser.model> = {
 };
 
 /** One query for the page and one for the count, whatever the page size: no query per row. */
+/** The inventory's filters from a query string (GET /api/lasers and the register page read the same). */
+export function inventoryFromQuery(searchParams: URLSearchParams): { ok: true; query: InventoryQuery } | { ok: false; error: z.ZodError } {
+	const raw = Object.fromEntries([...searchParams].filter(([, v]) => v !== ''));
+	const parsed = inventoryQuerySchema.safeParse(raw);
+	if (!parsed.success) return { ok: false, error: parsed.error };
+	const q = parsed.data;
+	return { ok: true, query: { q: q.q, labId: q.lab, laserClass: q.class, status: q.status, band: q.band, sort: q.sort, dir: q.dir, page: q.page, pageSize: q.pageSize } };
+}
+
 export async function inventory(scope: Scope, q: InventoryQuery): Promise<InventoryPage> {
 	const where: SQL[] = [];
 	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
@@ -239,7 +249,7 @@ async function refreshWavelengthSpan(tx: Tx, laserId: string) {
 }
 
 export async function create(scope: Scope, input: NewLaserForm): Promise<{ ok: true; id: string } | Failure> {
-	if (!canEdit(scope, input.labId)) return notYours('lab');
+	if (!canEdit(scope, input.labId)) return cannotChange('lab');
 	const line = checkedLine(input.line, 'line.');
 	if (!line.ok) return fieldsNeedAttention(line.errors);
 	const [labRow] = await db.select({ id: table.lab.id }).from(table.lab).where(eq(table.lab.id, input.labId));
@@ -268,7 +278,7 @@ export async function create(scope: Scope, input: NewLaserForm): Promise<{ ok: t
 export async function update(scope: Scope, laserId: string, input: z.infer<typeof editLaserSchema>): Promise<{ ok: true } | Failure> {
 	const found = await find(scope, laserId);
 	if (!found.ok) return found;
-	if (!found.editable || !canEdit(scope, input.labId)) return notYours('laser');
+	if (!found.editable || !canEdit(scope, input.labId)) return cannotChange('laser');
 	return db.transaction(async (tx) => {
 		const [labRow] = await tx.select({ id: table.lab.id }).from(table.lab).where(eq(table.lab.id, input.labId));
 		if (!labRow) return fieldsNeedAttention({ labId: 'Unknown lab.' });
@@ -288,7 +298,7 @@ export async function update(scope: Scope, laserId: string, input: z.infer<typeo
 export async function saveLine(scope: Scope, laserId: string, lineId: string | null, input: z.infer<typeof lineSchema>): Promise<{ ok: true; id: string } | Failure> {
 	const found = await find(scope, laserId);
 	if (!found.ok) return found;
-	if (!found.editable) return notYours('laser');
+	if (!found.editable) return cannotChange('laser');
 	const line = checkedLine(input);
 	if (!line.ok) return fieldsNeedAttention(line.errors);
 	return db.transaction(async (tx) => {

@@ -8,7 +8,7 @@ import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as lasers from '$lib/server/lasers';
 import * as paths from '$lib/server/paths';
 import * as reviews from '$lib/server/reviews';
@@ -138,7 +138,7 @@ export async function loadPath(locals: App.Locals, pathId: string) {
 
 export async function savePath(locals: App.Locals, request: Request, laserId: string | null, pathId: string | null) {
 	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-	const form = await superValidate(request, zod4(pathFormSchema));
+	const form = await readForm(request, zod4(pathFormSchema));
 	if (!form.valid) return fail(400, { form });
 	let forLaser = laserId;
 	if (pathId) {

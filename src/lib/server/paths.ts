@@ -5,7 +5,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
-import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { cannotChange, changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { currentLimits, evaluatePath, latestFor, lockLimitLibrary, needsReview } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
 import * as reviews from '$lib/server/reviews';
@@ -102,7 +102,8 @@ export async function save(scope: Scope, laserId: string, pathId: string | null,
 	const [laserRow] = await db.select().from(table.laser).where(eq(table.laser.id, laserId));
 	if (!laserRow) return notFound('laser');
 	if (!canRead(scope, laserRow.labId)) return notYours('laser');
-	if (!canEdit(scope, laserRow.labId) || laserRow.status === 'retired') return notYours('laser');
+	if (!canEdit(scope, laserRow.labId)) return cannotChange('laser');
+	if (laserRow.status === 'retired') return failure(403, 'This laser is retired: its beam paths are kept for the record and can no longer be changed.');
 	const si = pathToSI(form);
 	if (!si.ok) return fieldsNeedAttention(si.errors);
 	if (pathId !== null && !isUuid(pathId)) return notFound('beam path');

@@ -5,7 +5,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canRead, type Scope } from '$lib/server/auth/scope';
-import { failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { cannotChange, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import { needsReview } from '$lib/server/assessments';
 import { notify, officerIds } from '$lib/server/notifications';
@@ -78,7 +78,9 @@ export function eyewearControls(result: AssessmentResult | null): DecisionForm['
 const pathStateSql = sql<PathState>`(CASE WHEN ${table.beamPath.stale} THEN 'being_reevaluated' WHEN ${table.beamPath.draft} THEN 'draft' WHEN ${table.beamPath.reviewState} = 'awaiting_review' AND ${table.beamPath.clearedAssessmentId} IS NOT NULL THEN 'changed_since_clearance' WHEN ${table.beamPath.reviewState} = 'not_needed' THEN 'no_review_needed' ELSE ${table.beamPath.reviewState}::text END)`;
 
 /** 'waiting': everything the officer has to decide on; 'all': every path that was ever reviewed or waits. */
-export type QueueFilter = { labId?: string; state?: PathState | 'waiting' | 'all' };
+export type QueueFilter = { labId?: string; state?: PathState | 'waiting' | 'all'; page?: number };
+/** Rows per page of the review desk: the oldest first, a page at a time. */
+export const QUEUE_PAGE_SIZE = 50;
 
 /** Paths waiting for review (or as filtered), oldest first; one query for the page. */
 export async function queue(scope: Scope, filter: QueueFilter = {}) {
@@ -89,8 +91,18 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 	if (state === 'all') where.push(sql`(${table.beamPath.reviewState} <> 'not_needed' OR ${table.beamPath.stale})`);
 	else if (state === 'waiting') where.push(eq(table.beamPath.reviewState, 'awaiting_review'));
 	else where.push(sql`${pathStateSql} = ${state}`);
-	// The latest snapshot of each listed path only (a lateral join on the path's index), never a
-	// pass over every snapshot ever taken.
+	// The page first (filtered, sorted, limited on the review index), then the latest snapshot of
+	// each path on it only: a lateral join on the path's index, never a pass over every waiting path.
+	const waitingSince = sql`coalesce(${table.beamPath.awaitingSince}, ${table.beamPath.updatedAt})`;
+	const onPage = db
+		.select({ id: table.beamPath.id, since: sql<Date>`${waitingSince}`.as('since') })
+		.from(table.beamPath)
+		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
+		.where(and(...where))
+		.orderBy(asc(waitingSince), asc(table.beamPath.id))
+		.limit(QUEUE_PAGE_SIZE + 1) // one more than shown: whether a next page exists
+		.offset(((filter.page ?? 1) - 1) * QUEUE_PAGE_SIZE)
+		.as('on_page');
 	const latest = db
 		.select({
 			worstRatio: table.assessment.worstRatio,
@@ -119,13 +131,12 @@ export async function queue(scope: Scope, filter: QueueFilter = {}) {
 			worstRatio: latest.worstRatio,
 			requiredOd: latest.requiredOd
 		})
-		.from(table.beamPath)
+		.from(onPage)
+		.innerJoin(table.beamPath, eq(table.beamPath.id, onPage.id))
 		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
 		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
 		.leftJoinLateral(latest, sql`true`)
-		.where(and(...where))
-		.orderBy(asc(sql`coalesce(${table.beamPath.awaitingSince}, ${table.beamPath.updatedAt})`))
-		.limit(500);
+		.orderBy(asc(onPage.since), asc(onPage.id));
 }
 
 export type QueueRow = Awaited<ReturnType<typeof queue>>[number];
@@ -299,7 +310,8 @@ export async function reply(scope: Scope, pathId: string, body: string): Promise
 		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
 		.where(eq(table.beamPath.id, pathId));
 	if (!row) return notFound('beam path');
-	if (!canRead(scope, row.labId) || (scope.role !== 'researcher' && scope.role !== 'officer')) return notYours('beam path');
+	if (!canRead(scope, row.labId)) return notYours('beam path');
+	if (scope.role !== 'researcher' && scope.role !== 'officer') return cannotChange('beam path');
 	const [last] = await db.select().from(table.reviewDecision).where(eq(table.reviewDecision.pathId, pathId)).orderBy(desc(table.reviewDecision.decidedAt)).limit(1);
 	if (!last || last.decision !== 'returned') return failure(409, 'There is no returned review to answer.');
 	await db.transaction(async (tx) => {

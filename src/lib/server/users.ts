@@ -3,6 +3,7 @@ import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { burnVerification, hashPassword, passwordProblem, verifyPassword } from '$lib/server/auth/password';
+import * as device from '$lib/server/auth/device';
 import * as throttle from '$lib/server/auth/throttle';
 import type { NewUserInput, UpdateUserInput } from '$lib/schemas/users';
 import type { Failure } from '$lib/server/failure';
@@ -121,12 +122,17 @@ export async function update(actorId: string, userId: string, input: UpdateUserI
 	});
 }
 
-export type SignInOutcome = { ok: true; userId: string } | { ok: false; reason: 'invalid' } | { ok: false; reason: 'throttled'; retryAfter: number };
+export type SignInOutcome = { ok: true; userId: string; deviceToken: string } | { ok: false; reason: 'invalid' } | { ok: false; reason: 'throttled'; retryAfter: number };
 
-/** The same answer for an unknown account, a wrong password and a disabled account. */
-export async function authenticate(emailInput: string, password: string, address: string): Promise<SignInOutcome> {
+/**
+ * The same answer for an unknown account, a wrong password and a disabled account. `deviceToken` is
+ * the browser's device cookie, if any: when it was issued for this account, only this browser's own
+ * failures can throttle it (auth/throttle.ts). A success hands back a fresh device token to keep.
+ */
+export async function authenticate(emailInput: string, password: string, address: string, deviceToken?: string): Promise<SignInOutcome> {
 	const email = emailInput.trim().toLowerCase();
-	const wait = await throttle.lockedFor(email, address);
+	const attempt: throttle.Attempt = { email, address, device: await device.verify(deviceToken, email) };
+	const wait = await throttle.lockedFor(attempt);
 	if (wait > 0) return { ok: false, reason: 'throttled', retryAfter: wait };
 	const [person] = await db
 		.select({ id: table.user.id, passwordHash: table.user.passwordHash, disabled: table.user.disabled })
@@ -134,11 +140,11 @@ export async function authenticate(emailInput: string, password: string, address
 		.where(eq(table.user.email, email));
 	const valid = person ? await verifyPassword(person.passwordHash, password) : (await burnVerification(password), false);
 	if (!person || !valid || person.disabled) {
-		await throttle.recordFailure(email, address);
+		await throttle.recordFailure(attempt);
 		return { ok: false, reason: 'invalid' };
 	}
-	await throttle.recordSuccess(email, address);
-	return { ok: true, userId: person.id };
+	await throttle.recordSuccess(attempt);
+	return { ok: true, userId: person.id, deviceToken: await device.issue(email) };
 }
 
 export async function setPassword(actorId: string | null, userId: string, password: string): Promise<void> {

@@ -33,7 +33,8 @@ function hashingAdapter(inner: Adapter): Adapter {
 	};
 }
 
-const secureCookie = process.env.BEAMWARDEN_INSECURE_COOKIE !== '1';
+/** Cookies are `Secure` unless explicitly turned off for plain-HTTP local use. */
+export const secureCookie = process.env.BEAMWARDEN_INSECURE_COOKIE !== '1';
 
 export const lucia = new Lucia(hashingAdapter(new DrizzlePostgreSQLAdapter(db, table.session, table.user)), {
 	sessionExpiresIn: IDLE_TIMEOUT,

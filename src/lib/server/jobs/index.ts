@@ -6,6 +6,9 @@ import { queueDefinitions, queues, type QueueName } from './queues';
 import * as paths from '$lib/server/paths';
 import * as reminders from '$lib/server/reminders';
 import * as outbox from '$lib/server/mail/outbox';
+import * as passwordResets from '$lib/server/passwordResets';
+import * as throttle from '$lib/server/auth/throttle';
+import * as auth from '$lib/server/auth/session';
 
 let boss: PgBoss | null = null;
 
@@ -31,9 +34,16 @@ const handlers: Record<QueueName, () => Promise<unknown>> = {
 		return { ...counts, ...delivered };
 	},
 	[queues.mailDeliver]: async () => {
+		const resets = await passwordResets.processRequests(new Date());
 		const notifications = await reminders.enqueueNotificationMails(new Date());
 		const delivered = await outbox.deliverAll();
-		return { notifications: notifications.inserted, ...delivered };
+		return { resets: resets.linked, notifications: notifications.inserted, ...delivered };
+	},
+	[queues.housekeeping]: async () => {
+		const throttleRows = await throttle.purge();
+		const resetRequests = await passwordResets.purgeRequests();
+		await auth.lucia.deleteExpiredSessions();
+		return { throttleRows, resetRequests };
 	}
 };
 

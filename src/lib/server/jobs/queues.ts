@@ -4,8 +4,10 @@ export const queues = {
 	reassessPaths: 'reassess-paths',
 	/** Once a day: put the day's reminders in the mail ledger, assemble digests, then deliver. */
 	mailDaily: 'mail-daily',
-	/** Every minute and on a nudge: mail new in-app notifications and send what the ledger has due. */
-	mailDeliver: 'mail-deliver'
+	/** Every minute and on a nudge: turn reset requests into links, mail new in-app notifications and send what the ledger has due. */
+	mailDeliver: 'mail-deliver',
+	/** Every hour: forget sign-in throttle rows, reset requests and sessions that count for nothing any more. */
+	housekeeping: 'housekeeping'
 } as const;
 
 export type QueueName = (typeof queues)[keyof typeof queues];
@@ -17,5 +19,6 @@ export type QueueName = (typeof queues)[keyof typeof queues];
 export const queueDefinitions: { name: QueueName; policy: 'standard' | 'stately'; cron?: string }[] = [
 	{ name: queues.reassessPaths, policy: 'stately', cron: '*/5 * * * *' },
 	{ name: queues.mailDaily, policy: 'stately', cron: '0 6 * * *' },
-	{ name: queues.mailDeliver, policy: 'stately', cron: '* * * * *' }
+	{ name: queues.mailDeliver, policy: 'stately', cron: '* * * * *' },
+	{ name: queues.housekeeping, policy: 'stately', cron: '17 * * * *' }
 ];

@@ -5,7 +5,7 @@ import { grantSchema, requestSchema, type GrantForm } from '$lib/schemas/authori
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
 import * as procedures from '$lib/server/procedures';
@@ -51,7 +51,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	request: async function requestAuthorisation({ locals, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(requestSchema), { id: 'request' });
+		const form = await readForm(request, zod4(requestSchema), { id: 'request' });
 		if (!form.valid) return fail(400, { requestForm: form });
 		const r = await authorisations.request(scope, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -60,7 +60,7 @@ export const actions: Actions = {
 	},
 	grant: async function grantAuthorisation({ locals, request }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(grantSchema), { id: 'grant' });
+		const form = await readForm(request, zod4(grantSchema), { id: 'grant' });
 		if (!form.valid) return fail(400, { grantForm: form });
 		const r = await authorisations.grant(scope, form.data, todayISO());
 		if (!r.ok) return failForm(form, r);

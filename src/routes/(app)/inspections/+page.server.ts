@@ -1,5 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import { assignSchema } from '$lib/schemas/inspections';
+import { formObject } from '$lib/server/forms';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as inspections from '$lib/server/inspections';
@@ -17,7 +18,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	assign: async function assignInspector({ locals, request }) {
 		const scope = await scopeOf(requireRole(locals, 'manager', 'officer'));
-		const parsed = assignSchema.safeParse(Object.fromEntries(await request.formData()));
+		const parsed = assignSchema.safeParse(await formObject(request));
 		if (!parsed.success) return fail(400, { assignError: parsed.error.issues[0].message });
 		const r = await inspections.assign(scope, parsed.data.inspectionId, parsed.data.inspectorId, parsed.data.version);
 		if (!r.ok) return fail(r.status, { assignError: r.fields ? Object.values(r.fields)[0][0] : r.message, inspectionId: parsed.data.inspectionId });

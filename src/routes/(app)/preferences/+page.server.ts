@@ -1,5 +1,6 @@
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
+import { readForm } from '$lib/server/forms';
 import { preferencesSchema } from '$lib/schemas/account';
 import { requireUser } from '$lib/server/auth/guard';
 import * as preferences from '$lib/server/preferences';
@@ -13,7 +14,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	save: async function savePreferences({ locals, request }) {
 		const user = requireUser(locals);
-		const form = await superValidate(request, zod4(preferencesSchema));
+		const form = await readForm(request, zod4(preferencesSchema));
 		if (!form.valid) return fail(400, { form });
 		await preferences.setMailMode(user.id, form.data.mailMode);
 		return message(form, 'Saved.');

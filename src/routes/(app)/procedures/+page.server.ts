@@ -4,7 +4,7 @@ import { intervalSchema } from '$lib/schemas/procedures';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as procedures from '$lib/server/procedures';
 import { signoffState } from '$lib/authorisationState';
 import { todayISO } from '$lib/inspectionState';
@@ -34,7 +34,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	interval: async function setInterval({ locals, request }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(intervalSchema), { id: 'interval' });
+		const form = await readForm(request, zod4(intervalSchema), { id: 'interval' });
 		if (!form.valid) return fail(400, { intervalForm: form });
 		const r = await procedures.setSignoffInterval(scope, form.data.months, form.data.version);
 		if (!r.ok) return failForm(form, r);

@@ -2,7 +2,7 @@ import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { recordTrainingSchema, withdrawTrainingSchema } from '$lib/schemas/training';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as training from '$lib/server/training';
 import { todayISO } from '$lib/inspectionState';
 import type { Actions, PageServerLoad } from './$types';
@@ -26,7 +26,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	record: async function recordTraining({ locals, request }) {
 		const officer = requireRole(locals, 'officer');
-		const form = await superValidate(request, zod4(recordTrainingSchema), { id: 'record' });
+		const form = await readForm(request, zod4(recordTrainingSchema), { id: 'record' });
 		if (!form.valid) return fail(400, { recordForm: form });
 		const result = await training.record(officer.id, form.data, todayISO());
 		if (!result.ok) return failForm(form, result);
@@ -34,7 +34,7 @@ export const actions: Actions = {
 	},
 	withdraw: async function withdrawTraining({ locals, request }) {
 		const officer = requireRole(locals, 'officer');
-		const form = await superValidate(request, zod4(withdrawTrainingSchema), { id: 'withdraw' });
+		const form = await readForm(request, zod4(withdrawTrainingSchema), { id: 'withdraw' });
 		if (!form.valid) return fail(400, { withdrawForm: form });
 		const result = await training.withdraw(officer.id, form.data);
 		if (!result.ok) return failForm(form, result);

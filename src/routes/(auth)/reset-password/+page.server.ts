@@ -1,5 +1,6 @@
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
+import { readForm } from '$lib/server/forms';
 import { resetRequestSchema } from '$lib/schemas/account';
 import * as resets from '$lib/server/passwordResets';
 import type { Actions, PageServerLoad } from './$types';
@@ -7,10 +8,11 @@ import type { Actions, PageServerLoad } from './$types';
 export const load: PageServerLoad = async () => ({ form: await superValidate(zod4(resetRequestSchema)) });
 
 export const actions: Actions = {
-	default: async function requestReset({ request }) {
-		const form = await superValidate(request, zod4(resetRequestSchema));
+	default: async function requestReset({ request, getClientAddress }) {
+		const form = await readForm(request, zod4(resetRequestSchema));
 		if (!form.valid) return fail(400, { form });
-		await resets.request(form.data.email);
+		const outcome = await resets.request(form.data.email, getClientAddress());
+		if (!outcome.ok) return message(form, outcome.message, { status: outcome.status });
 		return message(form, 'If an active account uses this address, a link to choose a new password is on its way. It works once, for 30 minutes.');
 	}
 };

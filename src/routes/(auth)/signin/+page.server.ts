@@ -1,8 +1,10 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
+import { readForm } from '$lib/server/forms';
 import { signInSchema } from '$lib/schemas/users';
 import * as auth from '$lib/server/auth/session';
+import * as device from '$lib/server/auth/device';
 import { safeNext } from '$lib/server/auth/next';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
@@ -13,19 +15,20 @@ export const load: PageServerLoad = async () => {
 
 export const actions: Actions = {
 	default: async function signIn(event) {
-		const form = await superValidate(event.request, zod4(signInSchema));
+		const form = await readForm(event.request, zod4(signInSchema));
 		if (!form.valid) return fail(400, { form: { ...form, data: { ...form.data, password: '' } } });
-		const outcome = await users.authenticate(form.data.email, form.data.password, event.getClientAddress());
+		const outcome = await users.authenticate(form.data.email, form.data.password, event.getClientAddress(), event.cookies.get(device.deviceCookieName));
 		form.data.password = '';
 		if (!outcome.ok && outcome.reason === 'throttled') {
 			const minutes = Math.ceil(outcome.retryAfter / 60);
-			return message(form, `Too many failed attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or ask an administrator.`, { status: 429 });
+			return message(form, `Too many failed attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, sign in from a browser you have used here before, or reset your password.`, { status: 429 });
 		}
 		if (!outcome.ok) return message(form, 'That e-mail and password do not match an active account.', { status: 400 });
 		// A fresh session on every sign-in; the old one (if any) ends.
 		if (event.locals.session) await auth.invalidateSession(event.locals.session.id);
 		const session = await auth.createSession(outcome.userId);
 		auth.setSessionCookie(event.cookies, session.id);
+		device.setDeviceCookie(event.cookies, outcome.deviceToken);
 		redirect(303, safeNext(event.url.searchParams.get('next'), event.url.origin));
 	}
 };

@@ -1,6 +1,5 @@
 import { json } from '@sveltejs/kit';
 import { newLaserSchema } from '$lib/schemas/register';
-import { inventoryQuerySchema } from '$lib/schemas/inventory';
 import { apiError, endpoint, fieldMessages, readJson } from '$lib/server/api';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
@@ -11,21 +10,9 @@ export type InventoryResponse = lasers.InventoryPage;
 
 export const GET: RequestHandler = endpoint(async ({ locals, url }) => {
 	const user = requireUser(locals);
-	const raw = Object.fromEntries([...url.searchParams].filter(([, v]) => v !== ''));
-	const parsed = inventoryQuerySchema.safeParse(raw);
-	if (!parsed.success) return apiError(400, 'Some query parameters need attention.', fieldMessages(parsed.error));
-	const q = parsed.data;
-	const page = await lasers.inventory(await scopeOf(user), {
-		q: q.q,
-		labId: q.lab,
-		laserClass: q.class,
-		status: q.status,
-		band: q.band,
-		sort: q.sort,
-		dir: q.dir,
-		page: q.page,
-		pageSize: q.pageSize
-	});
+	const filters = lasers.inventoryFromQuery(url.searchParams);
+	if (!filters.ok) return apiError(400, 'Some query parameters need attention.', fieldMessages(filters.error));
+	const page = await lasers.inventory(await scopeOf(user), filters.query);
 	return json(page satisfies InventoryResponse);
 });
 

@@ -69,6 +69,8 @@ export const laser = pgTable(
 		index('laser_class_idx').on(t.laserClass),
 		index('laser_wavelength_idx').on(t.wavelengthMin, t.wavelengthMax),
 		index('laser_updated_idx').on(t.updatedAt),
+		// the register's default order (lasers.inventory): the first page is read off the index
+		index('laser_model_idx').on(t.model, t.id),
 		index('laser_search_idx').using('gin', sql`(${t.maker} || ' ' || ${t.model} || ' ' || ${t.serial}) gin_trgm_ops`)
 	]
 );
@@ -137,7 +139,13 @@ export const beamPath = pgTable(
 		createdAt: created(),
 		updatedAt: updated()
 	},
-	(t) => [index('beam_path_laser_idx').on(t.laserId), index('beam_path_flagged_idx').on(t.flagged, t.stale), index('beam_path_review_idx').on(t.reviewState, t.awaitingSince)]
+	(t) => [
+		index('beam_path_laser_idx').on(t.laserId),
+		index('beam_path_flagged_idx').on(t.flagged, t.stale),
+		index('beam_path_review_idx').on(t.reviewState, t.awaitingSince),
+		// the review desk's order (reviews.queue): a page is read off the index, oldest first
+		index('beam_path_review_queue_idx').on(t.reviewState, sql`coalesce(${t.awaitingSince}, ${t.updatedAt})`, t.id)
+	]
 );
 
 /** The emission lines a beam path carries (all lines emitted together, or a subset with a reason). */

@@ -6,7 +6,7 @@ import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as areas from '$lib/server/areas';
 import * as authorisations from '$lib/server/authorisations';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import { orError } from '$lib/server/pages';
 import * as procedures from '$lib/server/procedures';
 import { todayISO } from '$lib/inspectionState';
@@ -40,7 +40,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	visit: async function recordVisit({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(visitSchema), { id: 'visit' });
+		const form = await readForm(request, zod4(visitSchema), { id: 'visit' });
 		if (!form.valid) return fail(400, { visitForm: form });
 		const r = await areas.recordVisit(scope, params.areaId, form.data);
 		if (!r.ok) return failForm(form, r);

@@ -5,7 +5,7 @@ import { decideSchema, withdrawSchema, type DecideForm } from '$lib/schemas/auth
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import { orError } from '$lib/server/pages';
 import { todayISO } from '$lib/inspectionState';
 import type { Actions, PageServerLoad } from './$types';
@@ -44,7 +44,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	decide: async function decideAuthorisation({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(decideSchema), { id: 'decide' });
+		const form = await readForm(request, zod4(decideSchema), { id: 'decide' });
 		if (!form.valid) return fail(400, { decideForm: form });
 		const r = await authorisations.decide(scope, params.authorisationId, form.data, todayISO());
 		if (!r.ok) return failForm(form, r);
@@ -52,7 +52,7 @@ export const actions: Actions = {
 	},
 	withdraw: async function withdrawAuthorisation({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(withdrawSchema), { id: 'withdraw' });
+		const form = await readForm(request, zod4(withdrawSchema), { id: 'withdraw' });
 		if (!form.valid) return fail(400, { withdrawForm: form });
 		const r = await authorisations.withdraw(scope, params.authorisationId, form.data.reason, form.data.version);
 		if (!r.ok) return failForm(form, r);

@@ -1,5 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
+import { formObject } from '$lib/server/forms';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
@@ -14,7 +15,7 @@ export const actions: Actions = {
 	},
 	retire: async function retireEyewear({ locals, request, params }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(Object.fromEntries(await request.formData()));
+		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(await formObject(request));
 		if (!parsed.success) return fail(400, { retireError: 'Reload the page and try again.' });
 		const result = await eyewear.retire(scope, params.eyewearId, parsed.data.version);
 		if (!result.ok) return fail(result.status, { retireError: result.message });

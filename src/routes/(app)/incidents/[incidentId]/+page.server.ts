@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { actionSchema, closeActionSchema, closeIncidentSchema, investigationSchema, liftSchema, suspendSchema, type InvestigationForm } from '$lib/schemas/incidents';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, formFields, readForm } from '$lib/server/forms';
 import { closeActionFromForm } from '$lib/server/incidentForms';
 import * as incidents from '$lib/server/incidents';
 import * as medical from '$lib/server/medical';
@@ -56,7 +56,7 @@ async function officerScope(locals: App.Locals) {
 export const actions: Actions = {
 	investigate: async function recordInvestigation({ locals, request, params }) {
 		const scope = await officerScope(locals);
-		const form = await superValidate(request, zod4(investigationSchema), { id: 'investigation' });
+		const form = await readForm(request, zod4(investigationSchema), { id: 'investigation' });
 		if (!form.valid) return fail(400, { investigationForm: form });
 		const r = await incidents.investigate(scope, params.incidentId, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -64,7 +64,7 @@ export const actions: Actions = {
 	},
 	addAction: async function addCorrectiveAction({ locals, request, params }) {
 		const scope = await officerScope(locals);
-		const form = await superValidate(request, zod4(actionSchema), { id: 'action' });
+		const form = await readForm(request, zod4(actionSchema), { id: 'action' });
 		if (!form.valid) return fail(400, { actionForm: form });
 		const r = await incidents.addAction(scope, params.incidentId, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -76,7 +76,7 @@ export const actions: Actions = {
 	},
 	suspend: async function suspendLaser({ locals, request, params }) {
 		const scope = await officerScope(locals);
-		const form = await superValidate(request, zod4(suspendSchema), { id: 'suspend' });
+		const form = await readForm(request, zod4(suspendSchema), { id: 'suspend' });
 		if (!form.valid) return fail(400, { suspendForm: form });
 		const r = await incidents.suspendFrom(scope, params.incidentId, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -84,7 +84,7 @@ export const actions: Actions = {
 	},
 	lift: async function liftSuspension({ locals, request }) {
 		const scope = await officerScope(locals);
-		const form = await superValidate(request, zod4(liftSchema), { id: 'lift' });
+		const form = await readForm(request, zod4(liftSchema), { id: 'lift' });
 		if (!form.valid) return fail(400, { liftForm: form });
 		const r = await suspensions.lift(scope, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -92,7 +92,7 @@ export const actions: Actions = {
 	},
 	close: async function closeIncident({ locals, request, params }) {
 		const scope = await officerScope(locals);
-		const form = await superValidate(request, zod4(closeIncidentSchema), { id: 'close' });
+		const form = await readForm(request, zod4(closeIncidentSchema), { id: 'close' });
 		if (!form.valid) return fail(400, { closeForm: form });
 		const r = await incidents.close(scope, params.incidentId, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -100,10 +100,8 @@ export const actions: Actions = {
 	},
 	photos: async function addIncidentPhotos({ locals, request, params }) {
 		const scope = await officerScope(locals);
-		let data: FormData;
-		try {
-			data = await request.formData();
-		} catch {
+		const data = await formFields(request);
+		if (!data) {
 			return fail(400, { photoError: 'The upload could not be read; send the form again.' });
 		}
 		const files = await readUploads(data, 'photos');

@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { recordInspectionSchema, type RecordInspectionForm } from '$lib/schemas/inspections';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, formFields, readForm } from '$lib/server/forms';
 import * as inspections from '$lib/server/inspections';
 import { readUploads } from '$lib/server/uploads';
 import { inspectionState, todayISO } from '$lib/inspectionState';
@@ -45,7 +45,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	record: async function recordInspection({ locals, request, params }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(recordInspectionSchema));
+		const form = await readForm(request, zod4(recordInspectionSchema));
 		if (!form.valid) return fail(400, { form });
 		const r = await inspections.record(scope, params.inspectionId, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -53,12 +53,8 @@ export const actions: Actions = {
 	},
 	photos: async function attachPhotos({ locals, request, params }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		let data: FormData;
-		try {
-			data = await request.formData();
-		} catch {
-			return fail(400, { photoError: 'The upload could not be read; send the form again.' });
-		}
+		const data = await formFields(request);
+		if (!data) return fail(400, { photoError: 'The upload could not be read; send the form again.' });
 		const files = await readUploads(data, 'photos');
 		if (!files.ok) return fail(files.status, { photoError: files.message });
 		const r = await inspections.attach(scope, params.inspectionId, files.files);

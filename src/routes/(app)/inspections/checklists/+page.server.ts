@@ -1,5 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { templateSchema } from '$lib/schemas/inspections';
+import { formObject } from '$lib/server/forms';
 import { requireRole } from '$lib/server/auth/guard';
 import * as inspections from '$lib/server/inspections';
 import type { Actions, PageServerLoad } from './$types';
@@ -12,7 +13,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	create: async function createChecklist({ locals, request }) {
 		const officer = requireRole(locals, 'officer');
-		const raw = Object.fromEntries(await request.formData());
+		const raw = await formObject(request);
 		const parsed = templateSchema.safeParse(raw);
 		if (!parsed.success) return fail(400, { error: parsed.error.issues[0].message, values: { name: String(raw.name ?? ''), items: String(raw.items ?? '') } });
 		const lines = parsed.data.items.split('\n').map((l) => l.trim()).filter(Boolean);

@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { newLaserSchema } from '$lib/schemas/register';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
 import * as lasers from '$lib/server/lasers';
 import type { Actions, PageServerLoad } from './$types';
@@ -25,7 +25,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	default: async function registerLaser({ locals, request }) {
 		const user = requireRole(locals, 'researcher', 'officer');
-		const form = await superValidate(request, zod4(newLaserSchema));
+		const form = await readForm(request, zod4(newLaserSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await lasers.create(await scopeOf(user), form.data);
 		if (!result.ok) return failForm(form, result);

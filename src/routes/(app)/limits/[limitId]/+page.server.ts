@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
 import { limitFormSchema, limitFormValues } from '$lib/schemas/limits';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
-import { failForm } from '$lib/server/forms';
+import { failForm, formObject, readForm } from '$lib/server/forms';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
 import type { Actions, PageServerLoad } from './$types';
@@ -28,7 +28,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	revise: async function reviseLimit({ locals, request, params }) {
 		const officer = requireRole(locals, 'officer');
-		const form = await superValidate(request, zod4(limitFormSchema));
+		const form = await readForm(request, zod4(limitFormSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await limits.revise(officer.id, params.limitId, form.data);
 		if (!result.ok) return failForm(form, result);
@@ -36,7 +36,7 @@ export const actions: Actions = {
 	},
 	retire: async function retireLimit({ locals, request, params }) {
 		const officer = requireRole(locals, 'officer');
-		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(Object.fromEntries(await request.formData()));
+		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(await formObject(request));
 		if (!parsed.success) return fail(400, { retireError: 'Reload the page and try again.' });
 		const result = await limits.retire(officer.id, params.limitId, parsed.data.version);
 		if (!result.ok) return fail(result.status, { retireError: result.message });

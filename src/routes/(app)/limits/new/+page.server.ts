@@ -1,6 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
+import { readForm } from '$lib/server/forms';
 import { limitFormSchema } from '$lib/schemas/limits';
 import { requireRole } from '$lib/server/auth/guard';
 import { failForm } from '$lib/server/forms';
@@ -15,7 +16,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	default: async function addLimit({ locals, request }) {
 		const officer = requireRole(locals, 'officer');
-		const form = await superValidate(request, zod4(limitFormSchema));
+		const form = await readForm(request, zod4(limitFormSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await limits.create(officer.id, form.data);
 		if (!result.ok) return failForm(form, result);

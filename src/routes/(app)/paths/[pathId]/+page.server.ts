@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { replySchema } from '$lib/schemas/reviews';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import { loadPath, savePath } from '$lib/server/pathForms';
 import * as reviews from '$lib/server/reviews';
 import type { Actions, PageServerLoad } from './$types';
@@ -18,7 +18,7 @@ export const actions: Actions = {
 	/** The researcher answers a returned review from the path page the mail links to. */
 	reply: async function replyFromPath({ locals, request, params }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(replySchema));
+		const form = await readForm(request, zod4(replySchema));
 		if (!form.valid) return fail(400, { replyForm: form });
 		const result = await reviews.reply(scope, params.pathId, form.data.body);
 		if (!result.ok) return failForm(form, result);

@@ -5,7 +5,7 @@ import { addYears, format } from 'date-fns';
 import { approveSchema, confirmSchema, coverSchema, draftSchema, returnDraftSchema, signSchema, submitSchema } from '$lib/schemas/procedures';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, formFields, readForm } from '$lib/server/forms';
 import * as jobs from '$lib/server/jobs';
 import { queues } from '$lib/server/jobs/queues';
 import { orError } from '$lib/server/pages';
@@ -70,7 +70,7 @@ const mailSoon = () => jobs.nudge(queues.mailDeliver);
 export const actions: Actions = {
 	save: async function saveDraft({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(draftSchema), { id: 'draft' });
+		const form = await readForm(request, zod4(draftSchema), { id: 'draft' });
 		if (!form.valid) return fail(400, { draftForm: form });
 		const r = await procedures.saveDraft(scope, params.procedureId, form.data);
 		if (!r.ok) return failForm(form, r);
@@ -78,15 +78,13 @@ export const actions: Actions = {
 	},
 	attach: async function attachPdf({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		let data: FormData;
-		try {
-			data = await request.formData();
-		} catch {
+		const data = await formFields(request);
+		if (!data) {
 			return fail(400, { pdfError: 'The upload could not be read; send the form again.' });
 		}
 		const version = Number(data.get('version'));
 		if (!Number.isInteger(version) || version < 1) return fail(400, { pdfError: 'Reload the page and try again.' });
-		const files = await readUploads(data, 'pdf', 1);
+		const files = await readUploads(data, 'pdf', 1, 'application/pdf');
 		if (!files.ok) return fail(files.status, { pdfError: files.message });
 		if (files.files.length === 0) return fail(400, { pdfError: 'Choose a PDF file to attach.' });
 		const r = await procedures.attachPdf(scope, params.procedureId, files.files[0], version);
@@ -95,7 +93,7 @@ export const actions: Actions = {
 	},
 	detach: async function detachPdf({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(submitSchema), { id: 'submit' });
+		const form = await readForm(request, zod4(submitSchema), { id: 'submit' });
 		if (!form.valid) return fail(400, { submitForm: form });
 		const r = await procedures.detachPdf(scope, params.procedureId, form.data.version);
 		if (!r.ok) return failForm(form, r);
@@ -104,7 +102,7 @@ export const actions: Actions = {
 	submit: async function submitDraft({ locals, params, request }) {
 		const user = requireRole(locals, 'researcher', 'officer');
 		const scope = await scopeOf(user);
-		const form = await superValidate(request, zod4(submitSchema), { id: 'submit' });
+		const form = await readForm(request, zod4(submitSchema), { id: 'submit' });
 		if (!form.valid) return fail(400, { submitForm: form });
 		const r = await procedures.submit(scope, params.procedureId, form.data.version, { id: user.id, name: user.name });
 		if (!r.ok) return failForm(form, r);
@@ -113,7 +111,7 @@ export const actions: Actions = {
 	},
 	approve: async function approveDraft({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(approveSchema), { id: 'approve' });
+		const form = await readForm(request, zod4(approveSchema), { id: 'approve' });
 		if (!form.valid) return fail(400, { approveForm: form });
 		const r = await procedures.approve(scope, params.procedureId, form.data, todayISO());
 		if (!r.ok) return failForm(form, r);
@@ -121,7 +119,7 @@ export const actions: Actions = {
 	},
 	return: async function returnDraft({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(returnDraftSchema), { id: 'return' });
+		const form = await readForm(request, zod4(returnDraftSchema), { id: 'return' });
 		if (!form.valid) return fail(400, { returnForm: form });
 		const r = await procedures.returnDraft(scope, params.procedureId, form.data.comment, form.data.version);
 		if (!r.ok) return failForm(form, r);
@@ -129,7 +127,7 @@ export const actions: Actions = {
 	},
 	sign: async function signProcedure({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(signSchema), { id: 'sign' });
+		const form = await readForm(request, zod4(signSchema), { id: 'sign' });
 		if (!form.valid) return fail(400, { signForm: form });
 		const r = await procedures.sign(scope, params.procedureId, form.data.versionId, todayISO());
 		if (!r.ok) return failForm(form, r);
@@ -137,7 +135,7 @@ export const actions: Actions = {
 	},
 	cover: async function coverPaths({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(coverSchema), { id: 'cover' });
+		const form = await readForm(request, zod4(coverSchema), { id: 'cover' });
 		if (!form.valid) return fail(400, { coverForm: form });
 		const r = await procedures.cover(scope, params.procedureId, form.data.pathIds, form.data.version);
 		if (!r.ok) return failForm(form, r);
@@ -145,7 +143,7 @@ export const actions: Actions = {
 	},
 	confirm: async function confirmProcedure({ locals, params, request }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(confirmSchema), { id: 'confirm' });
+		const form = await readForm(request, zod4(confirmSchema), { id: 'confirm' });
 		if (!form.valid) return fail(400, { confirmForm: form });
 		const r = await procedures.confirmCurrent(scope, params.procedureId, form.data.note, form.data.version);
 		if (!r.ok) return failForm(form, r);

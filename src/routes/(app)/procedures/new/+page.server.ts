@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { newProcedureSchema, type NewProcedureForm } from '$lib/schemas/procedures';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as procedures from '$lib/server/procedures';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -20,7 +20,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	create: async function createProcedure({ locals, request }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(newProcedureSchema));
+		const form = await readForm(request, zod4(newProcedureSchema));
 		if (!form.valid) return fail(400, { form });
 		const r = await procedures.create(scope, form.data);
 		if (!r.ok) return failForm(form, r);

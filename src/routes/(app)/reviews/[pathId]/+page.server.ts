@@ -7,7 +7,7 @@ import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import { isCurrentResult } from '$lib/assessmentResult';
 import { orError } from '$lib/server/pages';
 import { formValues } from '$lib/server/pathForms';
@@ -73,7 +73,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	decide: async function decideReview({ locals, request, params }) {
 		const officer = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(decisionSchema));
+		const form = await readForm(request, zod4(decisionSchema));
 		if (!form.valid) return fail(400, { decisionForm: form });
 		const result = await reviews.decide(officer, params.pathId, form.data);
 		if (!result.ok) return failForm(form, result);
@@ -81,7 +81,7 @@ export const actions: Actions = {
 	},
 	reply: async function replyToReview({ locals, request, params }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(replySchema));
+		const form = await readForm(request, zod4(replySchema));
 		if (!form.valid) return fail(400, { replyForm: form });
 		const result = await reviews.reply(scope, params.pathId, form.data.body);
 		if (!result.ok) return failForm(form, result);

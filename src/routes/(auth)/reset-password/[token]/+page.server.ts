@@ -2,7 +2,7 @@ import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { newPasswordSchema } from '$lib/schemas/account';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as resets from '$lib/server/passwordResets';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -13,7 +13,7 @@ export const load: PageServerLoad = async ({ params }) => ({
 
 export const actions: Actions = {
 	default: async function setNewPassword({ request, params }) {
-		const form = await superValidate(request, zod4(newPasswordSchema));
+		const form = await readForm(request, zod4(newPasswordSchema));
 		const password = form.data.password;
 		form.data.password = '';
 		form.data.confirm = '';

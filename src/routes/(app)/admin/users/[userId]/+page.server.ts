@@ -3,7 +3,7 @@ import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { updateUserSchema } from '$lib/schemas/users';
 import { requireRole } from '$lib/server/auth/guard';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
@@ -23,7 +23,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	save: async function saveUser({ locals, request, params }) {
 		const admin = requireRole(locals, 'admin');
-		const form = await superValidate(request, zod4(updateUserSchema));
+		const form = await readForm(request, zod4(updateUserSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await users.update(admin.id, params.userId, form.data);
 		if (!result.ok) return failForm(form, result);

@@ -3,7 +3,7 @@ import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { newUserSchema } from '$lib/schemas/users';
 import { requireRole } from '$lib/server/auth/guard';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
@@ -16,7 +16,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 export const actions: Actions = {
 	default: async function createUser({ locals, request }) {
 		const admin = requireRole(locals, 'admin');
-		const form = await superValidate(request, zod4(newUserSchema));
+		const form = await readForm(request, zod4(newUserSchema));
 		const password = form.data.password;
 		form.data.password = ''; // never echo a password back
 		if (!form.valid) return fail(400, { form });

@@ -35,6 +35,9 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 
 export const actions: Actions = {
 	save: async function saveDraftReport({ locals, request, params }) {
-		return saveReportForm(await scopeOf(requireUser(locals)), request, params.incidentId);
+		const scope = await scopeOf(requireUser(locals));
+		// Answered here, not by the page's load (which sends a reader of a sent report to its page).
+		if (!(await incidents.draftOf(scope, params.incidentId))) error(404, { message: 'No draft report of yours has this number; a sent report is changed by the officers on its page.' });
+		return saveReportForm(scope, request, params.incidentId);
 	}
 };

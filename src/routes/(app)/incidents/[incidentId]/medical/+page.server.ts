@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { medicalSchema } from '$lib/schemas/incidents';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as medical from '$lib/server/medical';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -19,7 +19,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	save: async function saveMedicalFollowUp({ locals, request, params }) {
 		const scope = await scopeOf(requireRole(locals, 'officer'));
-		const form = await superValidate(request, zod4(medicalSchema));
+		const form = await readForm(request, zod4(medicalSchema));
 		if (!form.valid) return fail(400, { form });
 		const r = await medical.save(scope, params.incidentId, form.data);
 		if (!r.ok) return failForm(form, r);

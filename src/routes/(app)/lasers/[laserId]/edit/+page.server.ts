@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { editLaserSchema } from '$lib/schemas/register';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
 import * as lasers from '$lib/server/lasers';
 import { orError } from '$lib/server/pages';
@@ -26,7 +26,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	save: async function saveLaser({ locals, request, params }) {
 		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-		const form = await superValidate(request, zod4(editLaserSchema));
+		const form = await readForm(request, zod4(editLaserSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await lasers.update(scope, params.laserId, form.data);
 		if (!result.ok) return failForm(form, result);

@@ -5,7 +5,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { lineSchema } from '$lib/schemas/register';
 import { requireRole } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import * as lasers from '$lib/server/lasers';
 import { orError } from '$lib/server/pages';
 import { formatQuantity, type QuantityKind } from '$lib/units';
@@ -43,7 +43,7 @@ export async function loadLineForm(locals: App.Locals, laserId: string, lineId: 
 
 export async function saveLineForm(locals: App.Locals, request: Request, laserId: string, lineId: string | null) {
 	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
-	const form = await superValidate(request, zod4(lineSchema));
+	const form = await readForm(request, zod4(lineSchema));
 	if (!form.valid) return fail(400, { form });
 	const result = await lasers.saveLine(scope, laserId, lineId, form.data);
 	if (!result.ok) return failForm(form, result);
