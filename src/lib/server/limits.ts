@@ -1,11 +1,10 @@
 // The limit library. A limit is never edited in place: a revision is a new version, and every
 // beam path whose wavelength the old or the new version covers becomes stale in the same transaction.
-import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, or, sql } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import { changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 import { limitProblems } from '$lib/server/hazard';
 import { lockLimitLibrary } from '$lib/server/assessments';
@@ -57,6 +56,15 @@ function checkedLimit(form: LimitForm): { ok: true; values: ReturnType<typeof li
 	return { ok: true, values };
 }
 
+/** The limit versions an assessment used, as recorded in its result. */
+export async function versions(used: { id: string; version: string | number }[]): Promise<table.ExposureLimitVersion[]> {
+	if (!used.length) return [];
+	return db
+		.select()
+		.from(table.exposureLimitVersion)
+		.where(or(...used.map((u) => and(eq(table.exposureLimitVersion.limitId, u.id), eq(table.exposureLimitVersion.version, Number(u.version))))));
+}
+
 export async function create(actorId: string, form: LimitForm): Promise<{ ok: true; id: string; staleMarked: number } | Failure> {
 	const checked = checkedLimit(form);
 	if (!checked.ok) return checked;
@@ -69,7 +77,7 @@ export async function create(actorId: string, form: LimitForm): Promise<{ ok: tr
 		await audit.record(tx, { actorId, action: 'limit.create', entity: 'exposure_limit', entityId: head.id, after: v });
 		return { ok: true, id: head.id, staleMarked } as const;
 	});
-	if (out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	if (out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
 }
 
@@ -103,7 +111,7 @@ export async function revise(actorId: string, limitId: string, form: LimitForm):
 		await audit.record(tx, { actorId, action: 'limit.revise', entity: 'exposure_limit', entityId: limitId, before: old, after: v });
 		return { ok: true, version, staleMarked } as const;
 	});
-	if (out.ok && out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	if (out.ok && out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
 }
 
@@ -123,6 +131,6 @@ export async function retire(actorId: string, limitId: string, version: number):
 		await audit.record(tx, { actorId, action: 'limit.retire', entity: 'exposure_limit', entityId: limitId, before: { retired: false }, after: { retired: true, staleMarked } });
 		return { ok: true, staleMarked } as const;
 	});
-	if (out.ok && out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	if (out.ok && out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
 }
