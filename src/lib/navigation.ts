@@ -1,5 +1,6 @@
 import type { IconName } from '$lib/components/Icon.svelte';
 import type { Role } from '$lib/roles';
+import { abilities } from '$lib/abilities';
 
 export type NavItem = { href: string; label: string; icon: IconName; roles?: readonly Role[] };
 
@@ -14,6 +15,6 @@ export const navigation: NavItem[] = [
 	{ href: '/procedures', label: 'Procedures', icon: 'page' },
 	{ href: '/authorisations', label: 'Authorisations', icon: 'key' },
 	{ href: '/limits', label: 'Limit library', icon: 'list' },
-	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: ['admin'] },
-	{ href: '/admin/mail', label: 'Sent mail', icon: 'list', roles: ['admin'] }
+	{ href: '/admin/users', label: 'People and labs', icon: 'people', roles: abilities.administer },
+	{ href: '/admin/mail', label: 'Sent mail', icon: 'list', roles: abilities.administer }
 ];

@@ -16,6 +16,7 @@ import * as procedures from '$lib/server/procedures';
 import * as safetyMail from '$lib/server/safetyMail';
 import { authorisationState, isInForce, LAPSE_NOTICE_DAYS, type AuthorisationOutcome, type Decision, type ProcedureFact, type TrainingFact } from '$lib/authorisationState';
 import type { DecideForm, GrantForm, RequestForm } from '$lib/schemas/authorisations';
+import { can } from '$lib/abilities';
 
 const a = table.authorisation;
 const person = aliasedTable(table.user, 'person');
@@ -230,7 +231,7 @@ async function openOne(tx: Tx, userId: string, t: Target, exceptId?: string) {
 
 /** A researcher (or an officer, for themselves) asks to be authorised. */
 export async function request(scope: Scope, form: RequestForm): Promise<{ ok: true; id: string } | Failure> {
-	if (scope.role !== 'researcher' && scope.role !== 'officer') return failure(403, 'Only the people who work with lasers ask for an authorisation.');
+	if (!can(scope, 'workWithLasers')) return failure(403, 'Only the people who work with lasers ask for an authorisation.');
 	return db.transaction(async (tx) => {
 		const target = await procedures.resolveTarget(tx, form.target);
 		if (!target) return fieldsNeedAttention({ target: 'Choose a laser in use or an area.' });
@@ -279,7 +280,7 @@ async function eligible(tx: Tx, userId: string, labId: string): Promise<string |
 
 /** An officer grants directly, with the conditions. */
 export async function grant(scope: Scope, form: GrantForm, today: string): Promise<{ ok: true; id: string } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer grants authorisations.');
+	if (!can(scope, 'approveProcedures')) return failure(403, 'Only a laser safety officer grants authorisations.');
 	if (form.userId === scope.userId) return fieldsNeedAttention({ userId: 'Another officer grants your own authorisation.' });
 	return db.transaction(async (tx) => {
 		const target = await procedures.resolveTarget(tx, form.target);
@@ -303,7 +304,7 @@ export async function grant(scope: Scope, form: GrantForm, today: string): Promi
 
 /** An officer answers a request: granted with conditions, or refused with a reason. */
 export async function decide(scope: Scope, authorisationId: string, form: DecideForm, today: string): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer decides on authorisations.');
+	if (!can(scope, 'approveProcedures')) return failure(403, 'Only a laser safety officer decides on authorisations.');
 	if (!isUuid(authorisationId)) return notFound('authorisation');
 	return db.transaction(async (tx) => {
 		const [row] = await tx.select().from(a).where(eq(a.id, authorisationId)).for('update');
@@ -334,7 +335,7 @@ export async function decide(scope: Scope, authorisationId: string, form: Decide
 
 /** An officer withdraws a grant (or a request nobody will answer), with a reason. */
 export async function withdraw(scope: Scope, authorisationId: string, reason: string, version: number): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer withdraws authorisations.');
+	if (!can(scope, 'approveProcedures')) return failure(403, 'Only a laser safety officer withdraws authorisations.');
 	if (!isUuid(authorisationId)) return notFound('authorisation');
 	return db.transaction(async (tx) => {
 		const [before] = await tx.select().from(a).where(eq(a.id, authorisationId)).for('update');

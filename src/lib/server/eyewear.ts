@@ -10,6 +10,7 @@ import { isUuid } from '$lib/server/lasers';
 import { adequacy, type AdequacyResult, type BandOnRecord, type Requirement } from '$lib/server/eyewearAdequacy';
 import type { EyewearForm } from '$lib/schemas/eyewear';
 import { formatQuantity, parseQuantity } from '$lib/units';
+import { can } from '$lib/abilities';
 
 const si = (t: string) => {
 	const p = parseQuantity(t, 'wavelength');
@@ -36,7 +37,7 @@ export async function find(scope: Scope, eyewearId: string) {
 }
 
 export async function save(scope: Scope, eyewearId: string | null, form: EyewearForm): Promise<{ ok: true; id: string } | Failure> {
-	if (scope.role !== 'officer' || !canEdit(scope, form.labId)) return cannotChange('eyewear');
+	if (!can(scope, 'manageEyewear') || !canEdit(scope, form.labId)) return cannotChange('eyewear');
 	const values = {
 		labId: form.labId,
 		label: form.label,
@@ -159,7 +160,7 @@ export async function retire(scope: Scope, eyewearId: string, version: number): 
 	return db.transaction(async (tx) => {
 		const [old] = await tx.select().from(table.eyewear).where(eq(table.eyewear.id, eyewearId)).for('update');
 		if (!old) return notFound('eyewear');
-		if (scope.role !== 'officer' || !canEdit(scope, old.labId)) return cannotChange('eyewear');
+		if (!can(scope, 'manageEyewear') || !canEdit(scope, old.labId)) return cannotChange('eyewear');
 		if (old.version !== version || old.retired) return changedMeanwhile('eyewear');
 		const [after] = await tx.update(table.eyewear).set({ retired: true, version: version + 1 }).where(eq(table.eyewear.id, eyewearId)).returning();
 		await audit.record(tx, { actorId: scope.userId, action: 'eyewear.retire', entity: 'eyewear', entityId: eyewearId, before: old, after });

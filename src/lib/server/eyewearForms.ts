@@ -3,7 +3,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { eyewearSchema, type EyewearForm } from '$lib/schemas/eyewear';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
 import { failForm, readForm } from '$lib/server/forms';
@@ -11,7 +11,7 @@ import * as labs from '$lib/server/labs';
 import { formatQuantity } from '$lib/units';
 
 export async function loadEyewearForm(locals: App.Locals, eyewearId: string | null) {
-	const scope = await scopeOf(requireRole(locals, 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'manageEyewear'));
 	const labList = await labs.list();
 	if (eyewearId === null) {
 		const start: EyewearForm = { labId: '', label: '', location: '', frame: '', condition: 'good', lastCheckedAt: '', bands: [{ wavelengthMin: '', wavelengthMax: '', od: '' }], version: 0 };
@@ -33,7 +33,7 @@ export async function loadEyewearForm(locals: App.Locals, eyewearId: string | nu
 }
 
 export async function saveEyewearForm(locals: App.Locals, request: Request, eyewearId: string | null) {
-	const scope = await scopeOf(requireRole(locals, 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'manageEyewear'));
 	const form = await readForm(request, zod4(eyewearSchema));
 	if (!form.valid) return fail(400, { form });
 	const result = await eyewear.save(scope, eyewearId, form.data);

@@ -25,6 +25,7 @@ import * as suspensions from '$lib/server/suspensions';
 import type { StoredUpload } from '$lib/server/uploads';
 import { actionState, kindWords, titleOf, type ActionState, type ContributingFactor, type IncidentKind, type IncidentState, type MedicalAttention, type Severity } from '$lib/incidentWords';
 import type { ActionForm, CloseActionForm, CloseIncidentForm, InvestigationForm, ReportForm } from '$lib/schemas/incidents';
+import { can } from '$lib/abilities';
 
 type Row = table.Incident;
 export type ViewLevel = 'full' | 'manager' | 'own' | 'redacted';
@@ -221,7 +222,7 @@ export async function attachPhotos(scope: Scope, incidentId: string, files: Stor
 	if (!isUuid(incidentId)) return notFound('report');
 	const [row] = await db.select().from(table.incident).where(eq(table.incident.id, incidentId));
 	if (!row || !levelFor(scope, row)) return notFound('report');
-	if (row.reportedBy !== scope.userId && scope.role !== 'officer') return failure(403, 'Only the reporter or a laser safety officer adds photos to a report.');
+	if (row.reportedBy !== scope.userId && !can(scope, 'investigateIncidents')) return failure(403, 'Only the reporter or a laser safety officer adds photos to a report.');
 	if (files.length === 0) return fieldsNeedAttention({ photos: 'Choose a file to upload.' });
 	await db.transaction(async (tx) => {
 		const docs = await tx
@@ -495,8 +496,8 @@ export async function view(scope: Scope, incidentId: string, today: string, view
 		version: r.i.version,
 		can: {
 			edit: r.i.state === 'draft' && r.i.reportedBy === scope.userId,
-			investigate: scope.role === 'officer' && r.i.state !== 'draft',
-			addPhotos: scope.role === 'officer' && r.i.state !== 'closed'
+			investigate: can(scope, 'investigateIncidents') && r.i.state !== 'draft',
+			addPhotos: can(scope, 'investigateIncidents') && r.i.state !== 'closed'
 		}
 	};
 	if (shaped.reporter || shaped.peopleInvolved !== null)
@@ -529,7 +530,7 @@ async function lockSent(tx: Tx, incidentId: string) {
 }
 
 export async function investigate(scope: Scope, incidentId: string, f: InvestigationForm): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer investigates incidents.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'Only a laser safety officer investigates incidents.');
 	if (!isUuid(incidentId)) return notFound('incident');
 	return db.transaction(async (tx) => {
 		const before = await lockSent(tx, incidentId);
@@ -580,7 +581,7 @@ export async function investigate(scope: Scope, incidentId: string, f: Investiga
 }
 
 export async function addAction(scope: Scope, incidentId: string, f: ActionForm): Promise<{ ok: true; id: string } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer sets corrective actions.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'Only a laser safety officer sets corrective actions.');
 	if (!isUuid(incidentId)) return notFound('incident');
 	return db.transaction(async (tx) => {
 		// Locked so the incident cannot close while an action is being added to it.
@@ -600,7 +601,7 @@ export async function addAction(scope: Scope, incidentId: string, f: ActionForm)
 export async function closeAction(scope: Scope, f: CloseActionForm, files: StoredUpload[] = []): Promise<{ ok: true; incidentId: string } | Failure> {
 	return db.transaction(async (tx) => {
 		const [a] = await tx.select().from(table.correctiveAction).where(eq(table.correctiveAction.id, f.actionId)).for('update');
-		if (!a || (a.ownerId !== scope.userId && scope.role !== 'officer')) return notFound('corrective action');
+		if (!a || (a.ownerId !== scope.userId && !can(scope, 'investigateIncidents'))) return notFound('corrective action');
 		if (a.closedAt) return failure(409, 'This action is already closed.');
 		if (a.version !== f.version) return changedMeanwhile('corrective action');
 		const [after] = await tx
@@ -622,7 +623,7 @@ export async function closeAction(scope: Scope, f: CloseActionForm, files: Store
 
 /** Close the incident: investigated, and every action closed (checked under the incident's lock). */
 export async function close(scope: Scope, incidentId: string, f: CloseIncidentForm): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer closes incidents.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'Only a laser safety officer closes incidents.');
 	if (!isUuid(incidentId)) return notFound('incident');
 	return db.transaction(async (tx) => {
 		const before = await lockSent(tx, incidentId);
@@ -648,7 +649,7 @@ export async function close(scope: Scope, incidentId: string, f: CloseIncidentFo
 
 /** A suspension started from an incident: the laser must be the incident's, or one of its lab. */
 export async function suspendFrom(scope: Scope, incidentId: string, form: { laserId: string; reason: string }) {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer suspends a laser.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'Only a laser safety officer suspends a laser.');
 	if (!isUuid(incidentId)) return notFound('incident');
 	const [row] = await db.select().from(table.incident).where(eq(table.incident.id, incidentId));
 	if (!row || row.state === 'draft') return notFound('incident');
@@ -736,7 +737,7 @@ export type Learning = {
 
 /** Sent reports over the last twelve months (by the month they happened), and every open action. */
 export async function learning(scope: Scope, today: string): Promise<Learning> {
-	if (scope.role !== 'officer' && scope.role !== 'manager') return { months: [], byKind: [], byArea: [], byFactor: [], openActions: [], total: 0 };
+	if (!can(scope, 'readIncidentFigures')) return { months: [], byKind: [], byArea: [], byFactor: [], openActions: [], total: 0 };
 	const start = `${shiftMonth(today.slice(0, 7), -11)}-01`;
 	const i = table.incident;
 	const rows = await db

@@ -13,6 +13,7 @@ import type { StoredUpload } from '$lib/server/uploads';
 import type { MonthCount } from '$lib/inspectionState';
 import { inspectionState, type InspectionState } from '$lib/inspectionState';
 import type { RecordInspectionForm } from '$lib/schemas/inspections';
+import { can } from '$lib/abilities';
 
 const labScope = (scope: Scope): SQL | undefined =>
 	scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.area.labId, scope.labIds) : sql`false`;
@@ -151,7 +152,7 @@ export async function createTemplate(actorId: string, name: string, lines: strin
 
 /** Record an open inspection as done, with its results, findings and photos; schedule the next one. */
 export async function record(scope: Scope, inspectionId: string, form: RecordInspectionForm): Promise<{ ok: true; nextId: string; nextDueOn: string } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer records inspections.');
+	if (!can(scope, 'recordInspections')) return failure(403, 'Only a laser safety officer records inspections.');
 	const found = await find(scope, inspectionId);
 	if (!found) return notFound('inspection');
 	if (found.inspection.completedOn) return failure(409, 'This inspection is already recorded as done.');
@@ -183,7 +184,7 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 
 /** Photos and documents of an inspection (officers), stored in PostgreSQL with their audit row. */
 export async function attach(scope: Scope, inspectionId: string, files: StoredUpload[]): Promise<{ ok: true; count: number } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer adds photos to inspections.');
+	if (!can(scope, 'recordInspections')) return failure(403, 'Only a laser safety officer adds photos to inspections.');
 	const found = await find(scope, inspectionId);
 	if (!found) return notFound('inspection');
 	if (files.length === 0) return fieldsNeedAttention({ photos: 'Choose a file to upload.' });
@@ -206,10 +207,10 @@ export async function documentFor(scope: Scope, documentId: string) {
 }
 
 export async function assign(scope: Scope, inspectionId: string, inspectorId: string, version: number): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'manager' && scope.role !== 'officer') return failure(403, 'Only facility managers and laser safety officers assign inspectors.');
+	if (!can(scope, 'assignInspectors')) return failure(403, 'Only facility managers and laser safety officers assign inspectors.');
 	if (!isUuid(inspectionId)) return notFound('inspection');
 	const [person] = await db.select().from(table.user).where(and(eq(table.user.id, inspectorId), eq(table.user.disabled, false)));
-	if (!person || person.role !== 'officer') return fieldsNeedAttention({ inspectorId: 'Choose an active laser safety officer.' });
+	if (!person || !can(person.role, 'recordInspections')) return fieldsNeedAttention({ inspectorId: 'Choose an active laser safety officer.' });
 	return db.transaction(async (tx: Tx) => {
 		const [before] = await tx.select().from(table.inspection).where(eq(table.inspection.id, inspectionId));
 		if (!before) return notFound('inspection');

@@ -8,6 +8,7 @@ import type { Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, notFound, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import type { MedicalForm } from '$lib/schemas/incidents';
+import { can } from '$lib/abilities';
 
 export type MedicalRecord = { examinationRequestedOn: string | null; examinationDoneOn: string | null; outcome: string; version: number; updatedAt: string | null; updatedByName: string | null };
 
@@ -20,7 +21,7 @@ async function sentIncident(incidentId: string) {
 }
 
 export async function read(scope: Scope, incidentId: string, via: 'page' | 'api'): Promise<({ ok: true; number: number } & MedicalRecord) | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'The medical follow-up is for laser safety officers only.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'The medical follow-up is for laser safety officers only.');
 	const incident = await sentIncident(incidentId);
 	if (!incident) return notFound('incident');
 	const [row] = await db
@@ -37,7 +38,7 @@ export async function read(scope: Scope, incidentId: string, via: 'page' | 'api'
 
 /** Create (version 0) or change (its version) the follow-up; a stale version is a 409. */
 export async function save(scope: Scope, incidentId: string, f: MedicalForm): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'The medical follow-up is for laser safety officers only.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'The medical follow-up is for laser safety officers only.');
 	const incident = await sentIncident(incidentId);
 	if (!incident) return notFound('incident');
 	const values = { examinationRequestedOn: f.examinationRequestedOn || null, examinationDoneOn: f.examinationDoneOn || null, outcome: f.outcome, updatedBy: scope.userId, updatedAt: new Date() };

@@ -4,7 +4,7 @@ import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { desc, eq } from 'drizzle-orm';
 import { blankElement, pathFormSchema, type PathForm } from '$lib/schemas/register';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
@@ -45,7 +45,7 @@ function editorLines(detail: NonNullable<lasers.LaserDetail>): LineColumns[] {
 }
 
 export async function loadNewPath(locals: App.Locals, laserId: string) {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const { detail, editable } = orError(await lasers.find(scope, laserId));
 	if (!editable || detail.laser.status === 'retired') error(403, { message: 'Only members of this laser’s lab and laser safety officers can add beam paths to it.' });
 	const visible = detail.lines[0]?.wavelength && Number(detail.lines[0].wavelength) >= 400e-9 && Number(detail.lines[0].wavelength) <= 700e-9;
@@ -137,7 +137,7 @@ export async function loadPath(locals: App.Locals, pathId: string) {
 }
 
 export async function savePath(locals: App.Locals, request: Request, laserId: string | null, pathId: string | null) {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const form = await readForm(request, zod4(pathFormSchema));
 	if (!form.valid) return fail(400, { form });
 	let forLaser = laserId;

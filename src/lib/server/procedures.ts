@@ -17,6 +17,7 @@ import type { StoredUpload } from '$lib/server/uploads';
 import { DEFAULT_SIGNOFF_INTERVAL_MONTHS, signoffState, type SignoffState } from '$lib/authorisationState';
 import { procedureState, type ProcedureState, type VersionState } from '$lib/procedureState';
 import { parseTarget, type ApproveForm, type DraftForm, type NewProcedureForm } from '$lib/schemas/procedures';
+import { can } from '$lib/abilities';
 
 const p = table.procedure;
 const v = table.procedureVersion;
@@ -35,7 +36,7 @@ export async function signoffInterval(tx: Tx | typeof db = db): Promise<{ months
 }
 
 export async function setSignoffInterval(scope: Scope, months: number, version: number): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer sets the sign-off interval.');
+	if (!can(scope, 'approveProcedures')) return failure(403, 'Only a laser safety officer sets the sign-off interval.');
 	return db.transaction(async (tx) => {
 		const s = table.programmeSetting;
 		const before = await signoffInterval(tx);
@@ -392,10 +393,10 @@ export async function find(scope: Scope, procedureId: string, today: string) {
 		intervalMonths: interval.months,
 		can: {
 			edit: mayWrite,
-			sign: !!current && canRead(scope, proc.labId) && (scope.role === 'researcher' || scope.role === 'officer'),
-			approve: scope.role === 'officer' && draft?.d.state === 'submitted' && !author.includes(scope.userId),
-			selfAuthored: scope.role === 'officer' && author.includes(scope.userId),
-			confirm: scope.role === 'officer' && proc.reviewNeeded && !!current
+			sign: !!current && canRead(scope, proc.labId) && can(scope, 'workWithLasers'),
+			approve: can(scope, 'approveProcedures') && draft?.d.state === 'submitted' && !author.includes(scope.userId),
+			selfAuthored: can(scope, 'approveProcedures') && author.includes(scope.userId),
+			confirm: can(scope, 'approveProcedures') && proc.reviewNeeded && !!current
 		}
 	};
 }
@@ -522,7 +523,7 @@ export async function submit(scope: Scope, procedureId: string, version: number,
 
 /** The officer approves the submitted draft: it becomes the next approved version, for good. */
 export async function approve(scope: Scope, procedureId: string, form: ApproveForm, today: string): Promise<{ ok: true; number: number } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer approves procedures.');
+	if (!can(scope, 'approveProcedures')) return failure(403, 'Only a laser safety officer approves procedures.');
 	if (form.reviewBy <= today) return fieldsNeedAttention({ reviewBy: 'The review-by date must be after today.' });
 	if (form.reviewBy > formatISO(addYears(parseISO(today), 5), { representation: 'date' })) return fieldsNeedAttention({ reviewBy: 'Review a procedure at least every five years.' });
 	return db.transaction(async (tx) => {
@@ -561,7 +562,7 @@ export async function approve(scope: Scope, procedureId: string, form: ApproveFo
 
 /** The officer sends a submitted draft back with a comment. */
 export async function returnDraft(scope: Scope, procedureId: string, comment: string, version: number): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer sends a draft back.');
+	if (!can(scope, 'approveProcedures')) return failure(403, 'Only a laser safety officer sends a draft back.');
 	return db.transaction(async (tx) => {
 		const locked = await lockForChange(tx, scope, procedureId);
 		if (!locked.ok) return locked;
@@ -578,7 +579,7 @@ export async function returnDraft(scope: Scope, procedureId: string, comment: st
 
 /** "I have read and understood" the current approved version. */
 export async function sign(scope: Scope, procedureId: string, versionId: string, today: string): Promise<{ ok: true; signedAt: Date } | Failure> {
-	if (scope.role !== 'researcher' && scope.role !== 'officer') return failure(403, 'Only the people who work with lasers sign procedures.');
+	if (!can(scope, 'workWithLasers')) return failure(403, 'Only the people who work with lasers sign procedures.');
 	if (!isUuid(procedureId)) return notFound('procedure');
 	return db.transaction(async (tx) => {
 		const [proc] = await tx.select().from(p).where(eq(p.id, procedureId)).for('share');
@@ -623,7 +624,7 @@ export async function cover(scope: Scope, procedureId: string, pathIds: string[]
 
 /** The officer confirms that the approved version still matches after a covered path changed. */
 export async function confirmCurrent(scope: Scope, procedureId: string, note: string, version: number): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer confirms a procedure.');
+	if (!can(scope, 'approveProcedures')) return failure(403, 'Only a laser safety officer confirms a procedure.');
 	return db.transaction(async (tx) => {
 		const locked = await lockForChange(tx, scope, procedureId);
 		if (!locked.ok) return locked;

@@ -18,6 +18,7 @@ import { isCurrentResult, type AssessmentResult } from '$lib/assessmentResult';
 import { pathStateOf, pathStates, type PathState } from '$lib/pathState';
 import { controlShortfalls, type EyewearControl, type Need } from '$lib/server/eyewearAdequacy';
 import { formatQuantity, parseQuantity } from '$lib/units';
+import { can } from '$lib/abilities';
 
 type PathRow = typeof table.beamPath.$inferSelect;
 
@@ -198,7 +199,7 @@ export function selfReviewReason(path: PathRow, officerId: string, latestBy: str
 }
 
 export async function decide(officer: Scope, pathId: string, form: DecisionForm): Promise<{ ok: true; decisionId: string } | Failure> {
-	if (officer.role !== 'officer') return failure(403, 'Only a laser safety officer decides on reviews.');
+	if (!can(officer, 'decideReviews')) return failure(403, 'Only a laser safety officer decides on reviews.');
 	if (!isUuid(pathId)) return notFound('beam path');
 	const controls = form.decision === 'cleared' ? form.controls : [];
 	const fields: Record<string, string> = {};
@@ -310,7 +311,7 @@ export async function reply(scope: Scope, pathId: string, body: string): Promise
 		.where(eq(table.beamPath.id, pathId));
 	if (!row) return notFound('beam path');
 	if (!canRead(scope, row.labId)) return notYours('beam path');
-	if (scope.role !== 'researcher' && scope.role !== 'officer') return cannotChange('beam path');
+	if (!can(scope, 'changeRegister')) return cannotChange('beam path');
 	const [last] = await db.select().from(table.reviewDecision).where(eq(table.reviewDecision.pathId, pathId)).orderBy(desc(table.reviewDecision.decidedAt)).limit(1);
 	if (!last || last.decision !== 'returned') return failure(409, 'There is no returned review to answer.');
 	await db.transaction(async (tx) => {

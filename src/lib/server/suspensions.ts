@@ -11,6 +11,7 @@ import { failure, fieldsNeedAttention, notFound, type Failure } from '$lib/serve
 import { isUuid } from '$lib/server/lasers';
 import type { LiftForm, SuspendForm } from '$lib/schemas/incidents';
 import type { SuspensionInfo } from '$lib/incidentTypes';
+import { can } from '$lib/abilities';
 
 export type ActiveSuspension = SuspensionInfo;
 
@@ -65,7 +66,7 @@ export async function forPage(scope: Scope, params: { laserId?: string; pathId?:
 
 /** Suspend a laser (officers), optionally from the incident that prompted it. */
 export async function suspend(scope: Scope, form: SuspendForm, incidentId: string | null = null): Promise<{ ok: true; id: string } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer suspends a laser.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'Only a laser safety officer suspends a laser.');
 	return db.transaction(async (tx) => {
 		// The laser row is locked so two officers suspending it at once queue here; the second is told.
 		const [l] = await tx.select({ id: table.laser.id, status: table.laser.status }).from(table.laser).where(eq(table.laser.id, form.laserId)).for('update');
@@ -83,7 +84,7 @@ export async function suspend(scope: Scope, form: SuspendForm, incidentId: strin
 }
 
 export async function lift(scope: Scope, form: LiftForm): Promise<{ ok: true } | Failure> {
-	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer lifts a suspension.');
+	if (!can(scope, 'investigateIncidents')) return failure(403, 'Only a laser safety officer lifts a suspension.');
 	return db.transaction(async (tx) => {
 		const s = table.laserSuspension;
 		const [row] = await tx

@@ -1,6 +1,7 @@
 // The one role guard. Pages, actions and API routes call these; handleGuard uses them too.
 import { error } from '@sveltejs/kit';
 import { roleLabels, type Role } from '$lib/roles';
+import { abilities, can, type Ability } from '$lib/abilities';
 import type { SessionUser } from './session';
 
 const roleName = (r: Role) => roleLabels[r].toLowerCase();
@@ -10,9 +11,10 @@ export function requireUser(locals: App.Locals): SessionUser {
 	return locals.user;
 }
 
-export function requireRole(locals: App.Locals, ...allowed: readonly Role[]): SessionUser {
+/** The signed-in user when the written abilities let them do this; 403 naming the role needed otherwise. */
+export function requireAbility(locals: App.Locals, ability: Ability): SessionUser {
 	const user = requireUser(locals);
-	if (!allowed.includes(user.role)) error(403, forbidden(user.role, allowed));
+	if (!can(user, ability)) error(403, forbidden(user.role, abilities[ability]));
 	return user;
 }
 

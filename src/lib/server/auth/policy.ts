@@ -3,17 +3,16 @@
 // any load, action or endpoint runs; a route that is missing here is refused (deny by default),
 // and the access-matrix test fails on it. Loads, actions and endpoints check again through guard.ts,
 // where finer rules (own labs, self-review) live.
-import type { Role } from '$lib/server/db/schema';
+import type { Role } from '$lib/roles';
+import { abilities } from '$lib/abilities';
 
 export type Access = 'public' | 'signed-in' | readonly Role[];
 export type RouteRule = { read: Access; write: Access };
 
 const everyone: Access = 'signed-in';
 const nobody: readonly Role[] = [];
-const admin: readonly Role[] = ['admin'];
-/** Lab members change their own labs' register; officers every lab's (finer rules in auth/scope.ts). */
-const registerWriters: readonly Role[] = ['researcher', 'officer'];
-const officers: readonly Role[] = ['officer'];
+// Role lists come from the written abilities ($lib/abilities.ts); a route names the ability it serves.
+const a = abilities;
 
 export const routePolicy: Record<string, RouteRule> = {
 	'/': { read: 'public', write: nobody },
@@ -22,62 +21,62 @@ export const routePolicy: Record<string, RouteRule> = {
 	'/(auth)/reset-password': { read: 'public', write: 'public' },
 	'/(auth)/reset-password/[token]': { read: 'public', write: 'public' },
 	'/(app)/preferences': { read: everyone, write: everyone },
-	'/(app)/admin/mail': { read: admin, write: nobody },
+	'/(app)/admin/mail': { read: a.administer, write: nobody },
 	'/(app)/overview': { read: everyone, write: nobody },
 	'/(app)/lasers': { read: everyone, write: nobody },
-	'/(app)/lasers/new': { read: registerWriters, write: registerWriters },
+	'/(app)/lasers/new': { read: a.changeRegister, write: a.changeRegister },
 	'/(app)/lasers/[laserId]': { read: everyone, write: nobody },
-	'/(app)/lasers/[laserId]/edit': { read: registerWriters, write: registerWriters },
-	'/(app)/lasers/[laserId]/lines/new': { read: registerWriters, write: registerWriters },
-	'/(app)/lasers/[laserId]/lines/[lineId]': { read: registerWriters, write: registerWriters },
-	'/(app)/lasers/[laserId]/paths/new': { read: registerWriters, write: registerWriters },
-	'/(app)/paths/[pathId]': { read: everyone, write: registerWriters },
+	'/(app)/lasers/[laserId]/edit': { read: a.changeRegister, write: a.changeRegister },
+	'/(app)/lasers/[laserId]/lines/new': { read: a.changeRegister, write: a.changeRegister },
+	'/(app)/lasers/[laserId]/lines/[lineId]': { read: a.changeRegister, write: a.changeRegister },
+	'/(app)/lasers/[laserId]/paths/new': { read: a.changeRegister, write: a.changeRegister },
+	'/(app)/paths/[pathId]': { read: everyone, write: a.changeRegister },
 	'/(app)/reviews': { read: everyone, write: nobody },
-	'/(app)/reviews/[pathId]': { read: everyone, write: registerWriters },
-	'/(app)/inspections': { read: everyone, write: ['manager', 'officer'] },
-	'/(app)/inspections/[inspectionId]': { read: everyone, write: officers },
-	'/(app)/inspections/checklists': { read: officers, write: officers },
-	'/(app)/inspections/export.csv': { read: ['manager', 'officer', 'admin'], write: nobody },
+	'/(app)/reviews/[pathId]': { read: everyone, write: a.changeRegister },
+	'/(app)/inspections': { read: everyone, write: a.assignInspectors },
+	'/(app)/inspections/[inspectionId]': { read: everyone, write: a.recordInspections },
+	'/(app)/inspections/checklists': { read: a.recordInspections, write: a.recordInspections },
+	'/(app)/inspections/export.csv': { read: a.exportInspections, write: nobody },
 	'/(app)/documents/[documentId]': { read: everyone, write: nobody },
 	'/(app)/eyewear': { read: everyone, write: nobody },
-	'/(app)/training': { read: everyone, write: officers },
-	'/(app)/eyewear/new': { read: officers, write: officers },
-	'/(app)/eyewear/[eyewearId]': { read: officers, write: officers },
+	'/(app)/training': { read: everyone, write: a.recordTraining },
+	'/(app)/eyewear/new': { read: a.manageEyewear, write: a.manageEyewear },
+	'/(app)/eyewear/[eyewearId]': { read: a.manageEyewear, write: a.manageEyewear },
 	// Incidents: anyone reports; finer rules (own reports, own labs' near misses, names) in incidents.ts.
 	'/(app)/incidents': { read: everyone, write: everyone },
 	'/(app)/incidents/report': { read: everyone, write: everyone },
-	'/(app)/incidents/[incidentId]': { read: everyone, write: officers },
+	'/(app)/incidents/[incidentId]': { read: everyone, write: a.investigateIncidents },
 	'/(app)/incidents/[incidentId]/edit': { read: everyone, write: everyone },
-	'/(app)/incidents/[incidentId]/medical': { read: officers, write: officers },
-	'/(app)/incidents/learning': { read: ['officer', 'manager'], write: nobody },
-	'/(app)/incidents/export.csv': { read: ['officer', 'manager'], write: nobody },
-	'/(app)/procedures': { read: everyone, write: officers },
-	'/(app)/procedures/new': { read: registerWriters, write: registerWriters },
-	'/(app)/procedures/[procedureId]': { read: everyone, write: registerWriters },
-	'/(app)/authorisations': { read: everyone, write: registerWriters },
-	'/(app)/authorisations/[authorisationId]': { read: everyone, write: officers },
-	'/(app)/areas/[areaId]': { read: everyone, write: registerWriters },
+	'/(app)/incidents/[incidentId]/medical': { read: a.investigateIncidents, write: a.investigateIncidents },
+	'/(app)/incidents/learning': { read: a.readIncidentFigures, write: nobody },
+	'/(app)/incidents/export.csv': { read: a.readIncidentFigures, write: nobody },
+	'/(app)/procedures': { read: everyone, write: a.approveProcedures },
+	'/(app)/procedures/new': { read: a.workWithLasers, write: a.workWithLasers },
+	'/(app)/procedures/[procedureId]': { read: everyone, write: a.workWithLasers },
+	'/(app)/authorisations': { read: everyone, write: a.workWithLasers },
+	'/(app)/authorisations/[authorisationId]': { read: everyone, write: a.approveProcedures },
+	'/(app)/areas/[areaId]': { read: everyone, write: a.workWithLasers },
 	'/(app)/areas/[areaId]/door': { read: everyone, write: nobody },
 	'/(app)/people/[userId]': { read: everyone, write: nobody },
 	'/(app)/limits': { read: everyone, write: nobody },
-	'/(app)/limits/new': { read: officers, write: officers },
-	'/(app)/limits/[limitId]': { read: everyone, write: officers },
-	'/(app)/admin/users': { read: admin, write: admin },
-	'/(app)/admin/users/new': { read: admin, write: admin },
-	'/(app)/admin/users/[userId]': { read: admin, write: admin },
+	'/(app)/limits/new': { read: a.manageLimits, write: a.manageLimits },
+	'/(app)/limits/[limitId]': { read: everyone, write: a.manageLimits },
+	'/(app)/admin/users': { read: a.administer, write: a.administer },
+	'/(app)/admin/users/new': { read: a.administer, write: a.administer },
+	'/(app)/admin/users/[userId]': { read: a.administer, write: a.administer },
 	'/api/me': { read: everyone, write: nobody },
 	'/api/assessments/preview': { read: nobody, write: everyone },
-	'/api/lasers': { read: everyone, write: registerWriters },
-	'/api/lasers/[laserId]': { read: everyone, write: registerWriters },
-	'/api/lasers/[laserId]/paths': { read: nobody, write: registerWriters },
-	'/api/paths/[pathId]': { read: everyone, write: registerWriters },
-	'/api/limits': { read: everyone, write: officers },
-	'/api/limits/[limitId]': { read: everyone, write: officers },
+	'/api/lasers': { read: everyone, write: a.changeRegister },
+	'/api/lasers/[laserId]': { read: everyone, write: a.changeRegister },
+	'/api/lasers/[laserId]/paths': { read: nobody, write: a.changeRegister },
+	'/api/paths/[pathId]': { read: everyone, write: a.changeRegister },
+	'/api/limits': { read: everyone, write: a.manageLimits },
+	'/api/limits/[limitId]': { read: everyone, write: a.manageLimits },
 	'/api/incidents': { read: everyone, write: nobody },
 	'/api/incidents/[incidentId]': { read: everyone, write: nobody },
-	'/api/incidents/[incidentId]/medical': { read: officers, write: officers },
-	'/api/admin/users': { read: admin, write: admin },
-	'/api/admin/users/[userId]': { read: admin, write: admin },
+	'/api/incidents/[incidentId]/medical': { read: a.investigateIncidents, write: a.investigateIncidents },
+	'/api/admin/users': { read: a.administer, write: a.administer },
+	'/api/admin/users/[userId]': { read: a.administer, write: a.administer },
 	'/api/health': { read: 'public', write: nobody }
 };
 

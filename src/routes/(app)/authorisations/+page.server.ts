@@ -1,8 +1,9 @@
+import { can } from '$lib/abilities';
 import { fail, redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { grantSchema, requestSchema, type GrantForm } from '$lib/schemas/authorisations';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
 import { failForm, readForm } from '$lib/server/forms';
@@ -17,13 +18,13 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const user = requireUser(locals);
 	const scope = await scopeOf(user);
 	const today = todayISO();
-	const officer = user.role === 'officer';
+	const officer = can(user, 'approveProcedures');
 	const wantedState = url.searchParams.get('state') ?? 'all';
 	const state = (states as readonly string[]).includes(wantedState) ? wantedState : 'all';
 	const [rows, mine, options] = await Promise.all([
-		user.role === 'researcher' ? Promise.resolve([]) : authorisations.list(scope, today),
+		!can(user, 'readEveryone') ? Promise.resolve([]) : authorisations.list(scope, today),
 		authorisations.list(null, today, { userId: user.id }),
-		user.role === 'researcher' || officer ? procedures.targetOptions(scope) : Promise.resolve(null)
+		can(user, 'workWithLasers') ? procedures.targetOptions(scope) : Promise.resolve(null)
 	]);
 	const wanted = url.searchParams.get('request') ?? '';
 	const known = options ? [...options.lasers.map((l) => `laser:${l.id}`), ...options.areas.map((a) => `area:${a.id}`)] : [];
@@ -49,7 +50,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 
 export const actions: Actions = {
 	request: async function requestAuthorisation({ locals, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const form = await readForm(request, zod4(requestSchema), { id: 'request' });
 		if (!form.valid) return fail(400, { requestForm: form });
 		const r = await authorisations.request(scope, form.data);
@@ -58,7 +59,7 @@ export const actions: Actions = {
 		redirect(303, `/authorisations/${r.id}?requested=1`);
 	},
 	grant: async function grantAuthorisation({ locals, request }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'approveProcedures'));
 		const form = await readForm(request, zod4(grantSchema), { id: 'grant' });
 		if (!form.valid) return fail(400, { grantForm: form });
 		const r = await authorisations.grant(scope, form.data, todayISO());

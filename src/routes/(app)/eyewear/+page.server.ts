@@ -1,3 +1,4 @@
+import { can } from '$lib/abilities';
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
@@ -10,6 +11,6 @@ export const load: PageServerLoad = async ({ locals }) => {
 	return {
 		items: items.map((i) => ({ ...i, lastCheckedAt: i.lastCheckedAt?.toISOString().slice(0, 10) ?? null, createdAt: i.createdAt.toISOString() })),
 		cleared: await eyewear.clearedPathChecks(scope),
-		canManage: user.role === 'officer'
+		canManage: can(user, 'manageEyewear')
 	};
 };

@@ -1,3 +1,4 @@
+import { can } from '$lib/abilities';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { closeActionSchema } from '$lib/schemas/incidents';
@@ -26,7 +27,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		mine,
 		filter,
 		role: user.role,
-		canLearn: user.role === 'officer' || user.role === 'manager',
+		canLearn: can(user, 'readIncidentFigures'),
 		closeActionForm: await superValidate(zod4(closeActionSchema), { id: 'close-action' })
 	};
 };

@@ -1,7 +1,8 @@
+import { can } from '$lib/abilities';
 import { fail } from '@sveltejs/kit';
 import { assignSchema } from '$lib/schemas/inspections';
 import { formObject } from '$lib/server/forms';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as inspections from '$lib/server/inspections';
 import { todayISO } from '$lib/inspectionState';
@@ -12,12 +13,12 @@ export const load: PageServerLoad = async ({ locals }) => {
 	const scope = await scopeOf(user);
 	const today = todayISO();
 	const [rows, chart, findings, officers] = await Promise.all([inspections.schedule(scope, today), inspections.chart(scope, today), inspections.openFindings(scope), inspections.officers()]);
-	return { today, rows, chart, findings, officers, canAssign: user.role === 'manager' || user.role === 'officer', canRecord: user.role === 'officer' };
+	return { today, rows, chart, findings, officers, canAssign: can(user, 'assignInspectors'), canRecord: can(user, 'recordInspections') };
 };
 
 export const actions: Actions = {
 	assign: async function assignInspector({ locals, request }) {
-		const scope = await scopeOf(requireRole(locals, 'manager', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'assignInspectors'));
 		const parsed = assignSchema.safeParse(await formObject(request));
 		if (!parsed.success) return fail(400, { assignError: parsed.error.issues[0].message });
 		const r = await inspections.assign(scope, parsed.data.inspectionId, parsed.data.inspectorId, parsed.data.version);

@@ -1,3 +1,4 @@
+import { can } from '$lib/abilities';
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as inspections from '$lib/server/inspections';
@@ -18,8 +19,8 @@ export const load: PageServerLoad = async ({ locals }) => {
 		notifications.recent(user.id, 10),
 		inspections.schedule(scope, today),
 		training.list(today, user.id),
-		user.role === 'researcher' || user.role === 'officer' ? authorisations.dutiesOf(scope, today) : Promise.resolve([]),
-		user.role === 'officer' ? officerDesk(scope, today) : Promise.resolve(null)
+		can(user, 'workWithLasers') ? authorisations.dutiesOf(scope, today) : Promise.resolve([]),
+		can(user, 'decideReviews') ? officerDesk(scope, today) : Promise.resolve(null)
 	]);
 	// The open inspections this person answers for: as the area's responsible person or as its inspector.
 	const mine = open.filter((r) => r.responsibleId === user.id || r.inspectorId === user.id);

@@ -1,7 +1,8 @@
+import { can } from '$lib/abilities';
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { intervalSchema } from '$lib/schemas/procedures';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
 import { failForm, readForm } from '$lib/server/forms';
@@ -27,13 +28,13 @@ export const load: PageServerLoad = async ({ locals }) => {
 		toSign: [...toSign.values()],
 		intervalMonths: interval.months,
 		canCreate: scope.editLabIds !== 'none',
-		intervalForm: user.role === 'officer' ? await superValidate({ months: interval.months, version: interval.version }, zod4(intervalSchema), { id: 'interval', errors: false }) : null
+		intervalForm: can(user, 'approveProcedures') ? await superValidate({ months: interval.months, version: interval.version }, zod4(intervalSchema), { id: 'interval', errors: false }) : null
 	};
 };
 
 export const actions: Actions = {
 	interval: async function setInterval({ locals, request }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'approveProcedures'));
 		const form = await readForm(request, zod4(intervalSchema), { id: 'interval' });
 		if (!form.valid) return fail(400, { intervalForm: form });
 		const r = await procedures.setSignoffInterval(scope, form.data.months, form.data.version);

@@ -1,3 +1,4 @@
+import { can } from '$lib/abilities';
 import { z } from 'zod';
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
@@ -24,6 +25,6 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		labs: scope.labIds === 'all' ? all : all.filter((l) => (scope.labIds as string[]).includes(l.id)),
 		filter,
 		counts,
-		isOfficer: user.role === 'officer'
+		isOfficer: can(user, 'decideReviews')
 	};
 };

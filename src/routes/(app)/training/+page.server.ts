@@ -1,7 +1,8 @@
+import { can } from '$lib/abilities';
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { recordTrainingSchema, withdrawTrainingSchema } from '$lib/schemas/training';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { failForm, readForm } from '$lib/server/forms';
 import * as training from '$lib/server/training';
 import { todayISO } from '$lib/inspectionState';
@@ -11,8 +12,8 @@ export const load: PageServerLoad = async ({ locals }) => {
 	const user = requireUser(locals);
 	// Researchers see their own records; officers, managers and admins everyone's.
 	const today = todayISO();
-	const canRecord = user.role === 'officer';
-	const [rows, people] = await Promise.all([training.list(today, user.role === 'researcher' ? user.id : undefined), canRecord ? training.people() : Promise.resolve([])]);
+	const canRecord = can(user, 'recordTraining');
+	const [rows, people] = await Promise.all([training.list(today, can(user, 'readEveryone') ? undefined : user.id), canRecord ? training.people() : Promise.resolve([])]);
 	return {
 		today,
 		rows,
@@ -25,7 +26,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 
 export const actions: Actions = {
 	record: async function recordTraining({ locals, request }) {
-		const officer = requireRole(locals, 'officer');
+		const officer = requireAbility(locals, 'recordTraining');
 		const form = await readForm(request, zod4(recordTrainingSchema), { id: 'record' });
 		if (!form.valid) return fail(400, { recordForm: form });
 		const result = await training.record(officer.id, form.data, todayISO());
@@ -33,7 +34,7 @@ export const actions: Actions = {
 		return message(form, 'Recorded.');
 	},
 	withdraw: async function withdrawTraining({ locals, request }) {
-		const officer = requireRole(locals, 'officer');
+		const officer = requireAbility(locals, 'recordTraining');
 		const form = await readForm(request, zod4(withdrawTrainingSchema), { id: 'withdraw' });
 		if (!form.valid) return fail(400, { withdrawForm: form });
 		const result = await training.withdraw(officer.id, form.data);

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { newLaserSchema } from '$lib/schemas/register';
 import { apiError, endpoint, fieldMessages, readJson } from '$lib/server/api';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
 import type { RequestHandler } from './$types';
@@ -17,7 +17,7 @@ export const GET: RequestHandler = endpoint(async ({ locals, url }) => {
 });
 
 export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
-	const user = requireRole(locals, 'researcher', 'officer');
+	const user = requireAbility(locals, 'changeRegister');
 	const body = await readJson(request, newLaserSchema);
 	if (!body.ok) return body.response;
 	const result = await lasers.create(await scopeOf(user), body.data);

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { limitFormSchema } from '$lib/schemas/limits';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import * as limits from '$lib/server/limits';
 import type { RequestHandler } from './$types';
 
@@ -11,7 +11,7 @@ export const GET: RequestHandler = endpoint(async ({ locals }) => {
 });
 
 export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
-	const officer = requireRole(locals, 'officer');
+	const officer = requireAbility(locals, 'manageLimits');
 	const body = await readJson(request, limitFormSchema);
 	if (!body.ok) return body.response;
 	const result = await limits.create(officer.id, body.data);

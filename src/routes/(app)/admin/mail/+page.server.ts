@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { listMailbox, readMailboxMessage } from '$lib/server/mail/mailbox';
 import { recentLedger } from '$lib/server/mail/outbox';
 import type { PageServerLoad } from './$types';
@@ -9,7 +9,7 @@ const query = z.object({ page: z.coerce.number().int().min(1).max(10000).catch(1
 
 /** The local fake mail server's inbox (non-production only) and our own sent-log. */
 export const load: PageServerLoad = async ({ locals, url }) => {
-	requireRole(locals, 'admin');
+	requireAbility(locals, 'administer');
 	const q = query.parse(Object.fromEntries(url.searchParams));
 	const box = await listMailbox({ page: q.page, pageSize: 25 });
 	if (!box.available) error(404, { message: `The local mailbox is not available: ${box.reason}` });

@@ -2,7 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { visitSchema, type VisitForm } from '$lib/schemas/authorisations';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as areas from '$lib/server/areas';
 import * as authorisations from '$lib/server/authorisations';
@@ -39,7 +39,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 
 export const actions: Actions = {
 	visit: async function recordVisit({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const form = await readForm(request, zod4(visitSchema), { id: 'visit' });
 		if (!form.valid) return fail(400, { visitForm: form });
 		const r = await areas.recordVisit(scope, params.areaId, form.data);

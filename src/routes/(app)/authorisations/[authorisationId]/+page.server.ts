@@ -1,8 +1,9 @@
+import { can } from '$lib/abilities';
 import { fail, redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { decideSchema, withdrawSchema, type DecideForm } from '$lib/schemas/authorisations';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
 import { failForm, readForm } from '$lib/server/forms';
@@ -15,7 +16,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const scope = await scopeOf(user);
 	const today = todayISO();
 	const { authorisation: a, lapses } = orError(await authorisations.find(scope, params.authorisationId, today));
-	const officer = user.role === 'officer';
+	const officer = can(user, 'approveProcedures');
 	const deciding = officer && a.decision === 'requested' && a.userId !== user.id;
 	const options = deciding ? await authorisations.conditionOptions({ laserId: a.laserId, areaId: a.areaId }) : null;
 	// The officer starts from the usual conditions: every approved procedure of the laser or area.
@@ -43,7 +44,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 
 export const actions: Actions = {
 	decide: async function decideAuthorisation({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'approveProcedures'));
 		const form = await readForm(request, zod4(decideSchema), { id: 'decide' });
 		if (!form.valid) return fail(400, { decideForm: form });
 		const r = await authorisations.decide(scope, params.authorisationId, form.data, todayISO());
@@ -51,7 +52,7 @@ export const actions: Actions = {
 		redirect(303, `/authorisations/${params.authorisationId}?decided=${form.data.decision}`);
 	},
 	withdraw: async function withdrawAuthorisation({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'approveProcedures'));
 		const form = await readForm(request, zod4(withdrawSchema), { id: 'withdraw' });
 		if (!form.valid) return fail(400, { withdrawForm: form });
 		const r = await authorisations.withdraw(scope, params.authorisationId, form.data.reason, form.data.version);

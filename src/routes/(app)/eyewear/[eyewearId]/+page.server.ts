@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { formObject } from '$lib/server/forms';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
 import { loadEyewearForm, saveEyewearForm } from '$lib/server/eyewearForms';
@@ -14,7 +14,7 @@ export const actions: Actions = {
 		return saveEyewearForm(locals, request, params.eyewearId);
 	},
 	retire: async function retireEyewear({ locals, request, params }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'manageEyewear'));
 		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(await formObject(request));
 		if (!parsed.success) return fail(400, { retireError: 'Reload the page and try again.' });
 		const result = await eyewear.retire(scope, params.eyewearId, parsed.data.version);

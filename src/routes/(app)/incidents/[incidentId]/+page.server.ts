@@ -2,7 +2,7 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { actionSchema, closeActionSchema, closeIncidentSchema, investigationSchema, liftSchema, suspendSchema, type InvestigationForm } from '$lib/schemas/incidents';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, formFields, readForm } from '$lib/server/forms';
 import { closeActionFromForm } from '$lib/server/incidentForms';
@@ -50,7 +50,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 };
 
 async function officerScope(locals: App.Locals) {
-	return scopeOf(requireRole(locals, 'officer'));
+	return scopeOf(requireAbility(locals, 'investigateIncidents'));
 }
 
 export const actions: Actions = {

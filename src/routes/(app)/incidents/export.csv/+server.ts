@@ -1,4 +1,4 @@
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as incidents from '$lib/server/incidents';
 import { todayISO } from '$lib/inspectionState';
@@ -6,7 +6,7 @@ import type { RequestHandler } from './$types';
 
 /** Every sent report, without any personal field (no reporter, no people involved). */
 export const GET: RequestHandler = async ({ locals }) => {
-	const scope = await scopeOf(requireRole(locals, 'officer', 'manager'));
+	const scope = await scopeOf(requireAbility(locals, 'readIncidentFigures'));
 	const today = todayISO();
 	const rows = (await incidents.list(scope, today, {}, 100_000)).filter((r) => r.state !== 'draft');
 	return new Response(incidents.toCsv(rows), {

@@ -1,8 +1,9 @@
+import { can } from '$lib/abilities';
 import { error, fail, redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { recordInspectionSchema, type RecordInspectionForm } from '$lib/schemas/inspections';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, formFields, readForm } from '$lib/server/forms';
 import * as inspections from '$lib/server/inspections';
@@ -38,13 +39,13 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		history: found.history,
 		templates: templates.map((t) => ({ id: t.id, name: t.name, items: t.items.map((i) => i.text) })),
 		form: await superValidate(start, zod4(recordInspectionSchema), { errors: false }),
-		canRecord: user.role === 'officer' && !found.inspection.completedOn
+		canRecord: can(user, 'recordInspections') && !found.inspection.completedOn
 	};
 };
 
 export const actions: Actions = {
 	record: async function recordInspection({ locals, request, params }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'recordInspections'));
 		const form = await readForm(request, zod4(recordInspectionSchema));
 		if (!form.valid) return fail(400, { form });
 		const r = await inspections.record(scope, params.inspectionId, form.data);
@@ -52,7 +53,7 @@ export const actions: Actions = {
 		redirect(303, `/inspections/${params.inspectionId}?next=${r.nextDueOn}`);
 	},
 	photos: async function attachPhotos({ locals, request, params }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'recordInspections'));
 		const data = await formFields(request);
 		if (!data) return fail(400, { photoError: 'The upload could not be read; send the form again.' });
 		const files = await readUploads(data, 'photos');

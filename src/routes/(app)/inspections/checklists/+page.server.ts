@@ -1,18 +1,18 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { templateSchema } from '$lib/schemas/inspections';
 import { formObject } from '$lib/server/forms';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import * as inspections from '$lib/server/inspections';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {
-	requireRole(locals, 'officer');
+	requireAbility(locals, 'recordInspections');
 	return { templates: await inspections.templates() };
 };
 
 export const actions: Actions = {
 	create: async function createChecklist({ locals, request }) {
-		const officer = requireRole(locals, 'officer');
+		const officer = requireAbility(locals, 'recordInspections');
 		const raw = await formObject(request);
 		const parsed = templateSchema.safeParse(raw);
 		if (!parsed.success) return fail(400, { error: parsed.error.issues[0].message, values: { name: String(raw.name ?? ''), items: String(raw.items ?? '') } });

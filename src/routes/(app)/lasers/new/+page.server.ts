@@ -2,7 +2,7 @@ import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { newLaserSchema } from '$lib/schemas/register';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
@@ -10,7 +10,7 @@ import * as lasers from '$lib/server/lasers';
 import type { Actions, PageServerLoad } from './$types';
 
 async function editableLabs(locals: App.Locals) {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const all = await labs.list();
 	return all.filter((l) => scope.editLabIds === 'all' || (Array.isArray(scope.editLabIds) && scope.editLabIds.includes(l.id)));
 }
@@ -24,7 +24,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 
 export const actions: Actions = {
 	default: async function registerLaser({ locals, request }) {
-		const user = requireRole(locals, 'researcher', 'officer');
+		const user = requireAbility(locals, 'changeRegister');
 		const form = await readForm(request, zod4(newLaserSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await lasers.create(await scopeOf(user), form.data);

@@ -1,9 +1,10 @@
+import { can } from '$lib/abilities';
 import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
 import { limitFormSchema, limitFormValues } from '$lib/schemas/limits';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { failForm, formObject, readForm } from '$lib/server/forms';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
@@ -21,13 +22,13 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		versions: found.versions.map((v) => ({ ...v, createdAt: v.createdAt.toISOString() })),
 		stale: await paths.countStale(),
 		form: await superValidate(values, zod4(limitFormSchema), { errors: false }),
-		canManage: user.role === 'officer'
+		canManage: can(user, 'manageLimits')
 	};
 };
 
 export const actions: Actions = {
 	revise: async function reviseLimit({ locals, request, params }) {
-		const officer = requireRole(locals, 'officer');
+		const officer = requireAbility(locals, 'manageLimits');
 		const form = await readForm(request, zod4(limitFormSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await limits.revise(officer.id, params.limitId, form.data);
@@ -35,7 +36,7 @@ export const actions: Actions = {
 		redirect(303, `/limits/${params.limitId}?revised=${result.version}&stale=${result.staleMarked}`);
 	},
 	retire: async function retireLimit({ locals, request, params }) {
-		const officer = requireRole(locals, 'officer');
+		const officer = requireAbility(locals, 'manageLimits');
 		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(await formObject(request));
 		if (!parsed.success) return fail(400, { retireError: 'Reload the page and try again.' });
 		const result = await limits.retire(officer.id, params.limitId, parsed.data.version);

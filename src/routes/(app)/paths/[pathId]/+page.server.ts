@@ -2,7 +2,7 @@ import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { replySchema } from '$lib/schemas/reviews';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import { loadPath, savePath } from '$lib/server/pathForms';
@@ -17,7 +17,7 @@ export const actions: Actions = {
 	},
 	/** The researcher answers a returned review from the path page the mail links to. */
 	reply: async function replyFromPath({ locals, request, params }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 		const form = await readForm(request, zod4(replySchema));
 		if (!form.valid) return fail(400, { replyForm: form });
 		const result = await reviews.reply(scope, params.pathId, form.data.body);

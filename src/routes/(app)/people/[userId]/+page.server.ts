@@ -1,3 +1,4 @@
+import { can } from '$lib/abilities';
 import { error } from '@sveltejs/kit';
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
@@ -13,7 +14,7 @@ import type { PageServerLoad } from './$types';
 export const load: PageServerLoad = async ({ locals, params }) => {
 	const user = requireUser(locals);
 	// A researcher sees only themselves; another person's page answers as if it did not exist.
-	if (user.role === 'researcher' && params.userId !== user.id) error(404, { message: 'No such person.' });
+	if (!can(user, 'readEveryone') && params.userId !== user.id) error(404, { message: 'No such person.' });
 	const person = await users.find(params.userId);
 	if (!person) error(404, { message: 'No such person.' });
 	const today = todayISO();

@@ -3,7 +3,7 @@ import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { addYears, format } from 'date-fns';
 import { approveSchema, confirmSchema, coverSchema, draftSchema, returnDraftSchema, signSchema, submitSchema } from '$lib/schemas/procedures';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, formFields, readForm } from '$lib/server/forms';
 import { nudge, queues } from '$lib/server/jobs/queues';
@@ -68,7 +68,7 @@ const mailSoon = () => nudge(queues.mailDeliver);
 
 export const actions: Actions = {
 	save: async function saveDraft({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const form = await readForm(request, zod4(draftSchema), { id: 'draft' });
 		if (!form.valid) return fail(400, { draftForm: form });
 		const r = await procedures.saveDraft(scope, params.procedureId, form.data);
@@ -76,7 +76,7 @@ export const actions: Actions = {
 		redirect(303, `/procedures/${params.procedureId}?saved=1#next-version`);
 	},
 	attach: async function attachPdf({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const data = await formFields(request);
 		if (!data) {
 			return fail(400, { pdfError: 'The upload could not be read; send the form again.' });
@@ -91,7 +91,7 @@ export const actions: Actions = {
 		redirect(303, `/procedures/${params.procedureId}?attached=1#next-version`);
 	},
 	detach: async function detachPdf({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const form = await readForm(request, zod4(submitSchema), { id: 'submit' });
 		if (!form.valid) return fail(400, { submitForm: form });
 		const r = await procedures.detachPdf(scope, params.procedureId, form.data.version);
@@ -99,7 +99,7 @@ export const actions: Actions = {
 		redirect(303, `/procedures/${params.procedureId}#next-version`);
 	},
 	submit: async function submitDraft({ locals, params, request }) {
-		const user = requireRole(locals, 'researcher', 'officer');
+		const user = requireAbility(locals, 'workWithLasers');
 		const scope = await scopeOf(user);
 		const form = await readForm(request, zod4(submitSchema), { id: 'submit' });
 		if (!form.valid) return fail(400, { submitForm: form });
@@ -109,7 +109,7 @@ export const actions: Actions = {
 		redirect(303, `/procedures/${params.procedureId}?submitted=1#next-version`);
 	},
 	approve: async function approveDraft({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'approveProcedures'));
 		const form = await readForm(request, zod4(approveSchema), { id: 'approve' });
 		if (!form.valid) return fail(400, { approveForm: form });
 		const r = await procedures.approve(scope, params.procedureId, form.data, todayISO());
@@ -117,7 +117,7 @@ export const actions: Actions = {
 		redirect(303, `/procedures/${params.procedureId}?approved=${r.number}`);
 	},
 	return: async function returnDraft({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'approveProcedures'));
 		const form = await readForm(request, zod4(returnDraftSchema), { id: 'return' });
 		if (!form.valid) return fail(400, { returnForm: form });
 		const r = await procedures.returnDraft(scope, params.procedureId, form.data.comment, form.data.version);
@@ -125,7 +125,7 @@ export const actions: Actions = {
 		redirect(303, `/procedures/${params.procedureId}?returned=1#next-version`);
 	},
 	sign: async function signProcedure({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const form = await readForm(request, zod4(signSchema), { id: 'sign' });
 		if (!form.valid) return fail(400, { signForm: form });
 		const r = await procedures.sign(scope, params.procedureId, form.data.versionId, todayISO());
@@ -133,7 +133,7 @@ export const actions: Actions = {
 		return message(form, `Signed on ${r.signedAt.toISOString().slice(0, 10)}. Thank you.`);
 	},
 	cover: async function coverPaths({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const form = await readForm(request, zod4(coverSchema), { id: 'cover' });
 		if (!form.valid) return fail(400, { coverForm: form });
 		const r = await procedures.cover(scope, params.procedureId, form.data.pathIds, form.data.version);
@@ -141,7 +141,7 @@ export const actions: Actions = {
 		return message(form, 'Saved the beam paths it covers.');
 	},
 	confirm: async function confirmProcedure({ locals, params, request }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'approveProcedures'));
 		const form = await readForm(request, zod4(confirmSchema), { id: 'confirm' });
 		if (!form.valid) return fail(400, { confirmForm: form });
 		const r = await procedures.confirmCurrent(scope, params.procedureId, form.data.note, form.data.version);

@@ -2,14 +2,14 @@ import { fail, redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { newProcedureSchema, type NewProcedureForm } from '$lib/schemas/procedures';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import * as procedures from '$lib/server/procedures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 	const options = await procedures.targetOptions(scope);
 	const wanted = url.searchParams.get('target') ?? '';
 	const known = [...options.lasers.map((l) => `laser:${l.id}`), ...options.areas.map((a) => `area:${a.id}`)];
@@ -19,7 +19,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 
 export const actions: Actions = {
 	create: async function createProcedure({ locals, request }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const form = await readForm(request, zod4(newProcedureSchema));
 		if (!form.valid) return fail(400, { form });
 		const r = await procedures.create(scope, form.data);

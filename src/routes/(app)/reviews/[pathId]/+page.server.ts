@@ -1,8 +1,9 @@
+import { can } from '$lib/abilities';
 import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { decisionSchema, replySchema, type DecisionForm } from '$lib/schemas/reviews';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as assessments from '$lib/server/assessments';
 import * as limits from '$lib/server/limits';
@@ -39,7 +40,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	}
 	const review = await reviews.record(detail.path, editable);
 	const history = review.history;
-	const self = user.role === 'officer' ? reviews.selfReviewReason(detail.path, user.id, latest.createdBy) : null;
+	const self = can(user, 'decideReviews') ? reviews.selfReviewReason(detail.path, user.id, latest.createdBy) : null;
 	const start: DecisionForm = {
 		assessmentId: latest.id,
 		afterDecisionId: history[0]?.id ?? '',
@@ -58,7 +59,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		limits: limitRows.map((l) => ({ id: l.limitId, version: l.version, label: l.label, citation: l.citation, demonstration: l.demonstration, tissue: l.tissue })),
 		changes,
 		review,
-		decide: user.role === 'officer' ? { allowed: !self && !detail.path.stale && !detail.path.draft, reason: self ?? (detail.path.stale ? 'The assessment is being re-evaluated; decide once the new result is in.' : detail.path.draft ? reviews.draftReason : null) } : null,
+		decide: can(user, 'decideReviews') ? { allowed: !self && !detail.path.stale && !detail.path.draft, reason: self ?? (detail.path.stale ? 'The assessment is being re-evaluated; decide once the new result is in.' : detail.path.draft ? reviews.draftReason : null) } : null,
 		decisionForm: await superValidate(start, zod4(decisionSchema), { errors: false, id: 'decision' }),
 		replyForm: await superValidate(zod4(replySchema), { id: 'reply' })
 	};
@@ -66,7 +67,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 
 export const actions: Actions = {
 	decide: async function decideReview({ locals, request, params }) {
-		const officer = await scopeOf(requireRole(locals, 'officer'));
+		const officer = await scopeOf(requireAbility(locals, 'decideReviews'));
 		const form = await readForm(request, zod4(decisionSchema));
 		if (!form.valid) return fail(400, { decisionForm: form });
 		const result = await reviews.decide(officer, params.pathId, form.data);
@@ -74,7 +75,7 @@ export const actions: Actions = {
 		redirect(303, `/reviews/${params.pathId}?decided=${form.data.decision}`);
 	},
 	reply: async function replyToReview({ locals, request, params }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 		const form = await readForm(request, zod4(replySchema));
 		if (!form.valid) return fail(400, { replyForm: form });
 		const result = await reviews.reply(scope, params.pathId, form.data.body);

@@ -1,19 +1,19 @@
 import { json } from '@sveltejs/kit';
 import { newUserSchema } from '$lib/schemas/users';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import * as users from '$lib/server/users';
 import type { RequestHandler } from './$types';
 
 export type UsersResponse = { users: users.UserSummary[] };
 
 export const GET: RequestHandler = endpoint(async ({ locals }) => {
-	requireRole(locals, 'admin');
+	requireAbility(locals, 'administer');
 	return json({ users: await users.list() } satisfies UsersResponse);
 });
 
 export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
-	const admin = requireRole(locals, 'admin');
+	const admin = requireAbility(locals, 'administer');
 	const body = await readJson(request, newUserSchema);
 	if (!body.ok) return body.response;
 	const result = await users.create(admin.id, body.data);

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { editLaserSchema } from '$lib/schemas/register';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
 import type { RequestHandler } from './$types';
@@ -14,7 +14,7 @@ export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 });
 
 export const PATCH: RequestHandler = endpoint(async ({ locals, request, params }) => {
-	const user = requireRole(locals, 'researcher', 'officer');
+	const user = requireAbility(locals, 'changeRegister');
 	const body = await readJson(request, editLaserSchema);
 	if (!body.ok) return body.response;
 	const scope = await scopeOf(user);

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { limitFormSchema } from '$lib/schemas/limits';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import * as limits from '$lib/server/limits';
 import type { RequestHandler } from './$types';
 
@@ -13,7 +13,7 @@ export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 
 /** A revision: a new version; `version` must be the current one. */
 export const PUT: RequestHandler = endpoint(async ({ locals, request, params }) => {
-	const officer = requireRole(locals, 'officer');
+	const officer = requireAbility(locals, 'manageLimits');
 	const body = await readJson(request, limitFormSchema);
 	if (!body.ok) return body.response;
 	const result = await limits.revise(officer.id, params.limitId, body.data);

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { pathFormSchema } from '$lib/schemas/register';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole, requireUser } from '$lib/server/auth/guard';
+import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as paths from '$lib/server/paths';
 import { pathStateOf } from '$lib/pathState';
@@ -16,7 +16,7 @@ export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 
 /** Replace the path (values with units, as in the editor); `version` must be the one read. */
 export const PUT: RequestHandler = endpoint(async ({ locals, request, params }) => {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const body = await readJson(request, pathFormSchema);
 	if (!body.ok) return body.response;
 	const found = await paths.find(scope, params.pathId);

@@ -2,14 +2,14 @@ import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { updateUserSchema } from '$lib/schemas/users';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {
-	requireRole(locals, 'admin');
+	requireAbility(locals, 'administer');
 	const person = await users.find(params.userId);
 	if (!person) error(404, { message: 'No such person.' });
 	const { role, labIds, disabled, version } = person;
@@ -22,7 +22,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 
 export const actions: Actions = {
 	save: async function saveUser({ locals, request, params }) {
-		const admin = requireRole(locals, 'admin');
+		const admin = requireAbility(locals, 'administer');
 		const form = await readForm(request, zod4(updateUserSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await users.update(admin.id, params.userId, form.data);

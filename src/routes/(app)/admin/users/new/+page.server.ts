@@ -2,20 +2,20 @@ import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { newUserSchema } from '$lib/schemas/users';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {
-	requireRole(locals, 'admin');
+	requireAbility(locals, 'administer');
 	return { form: await superValidate(zod4(newUserSchema)), labs: await labs.list() };
 };
 
 export const actions: Actions = {
 	default: async function createUser({ locals, request }) {
-		const admin = requireRole(locals, 'admin');
+		const admin = requireAbility(locals, 'administer');
 		const form = await readForm(request, zod4(newUserSchema));
 		const password = form.data.password;
 		form.data.password = ''; // never echo a password back

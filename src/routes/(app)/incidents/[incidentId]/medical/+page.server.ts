@@ -2,14 +2,14 @@ import { error, fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { medicalSchema } from '$lib/schemas/incidents';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import * as medical from '$lib/server/medical';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {
-	const scope = await scopeOf(requireRole(locals, 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'investigateIncidents'));
 	const record = await medical.read(scope, params.incidentId, 'page');
 	if (!record.ok) error(record.status, { message: record.message });
 	const start = { examinationRequestedOn: record.examinationRequestedOn ?? '', examinationDoneOn: record.examinationDoneOn ?? '', outcome: record.outcome, version: record.version };
@@ -18,7 +18,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 
 export const actions: Actions = {
 	save: async function saveMedicalFollowUp({ locals, request, params }) {
-		const scope = await scopeOf(requireRole(locals, 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'investigateIncidents'));
 		const form = await readForm(request, zod4(medicalSchema));
 		if (!form.valid) return fail(400, { form });
 		const r = await medical.save(scope, params.incidentId, form.data);

@@ -2,7 +2,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { editLaserSchema } from '$lib/schemas/register';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import * as labs from '$lib/server/labs';
@@ -11,7 +11,7 @@ import { orError } from '$lib/server/pages';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const { detail, editable } = orError(await lasers.find(scope, params.laserId));
 	if (!editable) error(403, { message: 'Only members of this laser’s lab and laser safety officers can change it.' });
 	const { labId, maker, model, serial, laserClass, status, notes, version } = detail.laser;
@@ -25,7 +25,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 
 export const actions: Actions = {
 	save: async function saveLaser({ locals, request, params }) {
-		const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+		const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 		const form = await readForm(request, zod4(editLaserSchema));
 		if (!form.valid) return fail(400, { form });
 		const result = await lasers.update(scope, params.laserId, form.data);

@@ -3,7 +3,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { lineSchema } from '$lib/schemas/register';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import * as lasers from '$lib/server/lasers';
@@ -13,7 +13,7 @@ import { formatQuantity, type QuantityKind } from '$lib/units';
 const shown = (v: string | null, kind: QuantityKind) => (v === null ? '' : formatQuantity(v, kind, { significantDigits: 12 }));
 
 export async function loadLineForm(locals: App.Locals, laserId: string, lineId: string | null) {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const { detail, editable } = orError(await lasers.find(scope, laserId));
 	if (!editable) error(403, { message: 'Only members of this laser’s lab and laser safety officers can change it.' });
 	const laser = { id: detail.laser.id, name: `${detail.laser.maker} ${detail.laser.model}` };
@@ -42,7 +42,7 @@ export async function loadLineForm(locals: App.Locals, laserId: string, lineId: 
 }
 
 export async function saveLineForm(locals: App.Locals, request: Request, laserId: string, lineId: string | null) {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const form = await readForm(request, zod4(lineSchema));
 	if (!form.valid) return fail(400, { form });
 	const result = await lasers.saveLine(scope, laserId, lineId, form.data);

@@ -1,18 +1,18 @@
 import { json } from '@sveltejs/kit';
 import { updateUserSchema } from '$lib/schemas/users';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import * as users from '$lib/server/users';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
-	requireRole(locals, 'admin');
+	requireAbility(locals, 'administer');
 	const person = await users.find(params.userId);
 	return person ? json(person) : apiError(404, 'No such person.');
 });
 
 export const PATCH: RequestHandler = endpoint(async ({ locals, request, params }) => {
-	const admin = requireRole(locals, 'admin');
+	const admin = requireAbility(locals, 'administer');
 	const body = await readJson(request, updateUserSchema);
 	if (!body.ok) return body.response;
 	const result = await users.update(admin.id, params.userId, body.data);

@@ -1,14 +1,14 @@
 import { json } from '@sveltejs/kit';
 import { medicalSchema } from '$lib/schemas/incidents';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as medical from '$lib/server/medical';
 import type { RequestHandler } from './$types';
 
 /** The medical follow-up: laser safety officers only. */
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
-	const scope = await scopeOf(requireRole(locals, 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'investigateIncidents'));
 	const r = await medical.read(scope, params.incidentId, 'api');
 	if (!r.ok) return apiError(r.status, r.message);
 	const { ok: _ok, ...record } = r;
@@ -16,7 +16,7 @@ export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 });
 
 export const PUT: RequestHandler = endpoint(async ({ locals, params, request }) => {
-	const scope = await scopeOf(requireRole(locals, 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'investigateIncidents'));
 	const body = await readJson(request, medicalSchema);
 	if (!body.ok) return body.response;
 	const r = await medical.save(scope, params.incidentId, body.data);

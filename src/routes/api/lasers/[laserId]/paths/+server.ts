@@ -1,13 +1,13 @@
 import { json } from '@sveltejs/kit';
 import { pathFormSchema } from '$lib/schemas/register';
 import { apiError, endpoint, readJson } from '$lib/server/api';
-import { requireRole } from '$lib/server/auth/guard';
+import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as paths from '$lib/server/paths';
 import type { RequestHandler } from './$types';
 
 export const POST: RequestHandler = endpoint(async ({ locals, request, params }) => {
-	const scope = await scopeOf(requireRole(locals, 'researcher', 'officer'));
+	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
 	const body = await readJson(request, pathFormSchema);
 	if (!body.ok) return body.response;
 	const saved = await paths.save(scope, params.laserId, null, { ...body.data, version: 0 });
