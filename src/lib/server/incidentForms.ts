@@ -1,7 +1,7 @@
 // The report form's server side, shared by a new report and a draft being finished: read the
 // multipart body once, validate the fields and the photos, save, and say where to go next.
-import { fail, redirect } from '@sveltejs/kit';
-import { message, superValidate } from 'sveltekit-superforms';
+import { redirect } from '@sveltejs/kit';
+import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { closeActionSchema, reportSchema } from '$lib/schemas/incidents';
 import type { Scope } from '$lib/server/auth/scope';

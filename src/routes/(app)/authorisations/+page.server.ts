@@ -1,6 +1,6 @@
 import { can } from '$lib/abilities';
-import { fail, redirect } from '@sveltejs/kit';
-import { superValidate } from 'sveltekit-superforms';
+import { redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { grantSchema, requestSchema, type GrantForm } from '$lib/schemas/authorisations';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';

@@ -1,5 +1,5 @@
 import { can } from '$lib/abilities';
-import { fail } from '@sveltejs/kit';
+import { fail } from 'sveltekit-superforms';
 import { assignSchema } from '$lib/schemas/inspections';
 import { formObject } from '$lib/server/forms';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';

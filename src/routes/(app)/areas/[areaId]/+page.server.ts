@@ -1,5 +1,4 @@
-import { fail } from '@sveltejs/kit';
-import { message, superValidate } from 'sveltekit-superforms';
+import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { visitSchema, type VisitForm } from '$lib/schemas/authorisations';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';

@@ -1,4 +1,5 @@
-import { fail, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
+import { fail } from 'sveltekit-superforms';
 import { z } from 'zod';
 import { formObject } from '$lib/server/forms';
 import { requireAbility } from '$lib/server/auth/guard';

@@ -1,5 +1,5 @@
-import { error, fail, redirect } from '@sveltejs/kit';
-import { message, superValidate } from 'sveltekit-superforms';
+import { error, redirect } from '@sveltejs/kit';
+import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { actionSchema, closeActionSchema, closeIncidentSchema, investigationSchema, liftSchema, suspendSchema, type InvestigationForm } from '$lib/schemas/incidents';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';

@@ -1,6 +1,6 @@
 import { can } from '$lib/abilities';
-import { error, fail, redirect } from '@sveltejs/kit';
-import { superValidate } from 'sveltekit-superforms';
+import { error, redirect } from '@sveltejs/kit';
+import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { recordInspectionSchema, type RecordInspectionForm } from '$lib/schemas/inspections';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
