@@ -7,6 +7,7 @@ import * as paths from '$lib/server/paths';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import { currentLimits } from '$lib/server/assessments';
+import { startJobs, stopJobs } from '$lib/server/jobs/workers';
 import type { Scope } from '$lib/server/auth/scope';
 import { laserForm, limitForm, makeLab, makeUser, must, pathForm, scopeFor } from './factories';
 
@@ -207,6 +208,41 @@ describe('beam paths and their assessment snapshots', () => {
 		await paths.reassessStale();
 		found = await paths.find(officer, saved.id);
 		expect(found.ok && found.detail.latest?.limitVersions).toContainEqual({ id: created.id, version: '2' });
+	});
+
+	it('a changed line makes its paths stale and asks the re-evaluation to run now, as a limit change does', { timeout: 90_000 }, async () => {
+		const laser = await newLaser(researcher, labA.id);
+		const saved = must(await paths.save(researcher, laser.laser.id, null, pathForm(laser.lines[0].id)));
+		const staleOf = async () => (await db.select({ stale: table.beamPath.stale }).from(table.beamPath).where(eq(table.beamPath.id, saved.id)))[0].stale;
+		const until = async (check: () => Promise<boolean>, ms: number) => {
+			const end = Date.now() + ms;
+			while (Date.now() < end) {
+				if (await check()) return true;
+				await new Promise((r) => setTimeout(r, 250));
+			}
+			return false;
+		};
+		await startJobs(process.env.DATABASE_URL!);
+		try {
+			// The start-up run clears whatever earlier tests left stale; wait until it has finished and the queue is idle.
+			const idle = async () => {
+				const [q] = await db.execute<{ waiting: number; done: number }>(
+					sql`SELECT count(*) FILTER (WHERE state IN ('created', 'retry', 'active'))::int AS waiting, count(*) FILTER (WHERE state = 'completed')::int AS done FROM pgboss.job WHERE name = 'reassess-paths'`
+				);
+				return q.waiting === 0 && q.done > 0;
+			};
+			expect(await until(idle, 40_000)).toBe(true);
+			// Keep clear of the five-minute schedule, so only a nudge can explain a prompt run.
+			const toBoundary = 300_000 - (Date.now() % 300_000);
+			if (toBoundary < 30_000) await new Promise((r) => setTimeout(r, toBoundary + 2_000));
+			const { version, id } = laser.lines[0];
+			const changed = await lasers.saveLine(researcher, laser.laser.id, id, { ...laserForm(labA.id, { power: '6 W' }).line, version });
+			expect(changed).toMatchObject({ ok: true });
+			expect(await staleOf(), 'the change made the path stale').toBe(true);
+			expect(await until(async () => !(await staleOf()), 20_000), 're-evaluated within 20 s of the change').toBe(true);
+		} finally {
+			await stopJobs();
+		}
 	});
 
 	it('a malformed limit id is “no such limit”, not a database error', async () => {

@@ -3,6 +3,7 @@ import { and, asc, desc, eq, gte, inArray, lte, sql, type SQL } from 'drizzle-or
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { lineToSI, type LineValues, type NewLaserForm } from '$lib/schemas/register';
@@ -301,7 +302,7 @@ export async function saveLine(scope: Scope, laserId: string, lineId: string | n
 	if (!found.editable) return cannotChange('laser');
 	const line = checkedLine(input);
 	if (!line.ok) return fieldsNeedAttention(line.errors);
-	return db.transaction(async (tx) => {
+	const saved = await db.transaction(async (tx) => {
 		if (lineId === null) {
 			const [row] = await tx.insert(table.emissionLine).values({ laserId, ...line.value }).returning();
 			await refreshWavelengthSpan(tx, laserId);
@@ -322,4 +323,7 @@ export async function saveLine(scope: Scope, laserId: string, lineId: string | n
 		await audit.record(tx, { actorId: scope.userId, action: 'line.update', entity: 'emission_line', entityId: lineId, before, after });
 		return { ok: true, id: lineId } as const;
 	});
+	// As a limit change does: re-evaluate now rather than at the next schedule.
+	if (saved.ok && lineId !== null) await nudge(queues.reassessPaths);
+	return saved;
 }
