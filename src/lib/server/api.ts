@@ -1,5 +1,6 @@
 // One shape for every JSON API answer that is not a success: { message, fields? } with a 4xx/5xx.
 import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
+import type { Failure } from '$lib/server/failure';
 import type { z } from 'zod';
 import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from './db/errors';
 import { noteUnavailable } from './db/outage';
@@ -9,6 +10,11 @@ export type ApiError = App.Error;
 
 export function apiError(status: number, message: string, fields?: Record<string, string[]>) {
 	return json({ message, ...(fields ? { fields } : {}) } satisfies ApiError, { status });
+}
+
+/** A data module's failure as the API's error answer (its status, message and field messages). */
+export function failureAnswer(f: Failure) {
+	return apiError(f.status, f.message, f.fields);
 }
 
 /** Wrap an endpoint so guards' `error()` and unexpected failures still answer in the API shape. */

@@ -4,7 +4,7 @@ import { and, asc, eq, inArray, ne, sql } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import { canEdit, type Scope } from '$lib/server/auth/scope';
+import { canEdit, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import { adequacy, type AdequacyResult, type BandOnRecord, type Requirement } from '$lib/server/eyewearAdequacy';
@@ -23,7 +23,7 @@ export async function list(scope: Scope) {
 		.select({ item: table.eyewear, labCode: table.lab.code })
 		.from(table.eyewear)
 		.innerJoin(table.lab, eq(table.lab.id, table.eyewear.labId))
-		.where(scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.eyewear.labId, scope.labIds) : sql`false`)
+		.where(inReadableLabs(scope, table.eyewear.labId))
 		.orderBy(asc(table.lab.code), asc(table.eyewear.label));
 	const ids = items.map((i) => i.item.id);
 	const bands = ids.length ? await db.select().from(table.eyewearBand).where(inArray(table.eyewearBand.eyewearId, ids)).orderBy(asc(table.eyewearBand.wavelengthMin)) : [];
@@ -148,7 +148,7 @@ export async function clearedPathChecks(scope: Scope) {
 			and(
 				eq(table.beamPath.reviewState, 'cleared'),
 				eq(table.beamPath.retired, false),
-				scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`
+				inReadableLabs(scope, table.laser.labId)
 			)
 		);
 	const checks = await checksForPaths(cleared.map((c) => c.id));

@@ -14,7 +14,7 @@ import { alias } from 'drizzle-orm/pg-core';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import { canRead, type Scope } from '$lib/server/auth/scope';
+import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import { nudge, queues } from '$lib/server/jobs/queues';
@@ -65,7 +65,7 @@ export type Places = {
  * person reads (the register of other labs stays theirs).
  */
 export async function places(scope: Scope): Promise<Places> {
-	const labFilter = scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`;
+	const labFilter = inReadableLabs(scope, table.laser.labId);
 	const [areas, lasers, paths] = await Promise.all([
 		db
 			.select({ id: table.area.id, name: table.area.name, labId: table.area.labId, labCode: table.lab.code })

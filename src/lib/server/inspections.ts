@@ -5,7 +5,7 @@ import { and, asc, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm'
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import { canRead, type Scope } from '$lib/server/auth/scope';
+import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 import { csvCell } from '$lib/server/csv';
 import { isUuid } from '$lib/server/lasers';
@@ -16,7 +16,7 @@ import type { RecordInspectionForm } from '$lib/schemas/inspections';
 import { can } from '$lib/abilities';
 
 const labScope = (scope: Scope): SQL | undefined =>
-	scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.area.labId, scope.labIds) : sql`false`;
+	inReadableLabs(scope, table.area.labId);
 
 const inspectorUser = db
 	.select({ id: table.user.id, name: table.user.name })

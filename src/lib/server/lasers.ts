@@ -4,7 +4,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { nudge, queues } from '$lib/server/jobs/queues';
-import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
+import { canEdit, canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { lineToSI, type LineValues, type NewLaserForm } from '$lib/schemas/register';
 import { lineFromRow } from '$lib/schemas/assessment';
@@ -84,7 +84,8 @@ export function inventoryFromQuery(searchParams: URLSearchParams): { ok: true; q
 
 export async function inventory(scope: Scope, q: InventoryQuery): Promise<InventoryPage> {
 	const where: SQL[] = [];
-	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
+	const readable = inReadableLabs(scope, table.laser.labId);
+	if (readable) where.push(readable);
 	if (q.labId) where.push(eq(table.laser.labId, q.labId));
 	if (q.laserClass) where.push(eq(table.laser.laserClass, q.laserClass));
 	if (q.status) where.push(eq(table.laser.status, q.status));

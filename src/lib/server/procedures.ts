@@ -7,7 +7,7 @@ import { addYears, formatISO, parseISO } from 'date-fns';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
+import { canEdit, canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import { procedureHtml } from '$lib/server/richText';
@@ -153,7 +153,8 @@ export type ListFilter = { laserId?: string; areaId?: string; labId?: string; in
 /** Procedures the person may read, with their state today; one query. */
 export async function list(scope: Scope, today: string, filter: ListFilter = {}): Promise<ProcedureRow[]> {
 	const where: SQL[] = [];
-	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(p.labId, scope.labIds) : sql`false`);
+	const readable = inReadableLabs(scope, p.labId);
+	if (readable) where.push(readable);
 	if (filter.labId) where.push(eq(p.labId, filter.labId));
 	if (filter.laserId) where.push(eq(p.laserId, filter.laserId));
 	if (filter.areaId)

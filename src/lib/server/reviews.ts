@@ -4,7 +4,7 @@ import { and, asc, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import { canRead, type Scope } from '$lib/server/auth/scope';
+import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { cannotChange, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
 import { needsReview } from '$lib/server/assessments';
@@ -85,7 +85,8 @@ export const QUEUE_PAGE_SIZE = 50;
 /** Paths waiting for review (or as filtered), oldest first; one query for the page. */
 export async function queue(scope: Scope, filter: QueueFilter = {}) {
 	const where: SQL[] = [eq(table.beamPath.retired, false)];
-	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
+	const readable = inReadableLabs(scope, table.laser.labId);
+	if (readable) where.push(readable);
 	if (filter.labId) where.push(eq(table.laser.labId, filter.labId));
 	const state = filter.state ?? 'waiting';
 	if (state === 'all') where.push(sql`(${table.beamPath.reviewState} <> 'not_needed' OR ${table.beamPath.stale})`);
@@ -144,7 +145,8 @@ export type QueueRow = Awaited<ReturnType<typeof queue>>[number];
 /** Counts for the overview and the review desk: live paths in each state, under the state's one name. */
 export async function counts(scope: Scope): Promise<Record<PathState, number> & { total: number }> {
 	const where: SQL[] = [eq(table.beamPath.retired, false)];
-	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
+	const readable = inReadableLabs(scope, table.laser.labId);
+	if (readable) where.push(readable);
 	const rows = await db
 		.select({ state: pathStateSql, n: sql<number>`count(*)::int` })
 		.from(table.beamPath)

@@ -1,6 +1,6 @@
 // Who may see and change which lab's records. Researchers work in their own labs; officers in all;
 // managers and admins read everything and change nothing in the register.
-import { eq } from 'drizzle-orm';
+import { eq, inArray, sql, type Column, type SQL } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import type { SessionUser } from './session';
@@ -21,4 +21,10 @@ export function canRead(scope: Scope, labId: string): boolean {
 
 export function canEdit(scope: Scope, labId: string): boolean {
 	return scope.editLabIds === 'all' || (Array.isArray(scope.editLabIds) && scope.editLabIds.includes(labId));
+}
+
+/** The rows of the labs this scope reads, as a condition on a lab id column (undefined: every lab). */
+export function inReadableLabs(scope: Scope, labId: Column): SQL | undefined {
+	if (scope.labIds === 'all') return undefined;
+	return scope.labIds.length ? inArray(labId, scope.labIds) : sql`false`;
 }

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { newLaserSchema } from '$lib/schemas/register';
-import { apiError, endpoint, fieldMessages, readJson } from '$lib/server/api';
+import { apiError, failureAnswer, endpoint, fieldMessages, readJson } from '$lib/server/api';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
@@ -21,6 +21,6 @@ export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
 	const body = await readJson(request, newLaserSchema);
 	if (!body.ok) return body.response;
 	const result = await lasers.create(await scopeOf(user), body.data);
-	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	if (!result.ok) return failureAnswer(result);
 	return json({ id: result.id }, { status: 201 });
 });

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { limitFormSchema } from '$lib/schemas/limits';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import * as limits from '$lib/server/limits';
 import type { RequestHandler } from './$types';
@@ -15,6 +15,6 @@ export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
 	const body = await readJson(request, limitFormSchema);
 	if (!body.ok) return body.response;
 	const result = await limits.create(officer.id, body.data);
-	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	if (!result.ok) return failureAnswer(result);
 	return json(result, { status: 201 });
 });

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { newUserSchema } from '$lib/schemas/users';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import * as users from '$lib/server/users';
 import type { RequestHandler } from './$types';
@@ -17,6 +17,6 @@ export const POST: RequestHandler = endpoint(async ({ locals, request }) => {
 	const body = await readJson(request, newUserSchema);
 	if (!body.ok) return body.response;
 	const result = await users.create(admin.id, body.data);
-	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	if (!result.ok) return failureAnswer(result);
 	return json({ id: result.id }, { status: 201 });
 });

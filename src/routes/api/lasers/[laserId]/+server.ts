@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { editLaserSchema } from '$lib/schemas/register';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';
@@ -9,7 +9,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 	const user = requireUser(locals);
 	const found = await lasers.find(await scopeOf(user), params.laserId);
-	if (!found.ok) return apiError(found.status, found.message);
+	if (!found.ok) return failureAnswer(found);
 	return json({ ...found.detail, editable: found.editable });
 });
 
@@ -19,7 +19,7 @@ export const PATCH: RequestHandler = endpoint(async ({ locals, request, params }
 	if (!body.ok) return body.response;
 	const scope = await scopeOf(user);
 	const result = await lasers.update(scope, params.laserId, body.data);
-	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	if (!result.ok) return failureAnswer(result);
 	const found = await lasers.find(scope, params.laserId);
 	return json(found.ok ? found.detail : null);
 });

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { limitFormSchema } from '$lib/schemas/limits';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { apiError, failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import * as limits from '$lib/server/limits';
 import type { RequestHandler } from './$types';
@@ -17,6 +17,6 @@ export const PUT: RequestHandler = endpoint(async ({ locals, request, params }) 
 	const body = await readJson(request, limitFormSchema);
 	if (!body.ok) return body.response;
 	const result = await limits.revise(officer.id, params.limitId, body.data);
-	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	if (!result.ok) return failureAnswer(result);
 	return json(result);
 });

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { updateUserSchema } from '$lib/schemas/users';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { apiError, failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import * as users from '$lib/server/users';
 import type { RequestHandler } from './$types';
@@ -16,6 +16,6 @@ export const PATCH: RequestHandler = endpoint(async ({ locals, request, params }
 	const body = await readJson(request, updateUserSchema);
 	if (!body.ok) return body.response;
 	const result = await users.update(admin.id, params.userId, body.data);
-	if (!result.ok) return apiError(result.status, result.message, result.fields);
+	if (!result.ok) return failureAnswer(result);
 	return json(await users.find(params.userId));
 });

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { medicalSchema } from '$lib/schemas/incidents';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as medical from '$lib/server/medical';
@@ -10,7 +10,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 	const scope = await scopeOf(requireAbility(locals, 'investigateIncidents'));
 	const r = await medical.read(scope, params.incidentId, 'api');
-	if (!r.ok) return apiError(r.status, r.message);
+	if (!r.ok) return failureAnswer(r);
 	const { ok: _ok, ...record } = r;
 	return json(record);
 });
@@ -20,9 +20,9 @@ export const PUT: RequestHandler = endpoint(async ({ locals, params, request }) 
 	const body = await readJson(request, medicalSchema);
 	if (!body.ok) return body.response;
 	const r = await medical.save(scope, params.incidentId, body.data);
-	if (!r.ok) return apiError(r.status, r.message, r.fields);
+	if (!r.ok) return failureAnswer(r);
 	const saved = await medical.read(scope, params.incidentId, 'api');
-	if (!saved.ok) return apiError(saved.status, saved.message);
+	if (!saved.ok) return failureAnswer(saved);
 	const { ok: _ok, ...record } = saved;
 	return json(record);
 });

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { pathFormSchema } from '$lib/schemas/register';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as paths from '$lib/server/paths';
@@ -11,6 +11,6 @@ export const POST: RequestHandler = endpoint(async ({ locals, request, params })
 	const body = await readJson(request, pathFormSchema);
 	if (!body.ok) return body.response;
 	const saved = await paths.save(scope, params.laserId, null, { ...body.data, version: 0 });
-	if (!saved.ok) return apiError(saved.status, saved.message, saved.fields);
+	if (!saved.ok) return failureAnswer(saved);
 	return json(saved, { status: 201 });
 });
