@@ -1,0 +1,35 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { z } from 'zod';
+import { requireRole } from '$lib/server/auth/guard';
+import { formObject } from '$lib/server/forms';
+import * as limitSets from '$lib/server/limitSets';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+	requireRole(locals, 'officer');
+	const found = await limitSets.find(params.importId);
+	if (!found) error(404, { message: 'No such import.' });
+	return {
+		draft: { id: found.id, state: found.state, fileName: found.fileName, createdAt: found.createdAt.toISOString(), decidedAt: found.decidedAt?.toISOString() ?? null, outcome: found.outcome },
+		plan: found.plan
+	};
+};
+
+const publishSchema = z.object({ stamp: z.string().regex(/^[0-9a-f]{32}$/) });
+
+export const actions: Actions = {
+	publish: async function publishImport({ locals, params, request }) {
+		const officer = requireRole(locals, 'officer');
+		const parsed = publishSchema.safeParse(await formObject(request));
+		if (!parsed.success) return fail(400, { decisionError: 'Reload the page and try again.' });
+		const result = await limitSets.publish(officer.id, params.importId, parsed.data.stamp);
+		if (!result.ok) return fail(result.status, { decisionError: result.message });
+		redirect(303, `/limits/import/${params.importId}?published=1`);
+	},
+	discard: async function discardImport({ locals, params }) {
+		const officer = requireRole(locals, 'officer');
+		const result = await limitSets.discard(officer.id, params.importId);
+		if (!result.ok) return fail(result.status, { decisionError: result.message });
+		redirect(303, '/limits/import?discarded=1');
+	}
+};
