@@ -89,7 +89,7 @@ describe('limit sets', () => {
 		expect(pathNow.stale).toBe(true);
 		const [snapshot] = await db.select({ stale: table.assessment.stale, reason: table.assessment.staleReason }).from(table.assessment).where(eq(table.assessment.pathId, path.id));
 		expect(snapshot).toEqual({ stale: true, reason: `Limit “${target.label}” revised to version 2` });
-		const trail = await db.select().from(table.auditLog).where(and(eq(table.auditLog.entityId, target.id), eq(table.auditLog.action, 'limit.revise')));
+		const trail = await db.select().from(table.auditLog).where(and(eq(table.auditLog.entityId, target.id!), eq(table.auditLog.action, 'limit.revise')));
 		expect(trail).toHaveLength(1);
 	});
 

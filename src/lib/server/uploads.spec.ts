@@ -78,7 +78,7 @@ describe('uploads', () => {
 describe('text uploads (data files)', () => {
 	const text = (parts: (Uint8Array | string)[], name = 'set.json', max = 1024) => {
 		const form = new FormData();
-		for (const p of parts) form.append('file', new File([p], name));
+		for (const p of parts) form.append('file', new File([typeof p === 'string' ? p : new Uint8Array(p)], name));
 		return readTextUpload(form, 'file', max);
 	};
 	it('reads one UTF-8 file and keeps a clean file name', async () => {
