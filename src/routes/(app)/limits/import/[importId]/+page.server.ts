@@ -15,19 +15,21 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	};
 };
 
-const publishSchema = z.object({ stamp: z.string().regex(/^[0-9a-f]{32}$/) });
+/** The stamp of the comparison the officer saw (limitSets.plan): publishing checks it, both actions require it. */
+const decisionSchema = z.object({ stamp: z.string().regex(/^[0-9a-f]{32}$/) });
 
 export const actions: Actions = {
 	publish: async function publishImport({ locals, params, request }) {
 		const officer = requireRole(locals, 'officer');
-		const parsed = publishSchema.safeParse(await formObject(request));
+		const parsed = decisionSchema.safeParse(await formObject(request));
 		if (!parsed.success) return fail(400, { decisionError: 'Reload the page and try again.' });
 		const result = await limitSets.publish(officer.id, params.importId, parsed.data.stamp);
 		if (!result.ok) return fail(result.status, { decisionError: result.message });
 		redirect(303, `/limits/import/${params.importId}?published=1`);
 	},
-	discard: async function discardImport({ locals, params }) {
+	discard: async function discardImport({ locals, params, request }) {
 		const officer = requireRole(locals, 'officer');
+		if (!decisionSchema.safeParse(await formObject(request)).success) return fail(400, { decisionError: 'Reload the page and try again.' });
 		const result = await limitSets.discard(officer.id, params.importId);
 		if (!result.ok) return fail(result.status, { decisionError: result.message });
 		redirect(303, '/limits/import?discarded=1');
