@@ -14,6 +14,8 @@ async function library() {
 }
 
 test('the officer downloads the limit set, uploads it back unchanged, and gets a report for a broken file', async ({ page }, testInfo) => {
+	// Four accessibility checks and two uploads on a shared machine.
+	test.setTimeout(150_000);
 	await signIn(page, demo('officer'));
 	await page.goto('/limits');
 	await expectAccessible(page);
