@@ -5,7 +5,7 @@ import { client } from '$lib/server/db';
 import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from '$lib/server/db/errors';
 import { databaseDown, noteUnavailable, onOutage } from '$lib/server/db/outage';
 import { readConfig } from '$lib/server/config';
-import { startJobs, stopJobs } from '$lib/server/jobs';
+import { startJobs, stopJobs } from '$lib/server/jobs/workers';
 import * as auth from '$lib/server/auth/session';
 import { allows, ruleFor } from '$lib/server/auth/policy';
 import { forbidden } from '$lib/server/auth/guard';

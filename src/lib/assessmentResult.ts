@@ -317,3 +317,21 @@ export function draftGaps(result: AssessmentResult): string[] {
 export function isCurrentResult(r: unknown): r is AssessmentResult {
 	return typeof r === 'object' && r !== null && Array.isArray((r as AssessmentResult).lines) && typeof (r as AssessmentResult).engineVersion === 'string';
 }
+
+/** Exposure along the path for the plot (computed by $lib/server/profile). */
+export type ProfileSample = {
+	position: number;
+	/** Exposure of the plotted check, in its unit; null where it cannot be computed. */
+	exposure: number | null;
+	/** The most restrictive applicable limit of that check, same unit; null = no applicable limit. */
+	limit: number | null;
+	accessible: boolean;
+};
+
+export type Profile = {
+	check: CheckKind | null;
+	checkLabel: string;
+	unit: string | null;
+	exposureDuration: number | null;
+	samples: ProfileSample[];
+};

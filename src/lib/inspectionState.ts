@@ -16,3 +16,6 @@ export function inspectionState(dueOn: string, completedOn: string | null, today
 export function todayISO(now = new Date()): string {
 	return now.toISOString().slice(0, 10);
 }
+
+/** Inspections falling due (or overdue) in one calendar month, for the chart. */
+export type MonthCount = { month: string; count: number };

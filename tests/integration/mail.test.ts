@@ -14,8 +14,8 @@ import { listMailbox, readMailboxDir, readMailboxMessage, type StoredMail } from
 import * as templates from '$lib/server/mail/templates';
 import { createSender } from '$lib/server/mail/transport';
 import { readMailConfig } from '$lib/server/mail/config';
-import { nudge, startJobs, stopJobs } from '$lib/server/jobs';
-import { queueDefinitions, queues } from '$lib/server/jobs/queues';
+import { startJobs, stopJobs } from '$lib/server/jobs/workers';
+import { nudge, queueDefinitions, queues } from '$lib/server/jobs/queues';
 import { startFakeMailServer, type FakeMailServer } from '../../scripts/fake-mail';
 import { makeUser } from './factories';
 import { freePort } from '../free-port';

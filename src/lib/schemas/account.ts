@@ -1,3 +1,4 @@
+import type { Role } from '$lib/roles';
 import { z } from 'zod';
 
 export const resetRequestSchema = z
@@ -13,3 +14,13 @@ export const newPasswordSchema = z
 	.refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ.' });
 
 export const preferencesSchema = z.object({ mailMode: z.enum(['immediate', 'digest'], { error: 'Choose immediate mails or a daily digest.' }) }).strict();
+
+/** GET /api/me: who is signed in and when the session ends. */
+export type MeResponse = {
+	id: string;
+	name: string;
+	email: string;
+	role: Role;
+	labs: { id: string; code: string; name: string }[];
+	session: { idleEndsAt: string; absoluteEndsAt: string };
+};

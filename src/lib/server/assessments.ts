@@ -61,3 +61,9 @@ export async function latestFor(pathId: string, ex: Executor = db) {
 	const [row] = await ex.select().from(table.assessment).where(eq(table.assessment.pathId, pathId)).orderBy(desc(table.assessment.createdAt)).limit(1);
 	return row ?? null;
 }
+
+/** One stored snapshot's inputs and result, or null. */
+export async function snapshot(assessmentId: string, ex: Executor = db) {
+	const [row] = await ex.select({ inputs: table.assessment.inputs, result: table.assessment.result }).from(table.assessment).where(eq(table.assessment.id, assessmentId));
+	return row ?? null;
+}

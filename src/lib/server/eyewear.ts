@@ -136,6 +136,24 @@ export async function checksForPaths(pathIds: string[]): Promise<Map<string, Eye
 }
 
 /** Withdraw an item from use (lost, discarded): it stays on record and never counts again. */
+/** Cleared paths in scope, each with whether its lab's eyewear meets its eyewear controls. */
+export async function clearedPathChecks(scope: Scope) {
+	const cleared = await db
+		.select({ id: table.beamPath.id, name: table.beamPath.name, labCode: table.lab.code })
+		.from(table.beamPath)
+		.innerJoin(table.laser, eq(table.laser.id, table.beamPath.laserId))
+		.innerJoin(table.lab, eq(table.lab.id, table.laser.labId))
+		.where(
+			and(
+				eq(table.beamPath.reviewState, 'cleared'),
+				eq(table.beamPath.retired, false),
+				scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`
+			)
+		);
+	const checks = await checksForPaths(cleared.map((c) => c.id));
+	return cleared.map((c) => ({ ...c, check: checks.get(c.id) ?? null }));
+}
+
 export async function retire(scope: Scope, eyewearId: string, version: number): Promise<{ ok: true } | Failure> {
 	if (!isUuid(eyewearId)) return notFound('eyewear');
 	return db.transaction(async (tx) => {

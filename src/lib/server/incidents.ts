@@ -17,8 +17,7 @@ import * as audit from '$lib/server/audit';
 import { canRead, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 import { isUuid } from '$lib/server/lasers';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import { readMailConfig } from '$lib/server/mail/config';
 import * as outbox from '$lib/server/mail/outbox';
 import * as templates from '$lib/server/mail/templates';
@@ -182,7 +181,7 @@ export async function saveReport(scope: Scope, incidentId: string | null, f: Rep
 		if (submit && row.kind === 'eye_exposure') await enqueueEyeExposureMails(tx, row);
 		return { ok: true as const, id: row.id, submitted: submit };
 	});
-	if (outcome.ok && outcome.submitted) await jobs.nudge(queues.mailDeliver);
+	if (outcome.ok && outcome.submitted) await nudge(queues.mailDeliver);
 	return outcome;
 }
 

@@ -10,6 +10,7 @@ import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure 
 import { csvCell } from '$lib/server/csv';
 import { isUuid } from '$lib/server/lasers';
 import type { StoredUpload } from '$lib/server/uploads';
+import type { MonthCount } from '$lib/inspectionState';
 import { inspectionState, type InspectionState } from '$lib/inspectionState';
 import type { RecordInspectionForm } from '$lib/schemas/inspections';
 
@@ -65,7 +66,6 @@ export async function schedule(scope: Scope, today: string): Promise<ScheduleRow
 	return rows.map((r) => ({ ...r, state: inspectionState(r.dueOn, r.completedOn, today) }));
 }
 
-export type MonthCount = { month: string; count: number };
 
 /**
  * Due per month over the next 12 months (each open inspection, then every interval after it) and,

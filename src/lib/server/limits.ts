@@ -1,11 +1,10 @@
 // The limit library. A limit is never edited in place: a revision is a new version, and every
 // beam path whose wavelength the old or the new version covers becomes stale in the same transaction.
-import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, or, sql } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import { changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 import { engineProblems } from '$lib/server/limitChecks';
 import { lockLimitLibrary } from '$lib/server/assessments';
@@ -58,6 +57,15 @@ function checkedLimit(form: LimitForm): { ok: true; values: LimitValues } | Fail
 	return { ok: true, values: limitToSI(form) };
 }
 
+/** The limit versions an assessment used, as recorded in its result. */
+export async function versions(used: { id: string; version: string | number }[]): Promise<table.ExposureLimitVersion[]> {
+	if (!used.length) return [];
+	return db
+		.select()
+		.from(table.exposureLimitVersion)
+		.where(or(...used.map((u) => and(eq(table.exposureLimitVersion.limitId, u.id), eq(table.exposureLimitVersion.version, Number(u.version))))));
+}
+
 export async function create(actorId: string, form: LimitForm): Promise<{ ok: true; id: string; staleMarked: number } | Failure> {
 	const checked = checkedLimit(form);
 	if (!checked.ok) return checked;
@@ -65,7 +73,7 @@ export async function create(actorId: string, form: LimitForm): Promise<{ ok: tr
 		await lockLimitLibrary(tx, 'change');
 		return { ok: true, ...(await createIn(tx, actorId, checked.values)) } as const;
 	});
-	if (out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	if (out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
 }
 
@@ -87,7 +95,7 @@ export async function revise(actorId: string, limitId: string, form: LimitForm):
 		await lockLimitLibrary(tx, 'change');
 		return reviseIn(tx, actorId, limitId, form.version, checked.values);
 	});
-	if (out.ok && out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	if (out.ok && out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
 }
 
@@ -135,6 +143,6 @@ export async function retire(actorId: string, limitId: string, version: number):
 		await audit.record(tx, { actorId, action: 'limit.retire', entity: 'exposure_limit', entityId: limitId, before: { retired: false }, after: { retired: true, staleMarked } });
 		return { ok: true, staleMarked } as const;
 	});
-	if (out.ok && out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	if (out.ok && out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
 }

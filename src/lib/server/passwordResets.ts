@@ -9,8 +9,7 @@ import * as audit from '$lib/server/audit';
 import { hashPassword, passwordProblem } from '$lib/server/auth/password';
 import * as throttle from '$lib/server/auth/throttle';
 import { enqueuePasswordReset } from '$lib/server/mail/outbox';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import { failure, fieldsNeedAttention, type Failure } from '$lib/server/failure';
 
 export const RESET_VALID_MS = 30 * 60 * 1000;
@@ -42,7 +41,7 @@ export async function request(emailInput: string, address: string, now = new Dat
 	// Over the per-address-typed limit the request is kept (it counts) but already done: nothing is mailed.
 	const quiet = counts.for_email >= MAX_PER_EMAIL_PER_HOUR;
 	await db.insert(table.passwordResetRequest).values({ email, address, requestedAt: now, processedAt: quiet ? now : null });
-	await jobs.nudge(queues.mailDeliver);
+	await nudge(queues.mailDeliver);
 	return { ok: true };
 }
 

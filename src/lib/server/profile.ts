@@ -1,26 +1,9 @@
 // Exposure along the path for the plot: the engine evaluated at evenly spaced positions, with the
 // same path and limits as the assessment (eye, intrabeam, at the hazard-distance duration, or at the
 // first eye point's duration when that is not given). Pure: no database.
-import type { AssessmentResult, CheckKind } from '$lib/assessmentResult';
+import type { AssessmentResult, Profile, ProfileSample } from '$lib/assessmentResult';
 import type { BeamPath, LimitSI } from '$lib/schemas/assessment';
 import { evaluate } from '$lib/server/hazard';
-
-export type ProfileSample = {
-	position: number;
-	/** Exposure of the plotted check, in its unit; null where it cannot be computed. */
-	exposure: number | null;
-	/** The most restrictive applicable limit of that check, same unit; null = no applicable limit. */
-	limit: number | null;
-	accessible: boolean;
-};
-
-export type Profile = {
-	check: CheckKind | null;
-	checkLabel: string;
-	unit: string | null;
-	exposureDuration: number | null;
-	samples: ProfileSample[];
-};
 
 const SAMPLES = 80;
 

@@ -11,8 +11,7 @@ import { needsReview } from '$lib/server/assessments';
 import { notify, officerIds } from '$lib/server/notifications';
 import * as suspensions from '$lib/server/suspensions';
 import * as procedures from '$lib/server/procedures';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import { describeControl, type DecisionForm } from '$lib/schemas/reviews';
 import * as eyewear from '$lib/server/eyewear';
 import { isCurrentResult, type AssessmentResult } from '$lib/assessmentResult';
@@ -277,7 +276,7 @@ export async function decide(officer: Scope, pathId: string, form: DecisionForm)
 		return { ok: true, decisionId: decision.id } as const;
 	});
 	// The researcher's mail goes out now rather than at the next minute's sweep.
-	if (outcome.ok) await jobs.nudge(queues.mailDeliver);
+	if (outcome.ok) await nudge(queues.mailDeliver);
 	return outcome;
 }
 

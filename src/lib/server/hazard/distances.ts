@@ -29,7 +29,7 @@ import type { Tissue } from '$lib/enums';
 import { diameterAt } from './beam';
 import { applicableLimits, MEASURE_UNIT, planMissesT, type LimitAt, type Plan } from './checks';
 import { effectGroup } from './effects';
-import { exceeds, limitRef, nm, sig, type Context } from './exposure';
+import { exceeds, limitRef, nm, sig, type Context } from './context';
 import type { Origin } from './walk';
 import type { Working } from './working';
 

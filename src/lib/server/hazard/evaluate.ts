@@ -14,7 +14,8 @@ import { ELEMENTARY_CHARGE, ENGINE_VERSION, PLANCK_CONSTANT, RESULT_CAUTION, SPE
 import { Plans } from './checks';
 import { requiredOpticalDensity } from './density';
 import { beamLimits, hazardDistance, stretchWorst } from './distances';
-import { durationWarning, evaluatePoint, limitRef, stepPrefix, worse, type Context } from './exposure';
+import { durationWarning, evaluatePoint, stepPrefix } from './exposure';
+import { limitRef, worse, type Context } from './context';
 import { variantsOf } from './tuning';
 import { photonEnergy } from './photon';
 import { validate, type NormLimit, type NormLine, type NormPath } from './validate';

@@ -22,37 +22,10 @@ import { applicableLimits, extendedSourceFactor, MEASURE_SYMBOL, MEASURE_UNIT, p
 import { effectGroup } from './effects';
 import { requiredOpticalDensity } from './density';
 import { hazardDistance } from './distances';
+import { exceeds, limitRef, nm, sig, VERDICT_RANK, worse, type Context } from './context';
 import { Working, type In } from './working';
 import { enclosureAt, originsAt, type Origin, type Walk } from './walk';
 import type { NormLimit, NormLine, NormPath, NormPoint } from './validate';
-
-export const VERDICT_RANK: Record<Verdict, number> = { within_limit: 0, no_applicable_limit: 1, incomplete: 2, exceeds_limit: 3 };
-
-export function worse(a: Verdict, b: Verdict): Verdict {
-	return VERDICT_RANK[a] >= VERDICT_RANK[b] ? a : b;
-}
-
-export function exceeds(ratio: number): boolean {
-	return ratio >= 1 - RATIO_TOLERANCE;
-}
-
-/**
- * What one assessment shares: its input, the lines as assessed (a tunable line as one variant per
- * wavelength, each knowing its line by `index`), its path walk and check plans (per variant), its
- * photon energies.
- */
-export interface Context {
-	path: NormPath;
-	lines: NormLine[];
-	limits: NormLimit[];
-	walk: Walk;
-	plans: Plans[];
-	photonEnergy: number[];
-	breakdown: boolean;
-}
-
-/** The limit's reference, one shared object per limit and assessment. */
-export const limitRef = (l: NormLimit): LimitRef => l.ref;
 
 interface LineEval {
 	res: LineAtPoint;
@@ -351,10 +324,6 @@ function limitStep(w: Working, id: string, la: LimitAt, ce: number, alpha: numbe
 function diffuseIn(point: NormPoint, symbol: string, x: number, unit: string): In[] {
 	return [['ρ', point.reflectance!, ''], [symbol, x, unit], ['θ', point.viewingAngle, 'rad'], ['r', point.viewingDistance!, 'm']];
 }
-
-/** 4 significant figures for sentences (the numbers themselves stay exact in the result). */
-export const sig = (v: number) => String(Number(v.toPrecision(4)));
-export const nm = (lambda: number) => `${Number((lambda * 1e9).toPrecision(4))} nm`;
 
 /** Durations shorter than the usual default give less restrictive limits: say so. */
 export function durationWarning(T: number | null, lambda: number, tissue: 'eye' | 'skin', what: string): string | null {

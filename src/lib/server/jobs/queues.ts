@@ -1,3 +1,5 @@
+import type PgBoss from 'pg-boss';
+
 // Every queue of the app, created by the migration script (as the schema owner) before any worker runs.
 export const queues = {
 	/** Re-evaluate beam paths whose assessment went stale (a limit or a line changed). */
@@ -22,3 +24,20 @@ export const queueDefinitions: { name: QueueName; policy: 'standard' | 'stately'
 	{ name: queues.mailDeliver, policy: 'stately', cron: '* * * * *' },
 	{ name: queues.housekeeping, policy: 'stately', cron: '17 * * * *' }
 ];
+
+let running: PgBoss | null = null;
+
+/** The running queue of this process (set by the workers at start-up), or null. */
+export const boss = () => running;
+export function setBoss(b: PgBoss | null) {
+	running = b;
+}
+
+/** Ask the workers to act now. Never fails the caller: the schedule catches up if this is lost. */
+export async function nudge(queue: QueueName): Promise<void> {
+	try {
+		await running?.send(queue, {});
+	} catch (e) {
+		console.error('job queue: could not send', queue, (e as Error).message);
+	}
+}

@@ -6,8 +6,7 @@ import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
 import { failForm, readForm } from '$lib/server/forms';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import * as procedures from '$lib/server/procedures';
 import { todayISO } from '$lib/inspectionState';
 import type { Actions, PageServerLoad } from './$types';
@@ -55,7 +54,7 @@ export const actions: Actions = {
 		if (!form.valid) return fail(400, { requestForm: form });
 		const r = await authorisations.request(scope, form.data);
 		if (!r.ok) return failForm(form, r);
-		await jobs.nudge(queues.mailDeliver);
+		await nudge(queues.mailDeliver);
 		redirect(303, `/authorisations/${r.id}?requested=1`);
 	},
 	grant: async function grantAuthorisation({ locals, request }) {

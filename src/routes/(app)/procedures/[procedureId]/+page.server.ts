@@ -6,8 +6,7 @@ import { approveSchema, confirmSchema, coverSchema, draftSchema, returnDraftSche
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, formFields, readForm } from '$lib/server/forms';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import { orError } from '$lib/server/pages';
 import * as procedures from '$lib/server/procedures';
 import { readUploads } from '$lib/server/uploads';
@@ -65,7 +64,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 };
 
 /** The officers' mail about a submitted draft goes out now rather than at the next sweep. */
-const mailSoon = () => jobs.nudge(queues.mailDeliver);
+const mailSoon = () => nudge(queues.mailDeliver);
 
 export const actions: Actions = {
 	save: async function saveDraft({ locals, params, request }) {

@@ -1,12 +1,11 @@
 import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { and, eq, or } from 'drizzle-orm';
 import { decisionSchema, replySchema, type DecisionForm } from '$lib/schemas/reviews';
 import { requireRole, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { db } from '$lib/server/db';
-import * as table from '$lib/server/db/schema';
+import * as assessments from '$lib/server/assessments';
+import * as limits from '$lib/server/limits';
 import { failForm, readForm } from '$lib/server/forms';
 import { isCurrentResult } from '$lib/assessmentResult';
 import { orError } from '$lib/server/pages';
@@ -30,17 +29,12 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const profile = result ? exposureProfile(inputs.path, inputs.limits, result) : null;
 
 	const used = result?.limitsUsed ?? [];
-	const limitRows = used.length
-		? await db
-				.select()
-				.from(table.exposureLimitVersion)
-				.where(or(...used.map((u) => and(eq(table.exposureLimitVersion.limitId, u.id), eq(table.exposureLimitVersion.version, Number(u.version))))))
-		: [];
+	const limitRows = await limits.versions(used);
 
 	let changes: ReturnType<typeof diffInputs> | null = null;
 	const clearedId = detail.path.clearedAssessmentId;
 	if (clearedId && clearedId !== latest.id) {
-		const [cleared] = await db.select({ inputs: table.assessment.inputs, result: table.assessment.result }).from(table.assessment).where(eq(table.assessment.id, clearedId));
+		const cleared = await assessments.snapshot(clearedId);
 		if (cleared) changes = [...diffInputs(cleared.inputs, latest.inputs), ...diffResults(cleared.result, latest.result)];
 	}
 	const review = await reviews.record(detail.path, editable);

@@ -5,7 +5,8 @@ import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireUser } from '$lib/server/auth/guard';
 import { currentLimits, evaluatePath } from '$lib/server/assessments';
 import { evaluate } from '$lib/server/hazard';
-import { exposureProfile, type Profile } from '$lib/server/profile';
+import { exposureProfile } from '$lib/server/profile';
+import type { Profile } from '$lib/assessmentResult';
 
 export type PreviewResponse = {
 	result: AssessmentResult;

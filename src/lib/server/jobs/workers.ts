@@ -1,16 +1,15 @@
-// The PostgreSQL job queue (pg-boss). The durable state lives in our own tables (a path's `stale`
+// The workers of the PostgreSQL job queue (pg-boss); only the hooks start them, other modules
+// reach the queue through `nudge` in ./queues. The durable state lives in our own tables (a path's `stale`
 // flag, the mail ledger): a job is only a nudge to act on it, and a schedule sweeps up whatever a
 // lost nudge left behind. So a job that runs twice or not at all changes nothing a person sees.
 import PgBoss from 'pg-boss';
-import { queueDefinitions, queues, type QueueName } from './queues';
+import { boss, nudge, queueDefinitions, queues, setBoss, type QueueName } from './queues';
 import * as paths from '$lib/server/paths';
 import * as reminders from '$lib/server/reminders';
 import * as outbox from '$lib/server/mail/outbox';
 import * as passwordResets from '$lib/server/passwordResets';
 import * as throttle from '$lib/server/auth/throttle';
 import * as auth from '$lib/server/auth/session';
-
-let boss: PgBoss | null = null;
 
 const handlers: Record<QueueName, () => Promise<unknown>> = {
 	[queues.reassessPaths]: async () => {
@@ -58,7 +57,8 @@ async function runHandler(name: QueueName) {
 }
 
 export async function startJobs(connectionString: string): Promise<PgBoss> {
-	if (boss) return boss;
+	const running = boss();
+	if (running) return running;
 	const b = new PgBoss({ connectionString, migrate: false, max: 3, application_name: 'beamwarden-jobs' });
 	// A database outage must not crash the process: pg-boss reports it here and retries.
 	b.on('error', (e) => console.error('job queue:', e.message));
@@ -73,22 +73,13 @@ export async function startJobs(connectionString: string): Promise<PgBoss> {
 		await b.work(q.name, { pollingIntervalSeconds: 2 }, () => runHandler(q.name));
 		if (q.cron) await b.schedule(q.name, q.cron);
 	}
-	boss = b;
+	setBoss(b);
 	// Catch up at start-up rather than at the next schedule (e.g. snapshots of an older engine).
 	await nudge(queues.reassessPaths);
 	return b;
 }
 
 export async function stopJobs(): Promise<void> {
-	await boss?.stop({ graceful: true, timeout: 5000 });
-	boss = null;
-}
-
-/** Ask the workers to act now. Never fails the caller: the schedule catches up if this is lost. */
-export async function nudge(queue: QueueName): Promise<void> {
-	try {
-		await boss?.send(queue, {});
-	} catch (e) {
-		console.error('job queue: could not send', queue, (e as Error).message);
-	}
+	await boss()?.stop({ graceful: true, timeout: 5000 });
+	setBoss(null);
 }
