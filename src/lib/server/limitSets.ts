@@ -7,8 +7,7 @@ import { and, desc, eq } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import * as jobs from '$lib/server/jobs';
-import { queues } from '$lib/server/jobs/queues';
+import { nudge, queues } from '$lib/server/jobs/queues';
 import * as limits from '$lib/server/limits';
 import { lockLimitLibrary } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
@@ -131,7 +130,7 @@ export async function publish(actorId: string, importId: string, stamp: string):
 		await audit.record(tx, { actorId, action: 'limit_import.publish', entity: 'limit_import', entityId: importId, before: { state: 'draft' }, after: { state: 'published', ...outcome } });
 		return { ok: true, ...outcome };
 	});
-	if (out.ok && out.staleMarked) await jobs.nudge(queues.reassessPaths);
+	if (out.ok && out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
 }
 
