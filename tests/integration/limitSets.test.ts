@@ -1,7 +1,7 @@
 // Limit sets out and in against PostgreSQL: the demonstration set exported and imported again is a
 // draft of unchanged rows whose publication changes nothing; a changed row revises exactly one limit
 // and makes its paths stale as an edit by hand does; a file with errors leaves nothing behind.
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, count, eq, inArray } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
@@ -31,11 +31,20 @@ const stageText = async (text: string, name = 'set.json') => {
 	return must(await limitSets.stage(officer.userId, name, read.rows)).id;
 };
 
+let inForceBefore: Set<string>;
+
 beforeAll(async () => {
+	inForceBefore = new Set((await limits.list()).filter((l) => !l.retired).map((l) => l.limitId));
 	officer = await scopeFor(await makeUser('officer'));
 	labId = (await makeLab()).id;
 	researcher = await scopeFor(await makeUser('researcher', [labId]));
 	for (const l of demoLimits) must(await limits.create(officer.userId, { ...l, noTrainCorrection: false, demonstration: true, validFrom: '', validUntil: '', version: 0 }));
+});
+
+// The test database is shared by the integration files: withdraw the limits these tests added, so
+// the next file sees the library it expects.
+afterAll(async () => {
+	for (const l of await limits.list()) if (!l.retired && !inForceBefore.has(l.limitId)) must(await limits.retire(officer.userId, l.limitId, l.version));
 });
 
 describe('limit sets', () => {
@@ -95,13 +104,14 @@ describe('limit sets', () => {
 
 	it('a row without an id and a new name adds a limit; one matching a name in force revises that limit', async () => {
 		const file = await limitSets.document();
-		const { id: _, ...fresh } = file.limits[0];
-		const { id: __, ...byName } = file.limits[1];
+		const mine = file.limits.filter((r) => !inForceBefore.has(r.id!));
+		const { id: _, ...fresh } = mine[0];
+		const { id: __, ...byName } = mine[1];
 		const id = await stageText(JSON.stringify({ ...file, limits: [{ ...fresh, label: `${fresh.label} (second copy)` }, { ...byName, n: '0.5' }] }));
 		const draft = (await limitSets.find(id))!;
 		expect(draft.plan.rows.map((r) => [r.status, r.limitId])).toEqual([
 			['new', null],
-			['changed', file.limits[1].id]
+			['changed', mine[1].id]
 		]);
 		expect(draft.plan.untouched).toBe(file.limits.length - 1);
 		const published = must(await limitSets.publish(officer.userId, id, draft.plan.stamp));
@@ -124,7 +134,7 @@ describe('limit sets', () => {
 		// Reviewed, then someone edits the library by hand: publishing the old review is refused, whole.
 		const id = await stageText(JSON.stringify({ ...file, limits: file.limits.map((r) => ({ ...r, citation: `${r.citation} (v2)` })) }));
 		const reviewed = (await limitSets.find(id))!.plan.stamp;
-		const one = (await limits.find(file.limits[0].id!))!;
+		const one = (await limits.find(file.limits.find((r) => !inForceBefore.has(r.id!))!.id!))!;
 		must(await limits.revise(officer.userId, one.id, { ...limitFormValues(one.current, one.currentVersion), n: '0.8' }));
 		const versionsNow = await versionCount();
 		expect(await limitSets.publish(officer.userId, id, reviewed)).toMatchObject({ ok: false, status: 409 });
