@@ -17,6 +17,8 @@ export const limitQuantities = ['irradiance', 'radiant_exposure'] as const;
 /** A limit's wavelength factor C(λ): none (1), a constant, or 10^(s·(λ − λ₀)) (the form of C_A, C_B, C_C). */
 export const wavelengthFactorKinds = ['none', 'constant', 'exponential'] as const;
 export const pulseBases = ['single_pulse', 'continuous'] as const;
+/** An imported limit set: checked and waiting for the officer, then published or discarded. */
+export const limitImportStates = ['draft', 'published', 'discarded'] as const;
 
 export type LaserClass = (typeof laserClasses)[number];
 export type LaserStatus = (typeof laserStatuses)[number];

@@ -112,7 +112,8 @@ test('every form action answers 4xx with a message to arbitrary bodies and write
 	const text = fc.oneof(
 		{ weight: 4, arbitrary: fc.string({ maxLength: 200 }) },
 		fc.constantFrom('{}', '[]', '{"a":{"b":{}}}', '[{"x":1}]', 'null', 'true', '1e999', '-1', 'NaN', '0x10', '\u0000', '\u202ename.pdf', '12 parsecs'),
-		fc.integer().map(String),
+		// Never a small whole number: `version=1` alone is a valid request to retire a limit, not bad input.
+		fc.integer().filter((n) => n < 0 || n > 99).map(String),
 		fc.constant('x'.repeat(100_000))
 	);
 	const fields = fc.array(fc.tuple(key, text), { maxLength: 10 });
@@ -135,7 +136,8 @@ test('every form action answers 4xx with a message to arbitrary bodies and write
 	);
 
 	const sql = postgres(e2eDatabaseUrl(), { max: 1 });
-	const audited = async () => Number((await sql`SELECT count(*)::int AS n FROM audit_log`)[0].n);
+	// Changes only: a page shown again after a refused action records who read personal fields, as it should.
+	const audited = async () => Number((await sql`SELECT count(*)::int AS n FROM audit_log WHERE action NOT LIKE '%.view_%'`)[0].n);
 	const before = await audited();
 	// Signing out needs a fresh sign-in per body (slow, and the action reads no field): a few bodies there, the rest spread over the others.
 	const signOutRuns = 25;

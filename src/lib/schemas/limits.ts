@@ -51,85 +51,120 @@ const date = z
 	.default('')
 	.refine((t) => t === '' || isCalendarDay(t), 'Enter a date as YYYY-MM-DD.');
 
-export const limitFormSchema = z
-	.object({
-		label: z.string().trim().min(1, 'Give the limit a short name.').max(200),
-		tissue: z.enum(tissues, { error: 'Choose eye or skin.' }).default('eye'),
-		wavelengthMin: withUnit('wavelength', 'the shortest wavelength'),
-		wavelengthMax: withUnit('wavelength', 'the longest wavelength'),
-		durationMin: withUnit('time', 'the shortest exposure duration'),
-		durationMax: withUnit('time', 'the longest exposure duration'),
-		quantity: z.enum(limitQuantities, { error: 'Choose irradiance or radiant exposure.' }).default('irradiance'),
-		k: z.string().trim().min(1, 'Enter the coefficient k.').max(64),
-		n: number('the exponent n (0 for a constant)').default('0'),
-		/** C(λ): none, a constant, or 10^(s·(λ − λ₀)) with s per nanometre, over its own range (empty: the limit's). */
-		wavelengthFactorKind: z.enum(wavelengthFactorKinds, { error: 'Choose none, a constant or the exponential form.' }).default('none'),
-		wavelengthFactorValue: optionalNumber,
-		wavelengthFactorSlope: optionalNumber,
-		wavelengthFactorOrigin: optionalWithUnit('wavelength'),
-		wavelengthFactorFrom: optionalWithUnit('wavelength'),
-		wavelengthFactorTo: optionalWithUnit('wavelength'),
-		/** C_E(α) = (α/α_min)^exponent between α_min and α_max; all three or none (none: every source a point source). */
-		extendedAlphaMin: optionalWithUnit('angle', 'mrad'),
-		extendedAlphaMax: optionalWithUnit('angle', 'mrad'),
-		extendedExponent: optionalNumber,
-		limitingAperture: withUnit('length', 'the limiting aperture', 'mm'),
-		/** The aperture a·tᵇ: b (0 for a constant aperture). */
-		limitingApertureExponent: optionalNumber,
-		/** Pulses closer together than T_i count as one pulse. */
-		pulseGroupingTime: optionalWithUnit('time'),
-		pulseBasis: z.enum(pulseBases, { error: 'Choose what the limit applies to.' }).default('continuous'),
-		pulseTrainExponent: z
-			.string()
-			.trim()
-			.max(32)
-			.default('')
-			.refine((t) => t === '' || /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t), 'Enter a plain number, like -0.25, or leave it empty.'),
-		/** A single-pulse limit without an exponent: the officer states that the code applies no train correction. */
-		noTrainCorrection: z.boolean().default(false),
-		citation: z.string().trim().min(1, 'Cite the clause of the local code this value comes from.').max(1000),
-		demonstration: z.boolean().default(false),
-		validFrom: date,
-		validUntil: date,
-		version: z.coerce.number().int().nonnegative().default(0)
-	})
-	.strict()
-	.superRefine((l, ctx) => {
-		const kKind: QuantityKind = l.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure';
-		const k = parseQuantity(l.k, kKind);
-		if (!k.ok) ctx.addIssue({ code: 'custom', path: ['k'], message: k.reason });
-		else if (k.value.lte(0)) ctx.addIssue({ code: 'custom', path: ['k'], message: 'The limit must be above zero.' });
-		const range = (a: keyof typeof l, b: keyof typeof l, kind: QuantityKind, message: string) => {
-			const lo = parseQuantity(String(l[a]), kind, { defaultUnit: kind === 'length' ? 'mm' : undefined });
-			const hi = parseQuantity(String(l[b]), kind);
-			if (lo.ok && hi.ok && lo.value.gt(hi.value)) ctx.addIssue({ code: 'custom', path: [b], message });
-			if (lo.ok && lo.value.lt(0)) ctx.addIssue({ code: 'custom', path: [a], message: 'Must not be negative.' });
-		};
-		range('wavelengthMin', 'wavelengthMax', 'wavelength', 'The longest wavelength is below the shortest.');
-		range('durationMin', 'durationMax', 'time', 'The longest duration is below the shortest.');
-		const ap = parseQuantity(l.limitingAperture, 'length', { defaultUnit: 'mm' });
-		if (ap.ok && ap.value.lte(0)) ctx.addIssue({ code: 'custom', path: ['limitingAperture'], message: 'The limiting aperture must be above zero.' });
-		if (l.validFrom && l.validUntil && l.validFrom > l.validUntil) ctx.addIssue({ code: 'custom', path: ['validUntil'], message: 'Ends before it starts.' });
-		if (l.pulseTrainExponent !== '' && l.pulseBasis !== 'single_pulse')
-			ctx.addIssue({ code: 'custom', path: ['pulseTrainExponent'], message: 'A pulse-train exponent belongs to a single-pulse limit.' });
-		if (l.noTrainCorrection && l.pulseBasis !== 'single_pulse') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Only a single-pulse limit has a pulse-train rule.' });
-		if (l.noTrainCorrection && l.pulseTrainExponent !== '') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Give either a pulse-train exponent or “no train correction”, not both.' });
-		if (l.wavelengthFactorKind === 'constant' && l.wavelengthFactorValue === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorValue'], message: 'Enter the factor’s value.' });
-		if (l.wavelengthFactorKind === 'exponential') {
-			if (l.wavelengthFactorSlope === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorSlope'], message: 'Enter the slope s (per nm), e.g. 0.002.' });
-			if (l.wavelengthFactorOrigin === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorOrigin'], message: 'Enter the wavelength λ₀, e.g. 700 nm.' });
-		}
-		const extended = [l.extendedAlphaMin, l.extendedAlphaMax, l.extendedExponent].filter((t) => t !== '').length;
-		if (extended > 0 && extended < 3)
-			for (const f of ['extendedAlphaMin', 'extendedAlphaMax', 'extendedExponent'] as const)
-				if (l[f] === '') ctx.addIssue({ code: 'custom', path: [f], message: 'An extended-source rule needs α_min, α_max and its exponent — or none of them.' });
-		if (l.pulseGroupingTime !== '' && l.pulseBasis !== 'single_pulse') ctx.addIssue({ code: 'custom', path: ['pulseGroupingTime'], message: 'A pulse-grouping time belongs to a single-pulse limit.' });
+/** The fields of a limit, shared by the limit form and the limit-set file (see limitSet.ts). */
+export const limitFields = z.object({
+	label: z.string().trim().min(1, 'Give the limit a short name.').max(200),
+	tissue: z.enum(tissues, { error: 'Choose eye or skin.' }).default('eye'),
+	wavelengthMin: withUnit('wavelength', 'the shortest wavelength'),
+	wavelengthMax: withUnit('wavelength', 'the longest wavelength'),
+	durationMin: withUnit('time', 'the shortest exposure duration'),
+	durationMax: withUnit('time', 'the longest exposure duration'),
+	quantity: z.enum(limitQuantities, { error: 'Choose irradiance or radiant exposure.' }).default('irradiance'),
+	k: z.string().trim().min(1, 'Enter the coefficient k.').max(64),
+	n: number('the exponent n (0 for a constant)').default('0'),
+	/** C(λ): none, a constant, or 10^(s·(λ − λ₀)) with s per nanometre, over its own range (empty: the limit's). */
+	wavelengthFactorKind: z.enum(wavelengthFactorKinds, { error: 'Choose none, a constant or the exponential form.' }).default('none'),
+	wavelengthFactorValue: optionalNumber,
+	wavelengthFactorSlope: optionalNumber,
+	wavelengthFactorOrigin: optionalWithUnit('wavelength'),
+	wavelengthFactorFrom: optionalWithUnit('wavelength'),
+	wavelengthFactorTo: optionalWithUnit('wavelength'),
+	/** C_E(α) = (α/α_min)^exponent between α_min and α_max; all three or none (none: every source a point source). */
+	extendedAlphaMin: optionalWithUnit('angle', 'mrad'),
+	extendedAlphaMax: optionalWithUnit('angle', 'mrad'),
+	extendedExponent: optionalNumber,
+	limitingAperture: withUnit('length', 'the limiting aperture', 'mm'),
+	/** The aperture a·tᵇ: b (0 for a constant aperture). */
+	limitingApertureExponent: optionalNumber,
+	/** Pulses closer together than T_i count as one pulse. */
+	pulseGroupingTime: optionalWithUnit('time'),
+	pulseBasis: z.enum(pulseBases, { error: 'Choose what the limit applies to.' }).default('continuous'),
+	pulseTrainExponent: z
+		.string()
+		.trim()
+		.max(32)
+		.default('')
+		.refine((t) => t === '' || /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t), 'Enter a plain number, like -0.25, or leave it empty.'),
+	/** A single-pulse limit without an exponent: the officer states that the code applies no train correction. */
+	noTrainCorrection: z.boolean().default(false),
+	citation: z.string().trim().min(1, 'Cite the clause of the local code this value comes from.').max(1000),
+	demonstration: z.boolean().default(false),
+	validFrom: date,
+	validUntil: date,
+	version: z.coerce.number().int().nonnegative().default(0)
 	});
+
+/** The rules across fields, the same for the form and for each row of a limit-set file. */
+export function limitRules(l: Omit<z.output<typeof limitFields>, 'version'>, ctx: z.RefinementCtx): void {
+	const kKind: QuantityKind = l.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure';
+	const k = parseQuantity(l.k, kKind);
+	if (!k.ok) ctx.addIssue({ code: 'custom', path: ['k'], message: k.reason });
+	else if (k.value.lte(0)) ctx.addIssue({ code: 'custom', path: ['k'], message: 'The limit must be above zero.' });
+	const range = (a: keyof typeof l, b: keyof typeof l, kind: QuantityKind, message: string) => {
+		const lo = parseQuantity(String(l[a]), kind, { defaultUnit: kind === 'length' ? 'mm' : undefined });
+		const hi = parseQuantity(String(l[b]), kind);
+		if (lo.ok && hi.ok && lo.value.gt(hi.value)) ctx.addIssue({ code: 'custom', path: [b], message });
+		if (lo.ok && lo.value.lt(0)) ctx.addIssue({ code: 'custom', path: [a], message: 'Must not be negative.' });
+	};
+	range('wavelengthMin', 'wavelengthMax', 'wavelength', 'The longest wavelength is below the shortest.');
+	range('durationMin', 'durationMax', 'time', 'The longest duration is below the shortest.');
+	const ap = parseQuantity(l.limitingAperture, 'length', { defaultUnit: 'mm' });
+	if (ap.ok && ap.value.lte(0)) ctx.addIssue({ code: 'custom', path: ['limitingAperture'], message: 'The limiting aperture must be above zero.' });
+	if (l.validFrom && l.validUntil && l.validFrom > l.validUntil) ctx.addIssue({ code: 'custom', path: ['validUntil'], message: 'Ends before it starts.' });
+	if (l.pulseTrainExponent !== '' && l.pulseBasis !== 'single_pulse')
+		ctx.addIssue({ code: 'custom', path: ['pulseTrainExponent'], message: 'A pulse-train exponent belongs to a single-pulse limit.' });
+	if (l.noTrainCorrection && l.pulseBasis !== 'single_pulse') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Only a single-pulse limit has a pulse-train rule.' });
+	if (l.noTrainCorrection && l.pulseTrainExponent !== '') ctx.addIssue({ code: 'custom', path: ['noTrainCorrection'], message: 'Give either a pulse-train exponent or “no train correction”, not both.' });
+	if (l.wavelengthFactorKind === 'constant' && l.wavelengthFactorValue === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorValue'], message: 'Enter the factor’s value.' });
+	if (l.wavelengthFactorKind === 'exponential') {
+		if (l.wavelengthFactorSlope === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorSlope'], message: 'Enter the slope s (per nm), e.g. 0.002.' });
+		if (l.wavelengthFactorOrigin === '') ctx.addIssue({ code: 'custom', path: ['wavelengthFactorOrigin'], message: 'Enter the wavelength λ₀, e.g. 700 nm.' });
+	}
+	const extended = [l.extendedAlphaMin, l.extendedAlphaMax, l.extendedExponent].filter((t) => t !== '').length;
+	if (extended > 0 && extended < 3)
+		for (const f of ['extendedAlphaMin', 'extendedAlphaMax', 'extendedExponent'] as const)
+			if (l[f] === '') ctx.addIssue({ code: 'custom', path: [f], message: 'An extended-source rule needs α_min, α_max and its exponent — or none of them.' });
+	if (l.pulseGroupingTime !== '' && l.pulseBasis !== 'single_pulse') ctx.addIssue({ code: 'custom', path: ['pulseGroupingTime'], message: 'A pulse-grouping time belongs to a single-pulse limit.' });
+}
+
+export const limitFormSchema = limitFields.strict().superRefine(limitRules);
 
 export type LimitForm = z.infer<typeof limitFormSchema>;
 
+/** What each field is called on the limit form, for messages that name a field. */
+export const limitFieldNames: Record<Exclude<keyof LimitForm, 'version'>, string> = {
+	label: 'Name',
+	tissue: 'Tissue',
+	wavelengthMin: 'Shortest wavelength',
+	wavelengthMax: 'Longest wavelength',
+	durationMin: 'Shortest exposure duration',
+	durationMax: 'Longest exposure duration',
+	quantity: 'Quantity',
+	k: 'Coefficient k',
+	n: 'Exponent n',
+	wavelengthFactorKind: 'Wavelength factor: form',
+	wavelengthFactorValue: 'Wavelength factor: value of C',
+	wavelengthFactorSlope: 'Wavelength factor: slope s',
+	wavelengthFactorOrigin: 'Wavelength factor: λ₀',
+	wavelengthFactorFrom: 'Wavelength factor: applies from',
+	wavelengthFactorTo: 'Wavelength factor: applies up to',
+	extendedAlphaMin: 'Extended source: α_min',
+	extendedAlphaMax: 'Extended source: α_max',
+	extendedExponent: 'Extended source: exponent',
+	limitingAperture: 'Limiting aperture a',
+	limitingApertureExponent: 'Aperture exponent b',
+	pulseGroupingTime: 'Pulse-grouping time Tᵢ',
+	pulseBasis: 'Applies to',
+	pulseTrainExponent: 'Pulse-train exponent',
+	noTrainCorrection: 'No train correction',
+	citation: 'Citation of the local code',
+	demonstration: 'Demonstration value',
+	validFrom: 'Valid from',
+	validUntil: 'Valid until'
+};
+
 /** The limit form in SI units, as stored. Call only on a form that passed the schema. */
-export function limitToSI(l: LimitForm) {
+export function limitToSI(l: Omit<LimitForm, 'version'>) {
 	const si = (t: string, kind: QuantityKind, defaultUnit?: string) => {
 		const p = parseQuantity(t, kind, { defaultUnit });
 		if (!p.ok) throw new Error('limitToSI on an unchecked form');

@@ -4,7 +4,7 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { bodyLimitFor, FORM_AND_JSON_LIMIT, UPLOAD_LIMIT } from './bodyLimit';
+import { bodyLimitFor, DATA_FILE_LIMIT, FORM_AND_JSON_LIMIT, UPLOAD_LIMIT } from './bodyLimit';
 
 function files(dir: string): string[] {
 	return readdirSync(dir).flatMap((n) => (statSync(join(dir, n)).isDirectory() ? files(join(dir, n)) : [join(dir, n)]));
@@ -32,5 +32,17 @@ describe('body limits', () => {
 	it('other posts keep the small limit', () => {
 		expect(bodyLimitFor('/(app)/procedures/[procedureId]', new URL('http://x/?/sign'))).toBe(FORM_AND_JSON_LIMIT);
 		expect(bodyLimitFor('/api/paths/[pathId]', new URL('http://x/'))).toBe(FORM_AND_JSON_LIMIT);
+		expect(bodyLimitFor('/(app)/limits/import/[importId]', new URL('http://x/?/publish'))).toBe(FORM_AND_JSON_LIMIT);
+	});
+
+	it('every action that reads a data file takes a body of the file limit and its form, far below an upload', () => {
+		const found: [string, string][] = [];
+		for (const f of files('src/routes').filter((f) => f.endsWith('+page.server.ts'))) {
+			const routeId = '/' + f.replace(/^src\/routes\//, '').replace(/\/?\+page\.server\.ts$/, '');
+			for (const m of readFileSync(f, 'utf8').matchAll(/^\t(\w+): async function \w+\([^)]*\) \{([\s\S]*?)^\t\}/gm)) if (/readTextUpload\(/.test(m[2])) found.push([routeId, m[1]]);
+		}
+		expect(found).toEqual([['/(app)/limits/import', 'upload']]);
+		for (const [routeId, action] of found) expect(bodyLimitFor(routeId, new URL(`http://x/?/${action}`))).toBe(DATA_FILE_LIMIT);
+		expect(DATA_FILE_LIMIT).toBeLessThan(3 * 1024 * 1024);
 	});
 });

@@ -2,9 +2,17 @@
 // hundred kB at most; only the upload actions take files. A larger body answers 413: at once when
 // its Content-Length says so, otherwise as soon as the streamed bytes pass the limit.
 // (adapter-node's BODY_SIZE_LIMIT stays the outer ceiling; set it at least to UPLOAD_LIMIT.)
+import { MAX_LIMIT_SET_BYTES } from '$lib/schemas/limitSet';
 
 export const FORM_AND_JSON_LIMIT = 256 * 1024;
 export const UPLOAD_LIMIT = 40 * 1024 * 1024;
+/** A limit-set file (at most MAX_LIMIT_SET_BYTES) and the form around it. */
+export const DATA_FILE_LIMIT = MAX_LIMIT_SET_BYTES + 64 * 1024;
+
+/** Form actions that take a data file (JSON), by route id: a smaller limit than photos and PDFs. */
+const dataFileActions: Record<string, readonly string[]> = {
+	'/(app)/limits/import': ['upload']
+};
 
 /** Form actions that take files, by route id. */
 const uploadActions: Record<string, readonly string[]> = {
@@ -19,10 +27,11 @@ const uploadActions: Record<string, readonly string[]> = {
 export const tooLargeMessage = 'The request is too large. Nothing was saved.';
 
 export function bodyLimitFor(routeId: string | null, url: URL): number {
-	const actions = routeId ? uploadActions[routeId] : undefined;
-	if (!actions) return FORM_AND_JSON_LIMIT;
+	if (!routeId || !(routeId in uploadActions || routeId in dataFileActions)) return FORM_AND_JSON_LIMIT;
 	const action = [...url.searchParams.keys()].find((k) => k.startsWith('/'))?.slice(1) ?? 'default';
-	return actions.includes(action) ? UPLOAD_LIMIT : FORM_AND_JSON_LIMIT;
+	if (uploadActions[routeId]?.includes(action)) return UPLOAD_LIMIT;
+	if (dataFileActions[routeId]?.includes(action)) return DATA_FILE_LIMIT;
+	return FORM_AND_JSON_LIMIT;
 }
 
 export class BodyTooLarge extends Error {

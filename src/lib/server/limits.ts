@@ -6,15 +6,15 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { nudge, queues } from '$lib/server/jobs/queues';
 import { changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
-import { limitProblems } from '$lib/server/hazard';
+import { engineProblems } from '$lib/server/limitChecks';
 import { lockLimitLibrary } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
 import { limitToSI, type LimitForm } from '$lib/schemas/limits';
 
 export type LimitSummary = table.ExposureLimitVersion & { retired: boolean };
 
-export async function list(): Promise<LimitSummary[]> {
-	const rows = await db
+export async function list(ex: Tx | typeof db = db): Promise<LimitSummary[]> {
+	const rows = await ex
 		.select({ v: table.exposureLimitVersion, retired: table.exposureLimit.retired })
 		.from(table.exposureLimit)
 		.innerJoin(
@@ -48,12 +48,13 @@ async function markStale(tx: Tx, ranges: { min: string; max: string }[], reason:
 	return marked.length;
 }
 
+export type LimitValues = ReturnType<typeof limitToSI>;
+
 /** The form in SI, checked with the hazard engine's own rules: a limit the engine cannot use is never saved. */
-function checkedLimit(form: LimitForm): { ok: true; values: ReturnType<typeof limitToSI> } | Failure {
-	const values = limitToSI(form);
-	const problems = limitProblems({ id: 'limit', version: '1', ...values });
-	if (problems.length) return fieldsNeedAttention(Object.fromEntries(problems.map((p) => [p.field || 'label', p.reason])));
-	return { ok: true, values };
+function checkedLimit(form: LimitForm): { ok: true; values: LimitValues } | Failure {
+	const problems = engineProblems(form);
+	if (problems.length) return fieldsNeedAttention(Object.fromEntries(problems.map((p) => [p.field, p.reason])));
+	return { ok: true, values: limitToSI(form) };
 }
 
 /** The limit versions an assessment used, as recorded in its result. */
@@ -68,17 +69,21 @@ export async function versions(used: { id: string; version: string | number }[])
 export async function create(actorId: string, form: LimitForm): Promise<{ ok: true; id: string; staleMarked: number } | Failure> {
 	const checked = checkedLimit(form);
 	if (!checked.ok) return checked;
-	const values = checked.values;
 	const out = await db.transaction(async (tx) => {
 		await lockLimitLibrary(tx, 'change');
-		const [head] = await tx.insert(table.exposureLimit).values({}).returning();
-		const staleMarked = await markStale(tx, [{ min: values.wavelengthMin, max: values.wavelengthMax }], `New limit “${values.label}”`);
-		const [v] = await tx.insert(table.exposureLimitVersion).values({ limitId: head.id, version: 1, ...values, staleMarked, createdBy: actorId }).returning();
-		await audit.record(tx, { actorId, action: 'limit.create', entity: 'exposure_limit', entityId: head.id, after: v });
-		return { ok: true, id: head.id, staleMarked } as const;
+		return { ok: true, ...(await createIn(tx, actorId, checked.values)) } as const;
 	});
 	if (out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
+}
+
+/** A new limit inside the caller's transaction, which holds the library lock; values already checked. */
+export async function createIn(tx: Tx, actorId: string, values: LimitValues): Promise<{ id: string; staleMarked: number }> {
+	const [head] = await tx.insert(table.exposureLimit).values({}).returning();
+	const staleMarked = await markStale(tx, [{ min: values.wavelengthMin, max: values.wavelengthMax }], `New limit “${values.label}”`);
+	const [v] = await tx.insert(table.exposureLimitVersion).values({ limitId: head.id, version: 1, ...values, staleMarked, createdBy: actorId }).returning();
+	await audit.record(tx, { actorId, action: 'limit.create', entity: 'exposure_limit', entityId: head.id, after: v });
+	return { id: head.id, staleMarked };
 }
 
 /** A new version; `form.version` must be the version the officer was looking at. */
@@ -86,33 +91,40 @@ export async function revise(actorId: string, limitId: string, form: LimitForm):
 	if (!isUuid(limitId)) return notFound('limit');
 	const checked = checkedLimit(form);
 	if (!checked.ok) return checked;
-	const values = checked.values;
 	const out = await db.transaction(async (tx) => {
 		await lockLimitLibrary(tx, 'change');
-		const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
-		if (!found.length) return notFound('limit');
-		const head = found[0];
-		if (head.currentVersion !== form.version) return changedMeanwhile('limit');
-		const [old] = await tx
-			.select()
-			.from(table.exposureLimitVersion)
-			.where(and(eq(table.exposureLimitVersion.limitId, limitId), eq(table.exposureLimitVersion.version, head.currentVersion)));
-		const version = head.currentVersion + 1;
-		const staleMarked = await markStale(
-			tx,
-			[
-				{ min: old.wavelengthMin, max: old.wavelengthMax },
-				{ min: values.wavelengthMin, max: values.wavelengthMax }
-			],
-			`Limit “${values.label}” revised to version ${version}`
-		);
-		const [v] = await tx.insert(table.exposureLimitVersion).values({ limitId, version, ...values, staleMarked, createdBy: actorId }).returning();
-		await tx.update(table.exposureLimit).set({ currentVersion: version, retired: false }).where(eq(table.exposureLimit.id, limitId));
-		await audit.record(tx, { actorId, action: 'limit.revise', entity: 'exposure_limit', entityId: limitId, before: old, after: v });
-		return { ok: true, version, staleMarked } as const;
+		return reviseIn(tx, actorId, limitId, form.version, checked.values);
 	});
 	if (out.ok && out.staleMarked) await nudge(queues.reassessPaths);
 	return out;
+}
+
+/**
+ * A new version inside the caller's transaction, which holds the library lock; values already
+ * checked. Every path the old or the new version covers becomes stale, as for any edit.
+ */
+export async function reviseIn(tx: Tx, actorId: string, limitId: string, seenVersion: number, values: LimitValues): Promise<{ ok: true; version: number; staleMarked: number } | Failure> {
+	const found = await tx.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId)).for('update');
+	if (!found.length) return notFound('limit');
+	const head = found[0];
+	if (head.currentVersion !== seenVersion) return changedMeanwhile('limit');
+	const [old] = await tx
+		.select()
+		.from(table.exposureLimitVersion)
+		.where(and(eq(table.exposureLimitVersion.limitId, limitId), eq(table.exposureLimitVersion.version, head.currentVersion)));
+	const version = head.currentVersion + 1;
+	const staleMarked = await markStale(
+		tx,
+		[
+			{ min: old.wavelengthMin, max: old.wavelengthMax },
+			{ min: values.wavelengthMin, max: values.wavelengthMax }
+		],
+		`Limit “${values.label}” revised to version ${version}`
+	);
+	const [v] = await tx.insert(table.exposureLimitVersion).values({ limitId, version, ...values, staleMarked, createdBy: actorId }).returning();
+	await tx.update(table.exposureLimit).set({ currentVersion: version, retired: false }).where(eq(table.exposureLimit.id, limitId));
+	await audit.record(tx, { actorId, action: 'limit.revise', entity: 'exposure_limit', entityId: limitId, before: old, after: v });
+	return { ok: true, version, staleMarked } as const;
 }
 
 export async function retire(actorId: string, limitId: string, version: number): Promise<{ ok: true; staleMarked: number } | Failure> {

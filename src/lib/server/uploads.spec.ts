@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import sharp from 'sharp';
 import { png } from '../../../seed/png';
-import { cleanFileName, contentDisposition, readUploads, sniff } from './uploads';
+import { cleanFileName, contentDisposition, readTextUpload, readUploads, sniff } from './uploads';
 
 const photo = (format: 'jpeg' | 'webp' | 'png', width = 64, height = 48) =>
 	sharp({ create: { width, height, channels: 3, background: { r: 40, g: 120, b: 90 } } })[format]().toBuffer();
@@ -72,5 +72,23 @@ describe('uploads', () => {
 	it('sends names back in a safe Content-Disposition header', () => {
 		expect(contentDisposition('attachment', 'Prüfbericht "A".pdf')).toBe(`attachment; filename="Prüfbericht A.pdf"`);
 		expect(contentDisposition('inline', 'Bericht €\u202E.png')).toBe(`inline; filename="Bericht ?.png"; filename*=UTF-8''Bericht%20%E2%82%AC.png`);
+	});
+});
+
+describe('text uploads (data files)', () => {
+	const text = (parts: (Uint8Array | string)[], name = 'set.json', max = 1024) => {
+		const form = new FormData();
+		for (const p of parts) form.append('file', new File([typeof p === 'string' ? p : new Uint8Array(p)], name));
+		return readTextUpload(form, 'file', max);
+	};
+	it('reads one UTF-8 file and keeps a clean file name', async () => {
+		expect(await text(['{"a": "700 nm"}'], 'set\u202e.json')).toEqual({ ok: true, fileName: 'set.json', text: '{"a": "700 nm"}' });
+	});
+	it('refuses no file, two files, a binary file and a file over the limit, naming the reason', async () => {
+		expect(await text([])).toMatchObject({ ok: false, status: 400, message: 'Choose a file to upload.' });
+		expect(await text(['{}', '{}'])).toMatchObject({ ok: false, status: 400, message: 'Upload one file at a time.' });
+		expect(await text([png(2, 2)], 'set.json')).toMatchObject({ ok: false, status: 400, message: '“set.json” is not a text file (UTF-8). Nothing was imported.' });
+		expect(await text([new Uint8Array([0x7b, 0xff, 0xfe, 0x7d])])).toMatchObject({ ok: false, status: 400 });
+		expect(await text(['x'.repeat(2 * 1024 * 1024 + 1)], 'big.json', 2 * 1024 * 1024)).toMatchObject({ ok: false, status: 413, message: '“big.json” is larger than 2 MB. Nothing was imported.' });
 	});
 });

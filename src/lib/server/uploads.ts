@@ -88,3 +88,31 @@ export async function readUploads(form: FormData, field: string, maxFiles = 8, o
 	}
 	return { ok: true, files };
 }
+
+/**
+ * One text file of a form field (a data file such as a limit set, never stored as a document): at
+ * most `maxBytes`, strict UTF-8 and no NUL byte, so a binary file is named as such before anything parses it.
+ */
+export async function readTextUpload(form: FormData, field: string, maxBytes: number): Promise<{ ok: true; fileName: string; text: string } | Failure> {
+	const entries = form.getAll(field).filter((v): v is File => typeof v !== 'string' && v.size > 0);
+	if (entries.length === 0) return failure(400, 'Choose a file to upload.', { [field]: 'Choose a file to upload.' });
+	if (entries.length > 1) return failure(400, 'Upload one file at a time.', { [field]: 'Upload one file at a time.' });
+	const f = entries[0];
+	const name = cleanFileName(f.name);
+	if (f.size > maxBytes) {
+		const message = `“${name}” is larger than ${maxBytes / 1024 / 1024} MB. Nothing was imported.`;
+		return failure(413, message, { [field]: message });
+	}
+	const bytes = new Uint8Array(await f.arrayBuffer());
+	let text: string;
+	try {
+		text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+	} catch {
+		text = '\0';
+	}
+	if (text.includes('\0')) {
+		const message = `“${name}” is not a text file (UTF-8). Nothing was imported.`;
+		return failure(400, message, { [field]: message });
+	}
+	return { ok: true, fileName: name, text };
+}

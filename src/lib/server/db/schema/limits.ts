@@ -4,11 +4,13 @@ import { boolean, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, t
 import { user } from './auth';
 import { beamPath, tissueEnum, verdictEnum } from './register';
 
-import { limitQuantities, pulseBases, wavelengthFactorKinds } from '../../../enums';
+import { limitImportStates, limitQuantities, pulseBases, wavelengthFactorKinds } from '../../../enums';
+import type { LimitSetRow } from '../../../schemas/limitSet';
 
 export const limitQuantityEnum = pgEnum('limit_quantity', limitQuantities);
 export const wavelengthFactorKindEnum = pgEnum('wavelength_factor_kind', wavelengthFactorKinds);
 export const pulseBasisEnum = pgEnum('pulse_basis', pulseBases);
+export const limitImportStateEnum = pgEnum('limit_import_state', limitImportStates);
 
 export const exposureLimit = pgTable('exposure_limit', {
 	id: uuid('id').primaryKey().defaultRandom(),
@@ -89,6 +91,28 @@ export const assessment = pgTable(
 	(t) => [index('assessment_path_idx').on(t.pathId, t.createdAt), index('assessment_stale_idx').on(t.stale)]
 );
 
+/**
+ * A limit-set file that passed every check, kept as a draft until the officer publishes it (creating
+ * and revising limits in one transaction) or discards it. Rows as read from the file (form values).
+ */
+export const limitImport = pgTable(
+	'limit_import',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		state: limitImportStateEnum('state').notNull().default('draft'),
+		fileName: text('file_name').notNull(),
+		rows: jsonb('rows').$type<LimitSetRow[]>().notNull(),
+		/** What publishing did: limits created, revised, left as they were, and paths made stale. */
+		outcome: jsonb('outcome').$type<{ created: number; revised: number; unchanged: number; staleMarked: number }>(),
+		createdBy: text('created_by').references(() => user.id),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+		decidedBy: text('decided_by').references(() => user.id),
+		decidedAt: timestamp('decided_at', { withTimezone: true })
+	},
+	(t) => [index('limit_import_state_idx').on(t.state, t.createdAt)]
+);
+
+export type LimitImport = typeof limitImport.$inferSelect;
 export type ExposureLimit = typeof exposureLimit.$inferSelect;
 export type ExposureLimitVersion = typeof exposureLimitVersion.$inferSelect;
 export type Assessment = typeof assessment.$inferSelect;
