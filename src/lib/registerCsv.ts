@@ -2,6 +2,7 @@
 // each of its lines. The import page documents these columns, the template carries them, the
 // lines export writes them (so an export can be imported again), and the importer reads them.
 import { beamDefinitions, beamProfiles, emissionModes, laserClasses, laserStatuses } from './enums';
+import type { StateWord } from './words';
 
 export type RegisterColumn = {
 	name: string;
@@ -47,15 +48,16 @@ export const IMPORT_MAX_ROWS = 20_000;
 /** Rows written per transaction by the import job. */
 export const IMPORT_BATCH_ROWS = 500;
 
-export const importStateWords = {
-	preview: 'Checked, not imported',
-	queued: 'Waiting to start',
-	running: 'Importing',
-	done: 'Imported',
-	failed: 'Stopped with a fault',
-	discarded: 'Discarded'
-} as const;
-export type ImportState = keyof typeof importStateWords;
+export type ImportState = 'preview' | 'queued' | 'running' | 'done' | 'failed' | 'discarded';
+
+export const importStateWords: Record<ImportState, StateWord> = {
+	preview: { word: 'checked, not imported', icon: 'half', tone: 'caution', hint: 'The file was read and checked; nothing is in the register yet.' },
+	queued: { word: 'waiting to start', icon: 'clock', tone: 'caution', hint: 'The import job picks it up within a few seconds.' },
+	running: { word: 'importing', icon: 'clock', tone: 'caution', hint: 'The rows are being written, a batch at a time.' },
+	done: { word: 'imported', icon: 'ok', tone: 'calm', hint: 'Every row to import is in the register.' },
+	failed: { word: 'stopped', icon: 'alert', tone: 'alert', hint: 'The import stopped on a fault; the batches written so far are kept.' },
+	discarded: { word: 'discarded', icon: 'blank', tone: 'quiet', hint: 'The file was checked and set aside; nothing was imported.' }
+};
 
 export type ImportProblem = { line: number; column: string; message: string };
 

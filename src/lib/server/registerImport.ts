@@ -4,13 +4,15 @@
 // A row whose lab and serial match a registered laser updates that laser (and its line of the same
 // label, in order) rather than adding a second one. A batch marks its rows done as it commits, so a
 // job that runs twice, or resumes after a fault, writes nothing twice.
-import { and, asc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import Decimal from 'decimal.js';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import type { Scope } from '$lib/server/auth/scope';
 import { failure, notFound, type Failure } from '$lib/server/failure';
+import { cleanFileName, MAX_UPLOAD_BYTES } from '$lib/server/uploads';
+import { fileTypeFromBuffer } from 'file-type';
 import { isUuid } from '$lib/server/lasers';
 import { laserKey, parseRegisterFile, type LaserValues, type ParsedRow } from '$lib/server/registerRows';
 import { IMPORT_BATCH_ROWS, type ImportProblem, type ImportProgress } from '$lib/registerCsv';
@@ -19,6 +21,38 @@ import type { LineValues } from '$lib/schemas/register';
 type StagedData = { laser: LaserValues; line: LineValues };
 
 const officerOnly = (scope: Scope) => scope.role === 'officer' && scope.editLabIds === 'all';
+
+/**
+ * The uploaded file as text. Its kind comes from its bytes: a workbook, PDF or image is refused
+ * with a word on saving it as CSV, and so is text that is not UTF-8.
+ */
+export async function readUpload(entry: FormDataEntryValue | null): Promise<{ ok: true; fileName: string; text: string } | Failure> {
+	if (!entry || typeof entry === 'string' || entry.size === 0) return failure(400, 'Choose a CSV file to upload.');
+	const fileName = cleanFileName(entry.name);
+	if (entry.size > MAX_UPLOAD_BYTES) return failure(413, `“${fileName}” is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MB; split it into smaller files.`);
+	const bytes = Buffer.from(await entry.arrayBuffer());
+	const kind = await fileTypeFromBuffer(bytes);
+	if (kind) return failure(400, `“${fileName}” is a ${kind.ext.toUpperCase()} file, not CSV. In the spreadsheet, save it as “CSV UTF-8” and upload that.`);
+	let text: string;
+	try {
+		text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+	} catch {
+		return failure(400, `“${fileName}” is not UTF-8 text. In the spreadsheet, save it as “CSV UTF-8” and upload that.`);
+	}
+	if (text.includes('\u0000')) return failure(400, `“${fileName}” is not a text file.`);
+	return { ok: true, fileName, text };
+}
+
+/** The latest imports, newest first, for the import page. */
+export async function recent(limit = 10) {
+	const rows = await db
+		.select({ record: table.registerImport, uploader: table.user.name })
+		.from(table.registerImport)
+		.innerJoin(table.user, eq(table.user.id, table.registerImport.createdBy))
+		.orderBy(desc(table.registerImport.createdAt))
+		.limit(limit);
+	return rows.map((r) => ({ id: r.record.id, fileName: r.record.fileName, state: r.record.state, uploader: r.uploader, createdAt: r.record.createdAt.toISOString(), totalRows: r.record.totalRows, errorRows: r.record.errorRows }));
+}
 
 /** Check a file and stage its valid rows. A file that cannot be read as the register's CSV stages nothing. */
 export async function stage(scope: Scope, fileName: string, text: string): Promise<{ ok: true; id: string } | (Failure & { problems?: ImportProblem[] })> {

@@ -12,6 +12,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const [all, inventory] = await Promise.all([labs.list(), filters.ok ? lasers.inventory(scope, filters.query) : null]);
 	return {
 		labs: scope.labIds === 'all' ? all : all.filter((l) => (scope.labIds as string[]).includes(l.id)),
+		canImport: user.role === 'officer',
 		canRegister: scope.editLabIds === 'all' || (Array.isArray(scope.editLabIds) && scope.editLabIds.length > 0),
 		inventory,
 		queryError: filters.ok ? null : filters.error.issues.map((i) => i.message).join(' ')
