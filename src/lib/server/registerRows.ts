@@ -22,7 +22,7 @@ const NO_LAB = '00000000-0000-4000-8000-000000000000';
 const headerName = (h: string) => h.trim().toLowerCase().replace(/[\s-]+/g, '_');
 
 export function laserKey(labId: string, serial: string): string {
-	return `${labId}\u0000${serial}`;
+	return `${labId}/${serial}`; // a uuid has a fixed length: the key is unambiguous
 }
 
 function columnOf(path: readonly PropertyKey[]): RegisterColumn | undefined {
