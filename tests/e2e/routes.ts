@@ -58,6 +58,8 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 	const [spxArea] = await sql`SELECT a.id FROM area a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
 	const [spxProcedure] = await sql`SELECT p.id FROM procedure p JOIN lab l ON l.id = p.lab_id WHERE l.code = 'SPX' LIMIT 1`;
 	const [spxAuthorisation] = await sql`SELECT a.id FROM authorisation a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
+	// A register import, when a test has made one (else an unknown id: the route answers 404 to officers).
+	const [registerImport] = await sql`SELECT id FROM register_import ORDER BY created_at LIMIT 1`;
 	await sql.end();
 	return {
 		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
@@ -72,6 +74,7 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 		areaId: spxArea.id,
 		procedureId: spxProcedure.id,
 		authorisationId: spxAuthorisation.id,
+		importId: registerImport?.id ?? '00000000-0000-4000-8000-000000000017',
 		token: 'not-a-real-token'
 	};
 }
