@@ -34,7 +34,7 @@ beforeAll(async () => {
 		if (!created.ok) throw new Error(JSON.stringify(created));
 		const lineIds = [(await db.select({ id: table.emissionLine.id }).from(table.emissionLine).where(eq(table.emissionLine.laserId, created.id)))[0].id];
 		for (const l of d.moreLines ?? []) {
-			const more = await lasers.saveLine(officer, created.id, null, l);
+			const more = await lasers.saveLine(officer, created.id, null, { ...l, version: 0 });
 			if (!more.ok) throw new Error(JSON.stringify(more));
 			lineIds.push(more.id);
 		}

@@ -259,7 +259,9 @@ async function writeBatch(importId: string, lines: number[]): Promise<{ linesCha
 		const created: { id: string; serial: string; fileLine: number }[] = [];
 		const updated: { id: string; serial: string; before: unknown; after: unknown }[] = [];
 		const changedLines: { id: string; before: unknown; after: LineValues }[] = [];
-		const newLines: (LineValues & { laserId: string })[] = [];
+		const newLines: (LineValues & { laserId: string; createdAt: Date })[] = [];
+		// A laser's lines are listed by creation time: lines added together keep the file's order, a millisecond apart.
+		const now = Date.now();
 		let unchanged = 0;
 		const touched = new Set<string>();
 
@@ -275,7 +277,7 @@ async function writeBatch(importId: string, lines: number[]): Promise<{ linesCha
 				const id = idOf.get(k)!;
 				created.push({ id, serial: g[0].laser.serial, fileLine: g[0].fileLine });
 				touched.add(id);
-				for (const r of g) newLines.push({ laserId: id, ...r.line });
+				g.forEach((r, j) => newLines.push({ laserId: id, ...r.line, createdAt: new Date(now + j) }));
 			}
 		}
 
@@ -295,10 +297,10 @@ async function writeBatch(importId: string, lines: number[]): Promise<{ linesCha
 			// The file's lines meet the laser's lines of the same label, in the order both list them.
 			const byLabel = new Map<string, (typeof lineRows)[number][]>();
 			for (const l of lineRows) if (l.laserId === laser.id) byLabel.set(l.label, [...(byLabel.get(l.label) ?? []), l]);
-			for (const r of g) {
+			for (const [j, r] of g.entries()) {
 				const match = byLabel.get(r.line.label)?.shift();
 				if (!match) {
-					newLines.push({ laserId: laser.id, ...r.line });
+					newLines.push({ laserId: laser.id, ...r.line, createdAt: new Date(now + j) });
 					changed = true;
 				} else if (sameLine(match, r.line)) unchanged++;
 				else {
