@@ -49,40 +49,27 @@ export type ReadCsv = { ok: true; head: string[]; records: CsvRecord[] } | { ok:
  */
 export function readCsv(text: string, maxRecords: number): ReadCsv {
 	const source = text.replace(/^\ufeff/, '');
-	const newline = source.includes('\n') ? '\n' : '\r';
+	const parsed = Papa.parse<string[]>(source, { skipEmptyLines: false, preview: maxRecords + 2 });
+	// A file of one column has no delimiter to detect: not a fault.
+	const errors = parsed.errors.filter((e) => e.type !== 'Delimiter');
+	// Each record starts on the line after the previous one ended: one line end, plus those inside its quoted fields.
+	const newline = parsed.meta.linebreak === '\r' ? '\r' : '\n';
 	const records: CsvRecord[] = [];
-	let start = 0;
 	let line = 1;
-	let problem: { line: number; message: string } | null = null;
-	let tooMany = false;
-	Papa.parse<string[]>(source, {
-		skipEmptyLines: false,
-		step: (result, handle) => {
-			const end = result.meta.cursor;
-			const startLine = line;
-			// Lines the record spans (its own line end included) move the count on.
-			for (let i = source.indexOf(newline, start); i !== -1 && i < end; i = source.indexOf(newline, i + 1)) line++;
-			start = end;
-			// A file of one column has no delimiter to detect: not a fault.
-			const errors = result.errors.filter((e) => e.type !== 'Delimiter');
-			if (errors.length && !problem) {
-				const e = errors[0];
-				problem = { line: startLine, message: e.code === 'MissingQuotes' ? 'A quoted field is not closed (a " is missing).' : e.code === 'InvalidQuotes' ? 'A quote (") inside a field that is not quoted; put the field in quotes and double the quote.' : e.message };
-				handle.abort();
-				return;
-			}
-			const cells = result.data;
-			if (cells.length === 1 && cells[0].trim() === '') return;
-			if (records.length >= maxRecords + 1) {
-				tooMany = true;
-				handle.abort();
-				return;
-			}
-			records.push({ line: startLine, cells });
+	for (let i = 0; i < parsed.data.length; i++) {
+		const cells = parsed.data[i];
+		const start = line;
+		for (const c of cells) for (let at = c.indexOf(newline); at !== -1; at = c.indexOf(newline, at + 1)) line++;
+		line++;
+		const fault = errors.find((e) => e.row === i);
+		if (fault) {
+			const message = fault.code === 'MissingQuotes' ? 'A quoted field is not closed (a " is missing).' : fault.code === 'InvalidQuotes' ? 'A quote (") inside a field that is not quoted; put the field in quotes and double the quote.' : fault.message;
+			return { ok: false, line: start, message };
 		}
-	});
-	if (problem) return { ok: false, ...(problem as { line: number; message: string }) };
-	if (tooMany) return { ok: false, line: records[records.length - 1].line, message: `The file has more than ${maxRecords.toLocaleString('en')} rows; split it into smaller files.` };
+		if (cells.length === 1 && cells[0].trim() === '') continue;
+		records.push({ line: start, cells });
+	}
+	if (records.length > maxRecords + 1) return { ok: false, line: records[maxRecords + 1].line, message: `The file has more than ${maxRecords.toLocaleString('en')} rows; split it into smaller files.` };
 	if (records.length === 0) return { ok: false, line: 1, message: 'The file is empty.' };
 	const [head, ...rest] = records;
 	return { ok: true, head: head.cells.map((c) => c.trim()), records: rest };
