@@ -29,6 +29,8 @@ export const abilities = {
 	exportInspections: ['manager', 'officer', 'admin'],
 	/** Approve and confirm procedures, set the sign-off interval, grant or refuse authorisations. */
 	approveProcedures: ['officer'],
+	/** Bring in the register from a CSV file. */
+	importRegister: ['officer'],
 	/** Read every person's records (researchers read their own). */
 	readEveryone: ['officer', 'manager', 'admin'],
 	/** People, labs and the sent mail. */

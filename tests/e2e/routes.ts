@@ -60,6 +60,8 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 	const [spxAuthorisation] = await sql`SELECT a.id FROM authorisation a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
 	// The demo has no limit-set import until a test uploads one; an unknown id answers 404 to officers.
 	const [limitImport] = await sql`SELECT id FROM limit_import ORDER BY created_at LIMIT 1`;
+	// A register import, when a test has made one (else an unknown id: the route answers 404 to officers).
+	const [registerImport] = await sql`SELECT id FROM register_import ORDER BY created_at LIMIT 1`;
 	await sql.end();
 	return {
 		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
@@ -75,6 +77,7 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 		procedureId: spxProcedure.id,
 		authorisationId: spxAuthorisation.id,
 		importId: limitImport?.id ?? '00000000-0000-4000-8000-000000000000',
+		registerImportId: registerImport?.id ?? '00000000-0000-4000-8000-000000000017',
 		token: 'not-a-real-token'
 	};
 }

@@ -21,7 +21,8 @@ const uploadActions: Record<string, readonly string[]> = {
 	'/(app)/incidents/[incidentId]/edit': ['save'],
 	'/(app)/incidents/[incidentId]': ['photos', 'closeAction'],
 	'/(app)/incidents': ['closeAction'],
-	'/(app)/procedures/[procedureId]': ['attach']
+	'/(app)/procedures/[procedureId]': ['attach'],
+	'/(app)/lasers/import': ['upload']
 };
 
 export const tooLargeMessage = 'The request is too large. Nothing was saved.';

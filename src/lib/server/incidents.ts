@@ -12,6 +12,7 @@
 import { and, asc, desc, eq, inArray, isNull, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { db, type Tx } from '$lib/server/db';
+import { writeCsv } from '$lib/server/csv';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
@@ -783,30 +784,21 @@ export function shiftMonth(month: string, n: number): string {
 
 /** CSV of the register of incidents: no personal field ever (no reporter, no people involved). */
 export function toCsv(rows: IncidentListItem[]): string {
-	const cell = (v: string | number | null) => {
-		let s = v === null ? '' : String(v);
-		if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
-		return `"${s.replace(/"/g, '""')}"`;
-	};
 	const head = ['number', 'occurred at', 'kind', 'severity', 'state', 'lab', 'area', 'laser', 'summary', 'contributing factors', 'actions', 'open actions', 'overdue actions'];
-	const lines = rows.map((r) =>
-		[
-			r.number,
-			r.occurredAt?.slice(0, 16).replace('T', ' ') ?? null,
-			r.kind ? kindWords[r.kind].word : null,
-			r.severity,
-			r.state,
-			r.labCode,
-			r.areaName,
-			r.laserName,
-			r.title,
-			r.factors.join('; '),
-			r.totalActions,
-			r.openActions,
-			r.overdueActions
-		]
-			.map(cell)
-			.join(',')
-	);
-	return [head.map(cell).join(','), ...lines].join('\r\n') + '\r\n';
+	const lines = rows.map((r) => [
+		r.number,
+		r.occurredAt?.slice(0, 16).replace('T', ' ') ?? null,
+		r.kind ? kindWords[r.kind].word : null,
+		r.severity,
+		r.state,
+		r.labCode,
+		r.areaName,
+		r.laserName,
+		r.title,
+		r.factors.join('; '),
+		r.totalActions,
+		r.openActions,
+		r.overdueActions
+	]);
+	return writeCsv(head, lines);
 }

@@ -7,7 +7,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
-import { csvCell } from '$lib/server/csv';
+import { writeCsv } from '$lib/server/csv';
 import { isUuid } from '$lib/server/lasers';
 import type { StoredUpload } from '$lib/server/uploads';
 import type { MonthCount } from '$lib/inspectionState';
@@ -232,6 +232,8 @@ export async function officers() {
 /** CSV of the schedule; every field quoted, formula-leading characters neutralised for spreadsheets. */
 export function toCsv(rows: ScheduleRow[]): string {
 	const head = ['area', 'lab', 'state', 'due on', 'inspector', 'responsible', 'interval (months)'];
-	const lines = rows.map((r) => [r.areaName, r.labCode, r.state.replace('_', ' '), r.dueOn, r.inspectorName, r.responsibleName, r.intervalMonths].map(csvCell).join(','));
-	return [head.map(csvCell).join(','), ...lines].join('\r\n') + '\r\n';
+	return writeCsv(
+		head,
+		rows.map((r) => [r.areaName, r.labCode, r.state.replace('_', ' '), r.dueOn, r.inspectorName, r.responsibleName, r.intervalMonths])
+	);
 }

@@ -6,7 +6,8 @@ import * as audit from '$lib/server/audit';
 import { nudge, queues } from '$lib/server/jobs/queues';
 import { canEdit, canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
-import { lineToSI, type LineValues, type NewLaserForm } from '$lib/schemas/register';
+import type { NewLaserForm } from '$lib/schemas/register';
+import { checkedLine } from '$lib/server/lineRules';
 import { lineFromRow } from '$lib/schemas/assessment';
 import { lineProblems } from '$lib/server/hazard';
 import type { LaserClass, LaserStatus } from '$lib/enums';
@@ -225,20 +226,6 @@ export async function find(scope: Scope, laserId: string): Promise<{ ok: true; d
 
 export function isUuid(s: string): boolean {
 	return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(s);
-}
-
-/**
- * A line form in SI, checked with the hazard engine's own rules (one source of truth): a line the
- * engine cannot assess is never saved. Errors are keyed like the form (`prefix` + field).
- */
-function checkedLine(form: Parameters<typeof lineToSI>[0], prefix = ''): { ok: true; value: LineValues } | { ok: false; errors: Record<string, string> } {
-	const line = lineToSI(form, prefix);
-	if (!line.ok) return line;
-	const problems = lineProblems(line.value);
-	if (problems.length === 0) return line;
-	const errors: Record<string, string> = {};
-	for (const p of problems) errors[prefix + (p.field || 'wavelength')] ??= p.reason;
-	return { ok: false, errors };
 }
 
 /** Keep the laser's wavelength span (for the band filter) in step with its lines. */

@@ -9,7 +9,9 @@ export const queues = {
 	/** Every minute and on a nudge: turn reset requests into links, mail new in-app notifications and send what the ledger has due. */
 	mailDeliver: 'mail-deliver',
 	/** Every hour: forget sign-in throttle rows, reset requests and sessions that count for nothing any more. */
-	housekeeping: 'housekeeping'
+	housekeeping: 'housekeeping',
+	/** On a nudge and every minute: write the register imports an officer started, batch by batch. */
+	registerImport: 'register-import'
 } as const;
 
 export type QueueName = (typeof queues)[keyof typeof queues];
@@ -22,7 +24,8 @@ export const queueDefinitions: { name: QueueName; policy: 'standard' | 'stately'
 	{ name: queues.reassessPaths, policy: 'stately', cron: '*/5 * * * *' },
 	{ name: queues.mailDaily, policy: 'stately', cron: '0 6 * * *' },
 	{ name: queues.mailDeliver, policy: 'stately', cron: '* * * * *' },
-	{ name: queues.housekeeping, policy: 'stately', cron: '17 * * * *' }
+	{ name: queues.housekeeping, policy: 'stately', cron: '17 * * * *' },
+	{ name: queues.registerImport, policy: 'stately', cron: '* * * * *' }
 ];
 
 let running: PgBoss | null = null;

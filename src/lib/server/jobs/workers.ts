@@ -10,6 +10,7 @@ import * as outbox from '$lib/server/mail/outbox';
 import * as passwordResets from '$lib/server/passwordResets';
 import * as throttle from '$lib/server/auth/throttle';
 import * as auth from '$lib/server/auth/session';
+import * as registerImport from '$lib/server/registerImport';
 
 const handlers: Record<QueueName, () => Promise<unknown>> = {
 	[queues.reassessPaths]: async () => {
@@ -43,6 +44,12 @@ const handlers: Record<QueueName, () => Promise<unknown>> = {
 		const resetRequests = await passwordResets.purgeRequests();
 		await auth.lucia.deleteExpiredSessions();
 		return { throttleRows, resetRequests };
+	},
+	// Started imports, batch by batch (each batch marks its rows done, so a second run writes nothing twice).
+	[queues.registerImport]: async () => {
+		const result = await registerImport.runStarted();
+		if (result.linesChanged) await nudge(queues.reassessPaths);
+		return result;
 	}
 };
 
