@@ -9,3 +9,4 @@ export * from './training';
 export * from './incidents';
 export * from './procedures';
 export * from './authorisations';
+export * from './jobs';
