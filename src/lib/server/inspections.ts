@@ -11,7 +11,7 @@ import { csvCell } from '$lib/server/csv';
 import { isUuid } from '$lib/server/lasers';
 import type { StoredUpload } from '$lib/server/uploads';
 import { inspectionState, type InspectionState } from '$lib/inspectionState';
-import type { RecordInspectionForm } from '$lib/schemas/inspections';
+import { unansweredItems, type CheckOutcome, type CloseFindingForm, type RecordInspectionForm } from '$lib/schemas/inspections';
 
 const labScope = (scope: Scope): SQL | undefined =>
 	scope.labIds === 'all' ? undefined : scope.labIds.length ? inArray(table.area.labId, scope.labIds) : sql`false`;
@@ -21,6 +21,7 @@ const inspectorUser = db
 	.from(table.user)
 	.as('inspector_user');
 const responsibleUser = db.select({ id: table.user.id, name: table.user.name }).from(table.user).as('responsible_user');
+const closerUser = db.select({ id: table.user.id, name: table.user.name }).from(table.user).as('closer_user');
 
 export type ScheduleRow = {
 	id: string;
@@ -119,7 +120,13 @@ export async function find(scope: Scope, inspectionId: string) {
 	if (!row || !canRead(scope, row.area.labId)) return null;
 	const [results, findings, photos, history] = await Promise.all([
 		db.select().from(table.inspectionResult).where(eq(table.inspectionResult.inspectionId, inspectionId)).orderBy(asc(table.inspectionResult.sequence)),
-		db.select().from(table.finding).where(eq(table.finding.inspectionId, inspectionId)),
+		db
+			.select({ finding: table.finding, closedByName: closerUser.name })
+			.from(table.finding)
+			.leftJoin(closerUser, eq(closerUser.id, table.finding.closedBy))
+			.where(eq(table.finding.inspectionId, inspectionId))
+			.orderBy(asc(table.finding.createdAt), asc(table.finding.id))
+			.then((rows) => rows.map((r) => ({ ...r.finding, closedByName: r.closedByName }))),
 		db
 			.select({ id: table.document.id, fileName: table.document.fileName, mediaType: table.document.mediaType, size: table.document.size })
 			.from(table.document)
@@ -157,6 +164,10 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 	if (found.inspection.completedOn) return failure(409, 'This inspection is already recorded as done.');
 	const [template] = await db.select().from(table.checklistTemplate).where(eq(table.checklistTemplate.id, form.templateId));
 	if (!template) return fieldsNeedAttention({ templateId: 'Unknown checklist.' });
+	// The schema refuses unanswered items already; this keeps them out of the table whatever the caller.
+	const open = unansweredItems(form.results);
+	if (open.length) return fieldsNeedAttention({ results: `Answer every item before recording the inspection. Not answered yet: ${open.join('; ')}.` });
+	const results = form.results.map((r, sequence) => ({ inspectionId, sequence, itemText: r.itemText, outcome: r.outcome as CheckOutcome, notes: r.notes }));
 	return db.transaction(async (tx) => {
 		const [done] = await tx
 			.update(table.inspection)
@@ -164,7 +175,7 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 			.where(and(eq(table.inspection.id, inspectionId), eq(table.inspection.version, form.version), isNull(table.inspection.completedOn)))
 			.returning();
 		if (!done) return changedMeanwhile('inspection');
-		await tx.insert(table.inspectionResult).values(form.results.map((r, sequence) => ({ inspectionId, sequence, ...r })));
+		await tx.insert(table.inspectionResult).values(results);
 		if (form.findings.length)
 			await tx.insert(table.finding).values(form.findings.map((f) => ({ inspectionId, description: f.description, action: f.action, dueOn: f.dueOn || null, ownerId: found.area.responsibleId })));
 		const nextDueOn = format(addMonths(parseISO(form.completedOn), found.area.inspectionIntervalMonths), 'yyyy-MM-dd');
@@ -178,6 +189,33 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 			after: { completedOn: form.completedOn, failed: form.results.filter((r) => r.outcome === 'fail').length, findings: form.findings.length, nextDueOn }
 		});
 		return { ok: true, nextId: next.id, nextDueOn } as const;
+	});
+}
+
+/** Close a finding of a recorded inspection: who, on which day, and what was done about it. */
+export async function closeFinding(scope: Scope, inspectionId: string, form: CloseFindingForm): Promise<{ ok: true; description: string } | Failure> {
+	if (scope.role !== 'officer') return failure(403, 'Only a laser safety officer closes findings.');
+	const found = await find(scope, inspectionId);
+	if (!found) return notFound('inspection');
+	const before = found.findings.find((f) => f.id === form.findingId);
+	if (!before) return notFound('finding');
+	if (before.closedOn) return failure(409, 'This finding is already closed.');
+	return db.transaction(async (tx) => {
+		const [after] = await tx
+			.update(table.finding)
+			.set({ closedOn: form.closedOn, closedBy: scope.userId, closureNote: form.closureNote, version: form.version + 1 })
+			.where(and(eq(table.finding.id, form.findingId), eq(table.finding.version, form.version), isNull(table.finding.closedOn)))
+			.returning();
+		if (!after) return changedMeanwhile('finding');
+		await audit.record(tx, {
+			actorId: scope.userId,
+			action: 'finding.close',
+			entity: 'finding',
+			entityId: after.id,
+			before: { closedOn: null },
+			after: { closedOn: form.closedOn, closureNote: form.closureNote, inspectionId }
+		});
+		return { ok: true, description: after.description } as const;
 	});
 }
 
