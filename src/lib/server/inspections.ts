@@ -70,17 +70,24 @@ export type MonthCount = { month: string; count: number };
 
 /**
  * Due per month over the next 12 months (each open inspection, then every interval after it) and,
- * over the last 12, how many inspections stood overdue at each month's end.
+ * over the last 12, how many inspections stood overdue at each month's end; `overdueNow` counts the
+ * open ones past their due day today, which the current month shows as overdue, not as due.
  */
-export async function chart(scope: Scope, today: string): Promise<{ upcoming: MonthCount[]; overdue: MonthCount[] }> {
+export async function chart(scope: Scope, today: string): Promise<{ upcoming: MonthCount[]; overdue: MonthCount[]; overdueNow: number }> {
 	const open = await schedule(scope, today);
 	const start = startOfMonth(parseISO(today));
 	const upcoming = Array.from({ length: 12 }, (_, i) => ({ month: format(addMonths(start, i), 'yyyy-MM'), count: 0 }));
 	const horizon = addMonths(start, 12);
+	let overdueNow = 0;
 	for (const r of open) {
-		for (let due = parseISO(r.dueOn); due < horizon; due = addMonths(due, r.intervalMonths)) {
-			const key = format(due < start ? start : due, 'yyyy-MM'); // overdue ones count in this month
-			const slot = upcoming.find((u) => u.month === key);
+		let due = parseISO(r.dueOn);
+		if (r.dueOn < today) {
+			overdueNow++;
+			due = addMonths(parseISO(today), r.intervalMonths); // its next round, at the earliest (done today)
+		}
+		for (; due < horizon; due = addMonths(due, r.intervalMonths)) {
+			if (due < start) continue;
+			const slot = upcoming.find((u) => u.month === format(due, 'yyyy-MM'));
 			if (slot) slot.count++;
 		}
 	}
@@ -94,7 +101,7 @@ export async function chart(scope: Scope, today: string): Promise<{ upcoming: Mo
 		const e = format(end, 'yyyy-MM-dd');
 		return { month: format(end, 'yyyy-MM'), count: rows.filter((r) => r.dueOn < e && (r.completedOn === null || r.completedOn > e)).length };
 	});
-	return { upcoming, overdue };
+	return { upcoming, overdue, overdueNow };
 }
 
 export async function openFindings(scope: Scope) {
@@ -243,7 +250,7 @@ export async function documentFor(scope: Scope, documentId: string) {
 	return (await find(scope, doc.entityId)) ? doc : null;
 }
 
-export async function assign(scope: Scope, inspectionId: string, inspectorId: string, version: number): Promise<{ ok: true } | Failure> {
+export async function assign(scope: Scope, inspectionId: string, inspectorId: string, version: number): Promise<{ ok: true; areaName: string; inspectorName: string } | Failure> {
 	if (scope.role !== 'manager' && scope.role !== 'officer') return failure(403, 'Only facility managers and laser safety officers assign inspectors.');
 	if (!isUuid(inspectionId)) return notFound('inspection');
 	const [person] = await db.select().from(table.user).where(and(eq(table.user.id, inspectorId), eq(table.user.disabled, false)));
@@ -258,7 +265,8 @@ export async function assign(scope: Scope, inspectionId: string, inspectorId: st
 			.returning();
 		if (!after) return changedMeanwhile('inspection');
 		await audit.record(tx, { actorId: scope.userId, action: 'inspection.assign', entity: 'inspection', entityId: inspectionId, before: { inspectorId: before.inspectorId }, after: { inspectorId } });
-		return { ok: true } as const;
+		const [area] = await tx.select({ name: table.area.name }).from(table.area).where(eq(table.area.id, after.areaId));
+		return { ok: true, areaName: area.name, inspectorName: person.name } as const;
 	});
 }
 
