@@ -6,7 +6,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { format, subDays } from 'date-fns';
 import { demoUsers } from '../../seed/demo';
 import { png } from '../../seed/png';
-import { baseURL, demo, expectAccessible, signIn, signedInClient } from './helpers';
+import { demo, expectAccessible, signIn } from './helpers';
 
 const AREA = 'Processing bay K0.11'; // due in months: recording it moves no other test's counts
 const today = () => format(new Date(), 'yyyy-MM-dd');
@@ -40,6 +40,18 @@ test('uploading a photo or a refused file keeps the checklist answers being type
 	await expect(item.getByLabel('fail')).toBeChecked();
 	await expect(page.getByLabel(/What failed/)).toHaveValue('Rear door switch sticks');
 	await expect(page.getByLabel('What was found')).toHaveValue('Door switch worn');
+});
+
+test('an incident photo upload keeps the investigation being typed', async ({ page }) => {
+	await signIn(page, demo('officer'));
+	await page.goto('/incidents');
+	await page.getByRole('link', { name: /Eyewear for 1064 nm was found/ }).first().click(); // not investigated yet
+	const causes = page.getByRole('textbox', { name: 'Causes' });
+	await causes.fill('Clamp screw worked loose; not yet known why.');
+	await page.getByLabel(/Add photos/).setInputFiles({ name: 'block.png', mimeType: 'image/png', buffer: png(24, 24, (x) => x * 9) });
+	await page.getByRole('button', { name: 'Upload' }).click();
+	await expect(page.getByRole('img', { name: /block\.png/ })).toBeVisible();
+	await expect(causes).toHaveValue('Clamp screw worked loose; not yet known why.');
 });
 
 test('a procedure draft keeps its unsaved text when a PDF upload is refused', async ({ page }) => {
@@ -106,7 +118,7 @@ test('a checklist starts unanswered, cannot be completed half answered, and fail
 	await finding.getByRole('button', { name: 'Close this finding' }).click();
 	await expect(page.getByRole('status').filter({ hasText: 'Finding closed' })).toBeVisible();
 	const closed = page.getByRole('listitem').filter({ hasText: 'Scratched goggles in the bay' });
-	await expect(closed).toContainText(`closed on ${today()} by Helen Achter`);
+	await expect(closed).toContainText(`Closed on ${today()} by Helen Achter`);
 	await expect(closed).toContainText('Two new pairs OD 7 at 1064 nm in the cabinet');
 	await page.goto('/inspections');
 	await expect(page.getByRole('region', { name: 'Open findings' })).not.toContainText('Scratched goggles in the bay');
@@ -165,10 +177,9 @@ test('text boxes carry a maxlength and a 10 MB paste is refused at once', async 
 	expect(await boxes.count()).toBeGreaterThan(5);
 	for (const box of await boxes.all()) await expect(box).toHaveAttribute('maxlength', /^\d+$/);
 
-	const officer = await signedInClient(demo('officer'));
-	const id = page.url().split('/').pop()!;
-	const started = Date.now();
-	const res = await officer.post(`${baseURL}/inspections/${id}?/record`, { form: { notes: 'x'.repeat(10 * 1024 * 1024) }, headers: { accept: 'application/json' } });
-	expect(res.status()).toBe(413);
-	expect(Date.now() - started).toBeLessThan(3000);
+	// A 10 MB paste into the notes is cut to the limit in the browser, at once, and never sent whole
+	// (a body that large is refused with 413 by the server as well: see hardening.spec.ts).
+	const notes = page.getByLabel('Notes (optional)', { exact: true });
+	await notes.fill('x'.repeat(10 * 1024 * 1024));
+	expect((await notes.inputValue()).length).toBe(4000);
 });
