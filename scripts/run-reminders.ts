@@ -46,7 +46,7 @@ async function main(): Promise<number> {
 		const counts = await runDaily(args.today);
 		console.log(
 			`reminders for ${counts.today}: ${counts.inspectionDue} inspection due, ${counts.inspectionOverdue} inspection overdue, ` +
-				`${counts.reviewWaiting} review waiting, ${counts.trainingExpiring} training expiring, ${counts.trainingExpired} training expired, ${counts.actionOverdue} corrective action overdue, ${counts.notifications} notification; ` +
+				`${counts.reviewWaiting} review waiting, ${counts.trainingExpiring} training expiring, ${counts.trainingExpired} training expired, ${counts.actionOverdue} corrective action overdue, ${counts.findingOverdue} inspection finding overdue, ${counts.notifications} notification; ` +
 				`${counts.safety.procedureReviewDue} procedure review due, ${counts.safety.signoffNeeded} sign-off needed, ${counts.safety.signoffLapsing} sign-off lapsing, ` +
 				`${counts.safety.authorisationWaiting} authorisation waiting, ${counts.safety.authorisationLapsing} authorisation lapsing, ${counts.safety.authorisationLapsed} authorisation lapsed; ${counts.held} held for digests; ` +
 				`${counts.digests} digests (${counts.digestItems} items)`

@@ -51,6 +51,9 @@ export const inspectionWords: Record<string, StateWord> = {
 	done: { word: 'done', icon: 'ok', tone: 'calm', hint: 'Recorded as done.' }
 };
 
+/** An inspection finding whose follow-up is past its due day and not closed. */
+export const findingOverdueWord: StateWord = { word: 'overdue', icon: 'alert', tone: 'alert', hint: 'The follow-up is past its due day and the finding is not closed.' };
+
 export const trainingWords: Record<string, StateWord> = {
 	current: { word: 'current', icon: 'ok', tone: 'calm', hint: 'Valid for more than 30 days.' },
 	expires_soon: { word: 'expires soon', icon: 'clock', tone: 'caution', hint: 'Expires within 30 days.' },

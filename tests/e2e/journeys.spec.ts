@@ -66,7 +66,8 @@ test('an admin adds a person: each bad field is named, nothing is saved until al
 	await page.getByLabel('UFL — Ultrafast Optics Laboratory').check();
 	await page.getByLabel('First password').fill('tidal lantern over the quarry');
 	await page.getByRole('button', { name: 'Create the account' }).click();
-	await expect(page).toHaveURL(/\/admin\/users$/);
+	await expect(page).toHaveURL(/\/admin\/users\?created=[\w-]+$/);
+	await expect(page.getByRole('status')).toContainText('Account created for Ada Quill (ada.quill@northgate.example).');
 	const row = page.getByRole('row', { name: /Ada Quill/ });
 	await expect(row).toContainText('Laser safety officer');
 	await expect(row).toContainText('UFL');

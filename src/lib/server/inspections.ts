@@ -12,7 +12,7 @@ import { isUuid } from '$lib/server/lasers';
 import type { StoredUpload } from '$lib/server/uploads';
 import type { MonthCount } from '$lib/inspectionState';
 import { inspectionState, type InspectionState } from '$lib/inspectionState';
-import type { RecordInspectionForm } from '$lib/schemas/inspections';
+import { unansweredItems, type CheckOutcome, type CloseFindingForm, type RecordInspectionForm } from '$lib/schemas/inspections';
 import { can } from '$lib/abilities';
 
 const labScope = (scope: Scope): SQL | undefined =>
@@ -23,6 +23,7 @@ const inspectorUser = db
 	.from(table.user)
 	.as('inspector_user');
 const responsibleUser = db.select({ id: table.user.id, name: table.user.name }).from(table.user).as('responsible_user');
+const closerUser = db.select({ id: table.user.id, name: table.user.name }).from(table.user).as('closer_user');
 
 export type ScheduleRow = {
 	id: string;
@@ -70,17 +71,24 @@ export async function schedule(scope: Scope, today: string): Promise<ScheduleRow
 
 /**
  * Due per month over the next 12 months (each open inspection, then every interval after it) and,
- * over the last 12, how many inspections stood overdue at each month's end.
+ * over the last 12, how many inspections stood overdue at each month's end; `overdueNow` counts the
+ * open ones past their due day today, which the current month shows as overdue, not as due.
  */
-export async function chart(scope: Scope, today: string): Promise<{ upcoming: MonthCount[]; overdue: MonthCount[] }> {
+export async function chart(scope: Scope, today: string): Promise<{ upcoming: MonthCount[]; overdue: MonthCount[]; overdueNow: number }> {
 	const open = await schedule(scope, today);
 	const start = startOfMonth(parseISO(today));
 	const upcoming = Array.from({ length: 12 }, (_, i) => ({ month: format(addMonths(start, i), 'yyyy-MM'), count: 0 }));
 	const horizon = addMonths(start, 12);
+	let overdueNow = 0;
 	for (const r of open) {
-		for (let due = parseISO(r.dueOn); due < horizon; due = addMonths(due, r.intervalMonths)) {
-			const key = format(due < start ? start : due, 'yyyy-MM'); // overdue ones count in this month
-			const slot = upcoming.find((u) => u.month === key);
+		let due = parseISO(r.dueOn);
+		if (r.dueOn < today) {
+			overdueNow++;
+			due = addMonths(parseISO(today), r.intervalMonths); // its next round, at the earliest (done today)
+		}
+		for (; due < horizon; due = addMonths(due, r.intervalMonths)) {
+			if (due < start) continue;
+			const slot = upcoming.find((u) => u.month === format(due, 'yyyy-MM'));
 			if (slot) slot.count++;
 		}
 	}
@@ -94,7 +102,7 @@ export async function chart(scope: Scope, today: string): Promise<{ upcoming: Mo
 		const e = format(end, 'yyyy-MM-dd');
 		return { month: format(end, 'yyyy-MM'), count: rows.filter((r) => r.dueOn < e && (r.completedOn === null || r.completedOn > e)).length };
 	});
-	return { upcoming, overdue };
+	return { upcoming, overdue, overdueNow };
 }
 
 export async function openFindings(scope: Scope) {
@@ -120,7 +128,13 @@ export async function find(scope: Scope, inspectionId: string) {
 	if (!row || !canRead(scope, row.area.labId)) return null;
 	const [results, findings, photos, history] = await Promise.all([
 		db.select().from(table.inspectionResult).where(eq(table.inspectionResult.inspectionId, inspectionId)).orderBy(asc(table.inspectionResult.sequence)),
-		db.select().from(table.finding).where(eq(table.finding.inspectionId, inspectionId)),
+		db
+			.select({ finding: table.finding, closedByName: closerUser.name })
+			.from(table.finding)
+			.leftJoin(closerUser, eq(closerUser.id, table.finding.closedBy))
+			.where(eq(table.finding.inspectionId, inspectionId))
+			.orderBy(asc(table.finding.createdAt), asc(table.finding.id))
+			.then((rows) => rows.map((r) => ({ ...r.finding, closedByName: r.closedByName }))),
 		db
 			.select({ id: table.document.id, fileName: table.document.fileName, mediaType: table.document.mediaType, size: table.document.size })
 			.from(table.document)
@@ -158,6 +172,10 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 	if (found.inspection.completedOn) return failure(409, 'This inspection is already recorded as done.');
 	const [template] = await db.select().from(table.checklistTemplate).where(eq(table.checklistTemplate.id, form.templateId));
 	if (!template) return fieldsNeedAttention({ templateId: 'Unknown checklist.' });
+	// The schema refuses unanswered items already; this keeps them out of the table whatever the caller.
+	const open = unansweredItems(form.results);
+	if (open.length) return fieldsNeedAttention({ results: `Answer every item before recording the inspection. Not answered yet: ${open.join('; ')}.` });
+	const results = form.results.map((r, sequence) => ({ inspectionId, sequence, itemText: r.itemText, outcome: r.outcome as CheckOutcome, notes: r.notes }));
 	return db.transaction(async (tx) => {
 		const [done] = await tx
 			.update(table.inspection)
@@ -165,7 +183,7 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 			.where(and(eq(table.inspection.id, inspectionId), eq(table.inspection.version, form.version), isNull(table.inspection.completedOn)))
 			.returning();
 		if (!done) return changedMeanwhile('inspection');
-		await tx.insert(table.inspectionResult).values(form.results.map((r, sequence) => ({ inspectionId, sequence, ...r })));
+		await tx.insert(table.inspectionResult).values(results);
 		if (form.findings.length)
 			await tx.insert(table.finding).values(form.findings.map((f) => ({ inspectionId, description: f.description, action: f.action, dueOn: f.dueOn || null, ownerId: found.area.responsibleId })));
 		const nextDueOn = format(addMonths(parseISO(form.completedOn), found.area.inspectionIntervalMonths), 'yyyy-MM-dd');
@@ -179,6 +197,33 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 			after: { completedOn: form.completedOn, failed: form.results.filter((r) => r.outcome === 'fail').length, findings: form.findings.length, nextDueOn }
 		});
 		return { ok: true, nextId: next.id, nextDueOn } as const;
+	});
+}
+
+/** Close a finding of a recorded inspection: who, on which day, and what was done about it. */
+export async function closeFinding(scope: Scope, inspectionId: string, form: CloseFindingForm): Promise<{ ok: true; description: string } | Failure> {
+	if (!can(scope, 'recordInspections')) return failure(403, 'Only a laser safety officer closes findings.');
+	const found = await find(scope, inspectionId);
+	if (!found) return notFound('inspection');
+	const before = found.findings.find((f) => f.id === form.findingId);
+	if (!before) return notFound('finding');
+	if (before.closedOn) return failure(409, 'This finding is already closed.');
+	return db.transaction(async (tx) => {
+		const [after] = await tx
+			.update(table.finding)
+			.set({ closedOn: form.closedOn, closedBy: scope.userId, closureNote: form.closureNote, version: form.version + 1 })
+			.where(and(eq(table.finding.id, form.findingId), eq(table.finding.version, form.version), isNull(table.finding.closedOn)))
+			.returning();
+		if (!after) return changedMeanwhile('finding');
+		await audit.record(tx, {
+			actorId: scope.userId,
+			action: 'finding.close',
+			entity: 'finding',
+			entityId: after.id,
+			before: { closedOn: null },
+			after: { closedOn: form.closedOn, closureNote: form.closureNote, inspectionId }
+		});
+		return { ok: true, description: after.description } as const;
 	});
 }
 
@@ -206,7 +251,7 @@ export async function documentFor(scope: Scope, documentId: string) {
 	return (await find(scope, doc.entityId)) ? doc : null;
 }
 
-export async function assign(scope: Scope, inspectionId: string, inspectorId: string, version: number): Promise<{ ok: true } | Failure> {
+export async function assign(scope: Scope, inspectionId: string, inspectorId: string, version: number): Promise<{ ok: true; areaName: string; inspectorName: string } | Failure> {
 	if (!can(scope, 'assignInspectors')) return failure(403, 'Only facility managers and laser safety officers assign inspectors.');
 	if (!isUuid(inspectionId)) return notFound('inspection');
 	const [person] = await db.select().from(table.user).where(and(eq(table.user.id, inspectorId), eq(table.user.disabled, false)));
@@ -221,7 +266,8 @@ export async function assign(scope: Scope, inspectionId: string, inspectorId: st
 			.returning();
 		if (!after) return changedMeanwhile('inspection');
 		await audit.record(tx, { actorId: scope.userId, action: 'inspection.assign', entity: 'inspection', entityId: inspectionId, before: { inspectorId: before.inspectorId }, after: { inspectorId } });
-		return { ok: true } as const;
+		const [area] = await tx.select({ name: table.area.name }).from(table.area).where(eq(table.area.id, after.areaId));
+		return { ok: true, areaName: area.name, inspectorName: person.name } as const;
 	});
 }
 

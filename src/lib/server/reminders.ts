@@ -24,6 +24,7 @@ export type DailyCounts = {
 	trainingExpiring: number;
 	trainingExpired: number;
 	actionOverdue: number;
+	findingOverdue: number;
 	notifications: number;
 	/** Procedures and authorisations (see safetyReminders). */
 	safety: Omit<safetyReminders.SafetyCounts, 'held'>;
@@ -216,6 +217,55 @@ export async function actionOverdueMails(today: string, appUrl: string): Promise
 	return mails;
 }
 
+/**
+ * Open inspection findings past their follow-up day: weekly, to the person responsible for the
+ * area, the area's inspector and the officer who recorded the inspection.
+ */
+export async function findingOverdueMails(today: string, appUrl: string): Promise<MailInput[]> {
+	const f = table.finding;
+	const i = table.inspection;
+	const a = table.area;
+	const rows = await db
+		.select({
+			id: f.id,
+			description: f.description,
+			action: f.action,
+			dueOn: f.dueOn,
+			ownerId: f.ownerId,
+			inspectionId: i.id,
+			completedBy: i.completedBy,
+			areaInspectorId: a.inspectorId,
+			areaId: a.id,
+			areaName: a.name,
+			room: a.room,
+			building: a.building,
+			labName: table.lab.name
+		})
+		.from(f)
+		.innerJoin(i, eq(i.id, f.inspectionId))
+		.innerJoin(a, eq(a.id, i.areaId))
+		.innerJoin(table.lab, eq(table.lab.id, a.labId))
+		.where(and(isNull(f.closedOn), isNotNull(f.dueOn), lt(f.dueOn, today)));
+	if (rows.length === 0) return [];
+	const people = await activeUsers({ ids: [...new Set(rows.flatMap((r) => [r.ownerId, r.completedBy, r.areaInspectorId]).filter((x): x is string => !!x))] });
+	const byId = new Map(people.map((p) => [p.id, p]));
+	const mails: MailInput[] = [];
+	for (const r of rows) {
+		const step = actionOverdueStep(r.dueOn!, today);
+		if (!step) continue;
+		const to = new Recipients();
+		if (r.ownerId) to.add(byId.get(r.ownerId), 'You are the person responsible for this area.');
+		if (r.areaInspectorId) to.add(byId.get(r.areaInspectorId), 'You are the inspector of this area.');
+		if (r.completedBy) to.add(byId.get(r.completedBy), 'You recorded the inspection that found this.');
+		const area: templates.AreaInfo = { id: r.areaId, name: r.areaName, room: r.room, building: r.building, labName: r.labName };
+		for (const { person, reason } of to.list()) {
+			const body = templates.findingOverdue({ appUrl, inspectionId: r.inspectionId, area, description: r.description, action: r.action, dueOn: r.dueOn!, daysOverdue: step.daysOverdue, reason });
+			mails.push({ kind: 'finding.overdue', recordId: r.id, dueKey: r.dueOn!, step: step.step, recipientId: person.id, recipientEmail: person.email, ...mailBody(body), reason });
+		}
+	}
+	return mails;
+}
+
 /** One mail per in-app notification created in [from, to). */
 export async function notificationMailsBetween(from: Date, to: Date, appUrl: string): Promise<MailInput[]> {
 	const n = table.notification;
@@ -273,6 +323,7 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 	const expiring = await enqueueAll(trainings.filter((m) => m.kind === 'training.expiring'));
 	const expired = await enqueueAll(trainings.filter((m) => m.kind === 'training.expired'));
 	const actions = await enqueueAll(await actionOverdueMails(day, appUrl));
+	const findings = await enqueueAll(await findingOverdueMails(day, appUrl));
 	const { held: safetyHeld, ...safety } = await safetyReminders.runDaily(day, appUrl, enqueueAll);
 	const start = startOfUtcDay(shiftDay(day, -NOTIFICATION_WINDOW_DAYS));
 	const notes = await enqueueAll(await notificationMailsBetween(start, startOfUtcDay(shiftDay(day, 1)), appUrl));
@@ -286,9 +337,10 @@ export async function runDaily(today: Date | string): Promise<DailyCounts> {
 		trainingExpiring: expiring.inserted,
 		trainingExpired: expired.inserted,
 		actionOverdue: actions.inserted,
+		findingOverdue: findings.inserted,
 		notifications: notes.inserted,
 		safety,
-		held: due.held + overdue.held + reviews.held + expiring.held + expired.held + actions.held + notes.held + safetyHeld,
+		held: due.held + overdue.held + reviews.held + expiring.held + expired.held + actions.held + findings.held + notes.held + safetyHeld,
 		digests: digests.digests,
 		digestItems: digests.items
 	};

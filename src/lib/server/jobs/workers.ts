@@ -11,6 +11,7 @@ import * as passwordResets from '$lib/server/passwordResets';
 import * as throttle from '$lib/server/auth/throttle';
 import * as auth from '$lib/server/auth/session';
 import * as registerImport from '$lib/server/registerImport';
+import * as dailyRun from './dailyRun';
 
 const handlers: Record<QueueName, () => Promise<unknown>> = {
 	[queues.reassessPaths]: async () => {
@@ -31,6 +32,7 @@ const handlers: Record<QueueName, () => Promise<unknown>> = {
 	[queues.mailDaily]: async () => {
 		const counts = await reminders.runDaily(new Date());
 		const delivered = await outbox.deliverAll();
+		await dailyRun.recordRun(new Date(), { ...counts, ...delivered });
 		return { ...counts, ...delivered };
 	},
 	[queues.mailDeliver]: async () => {
@@ -81,8 +83,14 @@ export async function startJobs(connectionString: string): Promise<PgBoss> {
 		if (q.cron) await b.schedule(q.name, q.cron);
 	}
 	setBoss(b);
-	// Catch up at start-up rather than at the next schedule (e.g. snapshots of an older engine).
+	// Catch up at start-up rather than at the next schedule (e.g. snapshots of an older engine; the
+	// daily reminders when the server was down at their hour, or a fresh demo has never run them).
 	await nudge(queues.reassessPaths);
+	try {
+		if (await dailyRun.owedAt(new Date())) await nudge(queues.mailDaily);
+	} catch (e) {
+		console.error('job queue: could not read the last daily run:', (e as Error).message);
+	}
 	return b;
 }
 

@@ -25,6 +25,7 @@ export const mailKinds = [
 	'password.reset',
 	'incident.eye_exposure',
 	'action.overdue',
+	'finding.overdue',
 	// procedures and authorisations (recordId: the procedure, or the authorisation)
 	'procedure.submitted',
 	'procedure.review',
@@ -247,6 +248,7 @@ async function linksFor(tx: Tx, rows: table.MailOutbox[], appUrl: string): Promi
 		else if (r.kind === 'training.expiring' || r.kind === 'training.expired') out.set(r.id, templates.link(appUrl, 'training'));
 		else if (r.kind === 'incident.eye_exposure') out.set(r.id, templates.link(appUrl, 'incidents', r.recordId));
 		else if (r.kind === 'action.overdue') out.set(r.id, templates.link(appUrl, 'incidents'));
+		else if (r.kind === 'finding.overdue') out.set(r.id, templates.link(appUrl, 'inspections'));
 		else if (r.kind.startsWith('procedure.') || r.kind.startsWith('signoff.')) out.set(r.id, templates.link(appUrl, 'procedures', r.recordId));
 		else if (r.kind.startsWith('authorisation.')) out.set(r.id, templates.link(appUrl, 'authorisations', r.recordId));
 		else if (r.kind === 'notification') {

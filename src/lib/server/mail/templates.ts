@@ -352,6 +352,32 @@ export function actionOverdue(i: ActionOverdueInput): Rendered {
 	});
 }
 
+export type FindingOverdueInput = {
+	appUrl: string;
+	inspectionId: string;
+	area: AreaInfo;
+	description: string;
+	action: string;
+	dueOn: string;
+	daysOverdue: number;
+	reason: string;
+};
+
+export function findingOverdue(i: FindingOverdueInput): Rendered {
+	return render(`Inspection finding overdue by ${plural(i.daysOverdue, 'day')}: ${i.area.name}`, {
+		appUrl: i.appUrl,
+		heading: `A finding of the inspection of ${i.area.name} is overdue`,
+		paragraphs: [
+			`The follow-up of this finding was due on ${longDate(i.dueOn)} and the finding is not closed yet:`,
+			i.description,
+			'Once it is dealt with, a laser safety officer closes it on the inspection page with a word on what was done.'
+		],
+		facts: [...areaFacts(i.area, i.dueOn), ...(i.action ? [['Follow-up', i.action] as Fact] : [])],
+		action: { label: 'Open the inspection', url: link(i.appUrl, 'inspections', i.inspectionId) },
+		reason: i.reason
+	});
+}
+
 // ---------------------------------------------------------------------------------------------
 // Daily digest
 

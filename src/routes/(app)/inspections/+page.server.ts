@@ -23,6 +23,6 @@ export const actions: Actions = {
 		if (!parsed.success) return fail(400, { assignError: parsed.error.issues[0].message });
 		const r = await inspections.assign(scope, parsed.data.inspectionId, parsed.data.inspectorId, parsed.data.version);
 		if (!r.ok) return fail(r.status, { assignError: r.fields ? Object.values(r.fields)[0][0] : r.message, inspectionId: parsed.data.inspectionId });
-		return { assigned: parsed.data.inspectionId };
+		return { assigned: parsed.data.inspectionId, confirmation: `${r.inspectorName} is now the inspector of ${r.areaName}.` };
 	}
 };

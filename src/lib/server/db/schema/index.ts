@@ -10,3 +10,4 @@ export * from './incidents';
 export * from './procedures';
 export * from './authorisations';
 export * from './imports';
+export * from './jobs';

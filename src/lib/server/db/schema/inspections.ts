@@ -75,6 +75,10 @@ export const finding = pgTable(
 		dueOn: date('due_on', { mode: 'string' }),
 		ownerId: text('owner_id').references(() => user.id),
 		closedOn: date('closed_on', { mode: 'string' }),
+		/** Who closed the finding and what was done about it. */
+		closedBy: text('closed_by').references(() => user.id),
+		closureNote: text('closure_note').notNull().default(''),
+		version: integer('version').notNull().default(1),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [index('finding_open_idx').on(t.closedOn, t.dueOn)]

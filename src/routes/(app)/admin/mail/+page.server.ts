@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { requireAbility } from '$lib/server/auth/guard';
 import { listMailbox, readMailboxMessage } from '$lib/server/mail/mailbox';
 import { recentLedger } from '$lib/server/mail/outbox';
+import * as dailyRun from '$lib/server/jobs/dailyRun';
 import type { PageServerLoad } from './$types';
 
 const query = z.object({ page: z.coerce.number().int().min(1).max(10000).catch(1), message: z.string().max(200).optional().catch(undefined) });
@@ -15,7 +16,10 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	if (!box.available) error(404, { message: `The local mailbox is not available: ${box.reason}` });
 	const open = q.message ? await readMailboxMessage(q.message) : null;
 	const ledger = await recentLedger(50);
+	const now = new Date();
+	const last = await dailyRun.lastRun();
 	return {
+		daily: { lastAt: last?.finishedAt.toISOString() ?? null, late: dailyRun.isLate(last?.finishedAt ?? null, now), nextAt: dailyRun.nextScheduled(now).toISOString() },
 		box,
 		message: open && open.available ? open.message : null,
 		ledger: ledger.map((l) => ({ ...l, nextAttemptAt: l.nextAttemptAt.toISOString(), sentAt: l.sentAt?.toISOString() ?? null, createdAt: l.createdAt.toISOString() }))

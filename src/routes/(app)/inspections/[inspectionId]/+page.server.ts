@@ -2,10 +2,10 @@ import { can } from '$lib/abilities';
 import { error, redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { recordInspectionSchema, type RecordInspectionForm } from '$lib/schemas/inspections';
+import { closeFindingSchema, recordInspectionSchema, type RecordInspectionForm } from '$lib/schemas/inspections';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm, formFields, readForm } from '$lib/server/forms';
+import { failForm, formFields, formObject, readForm } from '$lib/server/forms';
 import * as inspections from '$lib/server/inspections';
 import { readUploads } from '$lib/server/uploads';
 import { inspectionState, todayISO } from '$lib/inspectionState';
@@ -21,7 +21,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const start: RecordInspectionForm = {
 		completedOn: todayISO(),
 		templateId: first?.id ?? '',
-		results: (first?.items ?? []).map((i) => ({ itemText: i.text, outcome: 'pass', notes: '' })),
+		results: (first?.items ?? []).map((i) => ({ itemText: i.text, outcome: '', notes: '' })),
 		findings: [],
 		notes: '',
 		version: found.inspection.version
@@ -34,12 +34,13 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		labCode: found.labCode,
 		inspectorName: found.inspectorName,
 		results: found.results,
-		findings: found.findings.map((f) => ({ ...f, createdAt: f.createdAt.toISOString() })),
+		findings: found.findings.map((f) => ({ id: f.id, description: f.description, action: f.action, dueOn: f.dueOn, closedOn: f.closedOn, closedByName: f.closedByName, closureNote: f.closureNote, version: f.version, overdue: !f.closedOn && !!f.dueOn && f.dueOn < today })),
 		photos: found.photos,
 		history: found.history,
 		templates: templates.map((t) => ({ id: t.id, name: t.name, items: t.items.map((i) => i.text) })),
 		form: await superValidate(start, zod4(recordInspectionSchema), { errors: false }),
-		canRecord: can(user, 'recordInspections') && !found.inspection.completedOn
+		canRecord: can(user, 'recordInspections') && !found.inspection.completedOn,
+		canCloseFindings: can(user, 'recordInspections')
 	};
 };
 
@@ -51,6 +52,19 @@ export const actions: Actions = {
 		const r = await inspections.record(scope, params.inspectionId, form.data);
 		if (!r.ok) return failForm(form, r);
 		redirect(303, `/inspections/${params.inspectionId}?next=${r.nextDueOn}`);
+	},
+	closeFinding: async function closeFinding({ locals, request, params }) {
+		const scope = await scopeOf(requireAbility(locals, 'recordInspections'));
+		const body = await formObject(request);
+		const findingId = typeof body?.findingId === 'string' ? body.findingId : '';
+		const parsed = closeFindingSchema.safeParse(body);
+		if (!parsed.success) {
+			const fields = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'form'), i.message]));
+			return fail(400, { closeFinding: { findingId, message: 'Some fields need attention.', fields } });
+		}
+		const r = await inspections.closeFinding(scope, params.inspectionId, parsed.data);
+		if (!r.ok) return fail(r.status, { closeFinding: { findingId, message: r.message, fields: {} as Record<string, string> } });
+		return { findingClosed: r.description };
 	},
 	photos: async function attachPhotos({ locals, request, params }) {
 		const scope = await scopeOf(requireAbility(locals, 'recordInspections'));

@@ -22,6 +22,6 @@ export const actions: Actions = {
 		if (!form.valid) return fail(400, { form });
 		const result = await users.create(admin.id, { ...form.data, password });
 		if (!result.ok) return failForm(form, result);
-		redirect(303, '/admin/users');
+		redirect(303, `/admin/users?created=${encodeURIComponent(result.id)}`);
 	}
 };
