@@ -5,11 +5,13 @@ import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireUser } from '$lib/server/auth/guard';
 import { currentLimits, evaluatePath } from '$lib/server/assessments';
 import { evaluate } from '$lib/server/hazard';
-import { exposureProfile, type Profile } from '$lib/server/profile';
+import { elementPowers, exposureProfile, type ElementPowers, type Profile } from '$lib/server/profile';
 
 export type PreviewResponse = {
 	result: AssessmentResult;
 	profile: Profile | null;
+	/** Each line's power factor after every element, for the editor's rows. */
+	powers: ElementPowers | null;
 	/** Where the limits came from: the library in force now, or the request body. */
 	limitsSource: 'library' | 'request';
 };
@@ -36,5 +38,5 @@ export const POST = endpoint(async ({ locals, request }) => {
 		return apiError(400, 'The assessment cannot be computed from these values.', fields);
 	}
 	const profile = exposureProfile(path, limits, outcome.result);
-	return json({ result: outcome.result, profile, limitsSource: body.data.limits === undefined ? 'library' : 'request' } satisfies PreviewResponse);
+	return json({ result: outcome.result, profile, powers: elementPowers(path, limits), limitsSource: body.data.limits === undefined ? 'library' : 'request' } satisfies PreviewResponse);
 });
