@@ -306,7 +306,6 @@ export interface InputError {
 
 export type Outcome = { ok: true; result: AssessmentResult } | { ok: false; errors: InputError[] };
 
-/** True for a result of this engine generation (2.x); snapshots of older engines have another shape. */
 /** The inputs an accessible point still lacks ('points.1.reflectance', …): a path with any is a draft. */
 export function draftGaps(result: AssessmentResult): string[] {
 	const gaps = new Set<string>();
@@ -314,6 +313,7 @@ export function draftGaps(result: AssessmentResult): string[] {
 	return [...gaps];
 }
 
+/** True for a result of this engine generation (2.x); snapshots of older engines have another shape. */
 export function isCurrentResult(r: unknown): r is AssessmentResult {
 	return typeof r === 'object' && r !== null && Array.isArray((r as AssessmentResult).lines) && typeof (r as AssessmentResult).engineVersion === 'string';
 }
@@ -334,4 +334,22 @@ export type Profile = {
 	unit: string | null;
 	exposureDuration: number | null;
 	samples: ProfileSample[];
+	/**
+	 * Several lines: each line's ratio (its worst check ÷ limit) at every sample, and the sum that
+	 * decides (the largest sum of lines acting alike); null for a path of one line.
+	 */
+	ratios: { lines: { line: number; ratios: (number | null)[] }[]; sum: (number | null)[] } | null;
+};
+
+/** After each element (by its index in the form), the fraction of each line's power that is still there. */
+export type ElementPowers = { element: number; factors: number[] }[];
+
+/** POST /api/assessments/preview answers this. */
+export type PreviewResponse = {
+	result: AssessmentResult;
+	profile: Profile | null;
+	/** Each line's power factor after every element, for the editor's rows. */
+	powers: ElementPowers | null;
+	/** Where the limits came from: the library in force now, or the request body. */
+	limitsSource: 'library' | 'request';
 };

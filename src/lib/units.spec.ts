@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { all, create } from 'mathjs';
-import { DEFAULT_UNIT, QUANTITY_KINDS, UnitDecimal, chooseUnit, formatQuantity, fromUnit, parseQuantity, toUnit, unitsFor, type QuantityKind } from './units';
+import { DEFAULT_UNIT, QUANTITY_KINDS, UnitDecimal, chooseUnit, formatQuantity, fromUnit, parseFraction, parseQuantity, toUnit, unitsFor, type QuantityKind } from './units';
 
 const math = create(all);
 
@@ -163,5 +163,37 @@ describe('formatQuantity and toUnit', () => {
 			}),
 			{ numRuns: 200 }
 		);
+	});
+});
+
+describe('parseFraction: a transmission typed as a fraction, a percentage or an optical density', () => {
+	const value = (t: string) => {
+		const r = parseFraction(t);
+		return r.ok ? r.value.toString() : `refused: ${r.reason}`;
+	};
+	it('reads a plain fraction as it is', () => {
+		expect(value('0.5')).toBe('0.5');
+		expect(value(' 1e-4 ')).toBe('0.0001');
+		expect(value('1')).toBe('1');
+	});
+	it('reads a percentage, with or without a space', () => {
+		expect(value('1 %')).toBe('0.01');
+		expect(value('45%')).toBe('0.45');
+		expect(value('0.1 %')).toBe('0.001');
+	});
+	it('reads an optical density as 10 to the minus OD, exactly', () => {
+		expect(value('OD 2')).toBe('0.01');
+		expect(value('od4')).toBe('0.0001');
+		expect(value('OD 0.3')).toBe(new UnitDecimal(10).pow(-0.3).toString());
+		expect(value('OD 0')).toBe('1');
+	});
+	it('refuses what is none of the three, saying what it takes', () => {
+		for (const t of ['', 'half', '0,5', 'OD', '5 W', '% 3', 'OD 2 %'])
+			expect(value(t)).toMatch(/^refused: /);
+		expect(value('half')).toContain('OD 2');
+	});
+	it('leaves the 0–1 rule to the engine (a reading outside 0–1 is still a reading)', () => {
+		expect(value('150 %')).toBe('1.5');
+		expect(value('OD -1')).toBe('10');
 	});
 });

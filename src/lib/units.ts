@@ -145,6 +145,26 @@ export function parseQuantity(text: string, kind: QuantityKind, opts: { defaultU
 	return { ok: true, value, unit: def.symbol };
 }
 
+/**
+ * A power fraction such as a transmission or a reflectance, typed as a fraction ("0.5"), a percentage
+ * ("1 %") or an optical density ("OD 2", meaning 10⁻²). Reads the number only; whether it lies in
+ * 0–1 is the engine's rule. Never throws.
+ */
+export function parseFraction(text: string): { ok: true; value: Decimal } | { ok: false; reason: string } {
+	if (typeof text !== 'string') return { ok: false, reason: 'Enter a value as text, for example “0.5”, “1 %” or “OD 2”.' };
+	const t = text.trim().replace(/\u2212/g, '-');
+	if (t === '') return { ok: false, reason: 'Enter a value.' };
+	if (t.includes(',')) return { ok: false, reason: 'Use “.” as the decimal separator (for example 0.5).' };
+	const num = '([+-]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?)';
+	const od = new RegExp(`^OD\\s*${num}$`, 'i').exec(t);
+	if (od) return { ok: true, value: new UnitDecimal(10).pow(new UnitDecimal(od[1]).neg()) };
+	const percent = new RegExp(`^${num}\\s*%$`).exec(t);
+	if (percent) return { ok: true, value: new UnitDecimal(percent[1]).div(100) };
+	const plain = new RegExp(`^${num}$`).exec(t);
+	if (plain) return { ok: true, value: new UnitDecimal(plain[1]) };
+	return { ok: false, reason: 'Enter a fraction from 0 to 1 (0.5), a percentage (1 %) or an optical density (OD 2).' };
+}
+
 function requireUnit(unit: string, kind?: QuantityKind): UnitDef {
 	const kinds = kind ? [kind] : QUANTITY_KINDS;
 	for (const k of kinds) {

@@ -2,7 +2,7 @@
 // ("5 W", "5000 mW", "532 nm") and kept as text in the form; toSI() turns them into SI decimal
 // strings for the engine and the database, naming the field when one does not parse.
 import { z } from 'zod';
-import { parseQuantity, type QuantityKind } from '../units';
+import { parseFraction, parseQuantity, type QuantityKind } from '../units';
 import { beamDefinitions, beamProfiles, elementKinds, emissionModes, laserClasses, laserStatuses, pointKinds, tissues, type ElementKind } from '../enums';
 import type { ElementSI, LineColumns, PointSI } from './assessment';
 
@@ -28,6 +28,14 @@ const plainNumber = z
 	.max(32)
 	.default('')
 	.refine((t) => t === '' || /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t), 'Enter a plain number, like 0.5 or 2.');
+
+/** A transmission or reflectance: a fraction, a percentage or an optical density ('0.5', '1 %', 'OD 2'). */
+const fraction = z
+	.string()
+	.trim()
+	.max(32)
+	.default('')
+	.refine((t) => t === '' || parseFraction(t).ok, 'Enter a fraction from 0 to 1 (0.5), a percentage (1 %) or an optical density (OD 2).');
 
 const requiredText = (what: string, max = 200) => z.string().trim().min(1, `Enter ${what}.`).max(max, `At most ${max} characters.`);
 
@@ -93,7 +101,7 @@ export const bandFormSchema = z
 	.object({
 		wavelengthMin: quantity('wavelength'),
 		wavelengthMax: quantity('wavelength'),
-		transmission: plainNumber
+		transmission: fraction
 	})
 	.strict();
 
@@ -102,13 +110,13 @@ export const elementFormSchema = z
 		kind: z.enum(elementKinds, { error: 'Choose an element kind.' }),
 		label: z.string().trim().max(120).default(''),
 		length: quantity('length', { defaultUnit: 'm' }),
-		transmission: plainNumber,
-		reflectance: plainNumber,
+		transmission: fraction,
+		reflectance: fraction,
 		magnification: plainNumber,
 		focalLength: quantity('length', { defaultUnit: 'mm' }),
 		coreDiameter: quantity('length', { defaultUnit: 'µm' }),
 		numericalAperture: plainNumber,
-		couplingTransmission: plainNumber,
+		couplingTransmission: fraction,
 		/** Transmission elements and mirrors: what they pass on per wavelength band (a dichroic, a harmonic separator). */
 		bands: z.array(bandFormSchema).max(20, 'At most 20 bands.').default([])
 	})
@@ -153,26 +161,35 @@ export type PathForm = z.infer<typeof pathFormSchema>;
 export type NewLaserForm = z.infer<typeof newLaserSchema>;
 
 /** The fields an element kind needs, with the unit kind each is read in (null = plain number). */
-export const elementFieldsByKind: Record<ElementKind, { field: keyof ElementForm; unit: QuantityKind | null; optional?: boolean; defaultUnit?: string }[]> = {
+/** `fraction`: a power factor typed as 0.5, 1 % or OD 2 (see parseFraction). */
+export const elementFieldsByKind: Record<ElementKind, { field: keyof ElementForm; unit: QuantityKind | null; optional?: boolean; defaultUnit?: string; fraction?: true }[]> = {
 	propagate: [{ field: 'length', unit: 'length', defaultUnit: 'm' }],
 	enclosure: [{ field: 'length', unit: 'length', defaultUnit: 'm' }],
-	transmission: [{ field: 'transmission', unit: null }],
-	mirror: [{ field: 'reflectance', unit: null, optional: true }],
+	transmission: [{ field: 'transmission', unit: null, fraction: true }],
+	mirror: [{ field: 'reflectance', unit: null, optional: true, fraction: true }],
 	expander: [{ field: 'magnification', unit: null }],
 	lens: [{ field: 'focalLength', unit: 'length', defaultUnit: 'mm' }],
 	fibre: [
 		{ field: 'coreDiameter', unit: 'length', defaultUnit: 'µm' },
 		{ field: 'numericalAperture', unit: null },
-		{ field: 'couplingTransmission', unit: null, optional: true }
+		{ field: 'couplingTransmission', unit: null, optional: true, fraction: true }
 	]
 };
 
 export type FieldErrors = Record<string, string>;
 
 /** Text with a unit → SI decimal string; '' → null. Records a message under `path` when it does not parse. */
-export function toSI(text: string, kind: QuantityKind | null, path: string, errors: FieldErrors, defaultUnit?: string): string | null {
+export function toSI(text: string, kind: QuantityKind | null | 'fraction', path: string, errors: FieldErrors, defaultUnit?: string): string | null {
 	const t = text.trim();
 	if (t === '') return null;
+	if (kind === 'fraction') {
+		const f = parseFraction(t);
+		if (!f.ok) {
+			errors[path] = f.reason;
+			return null;
+		}
+		return f.value.toString();
+	}
 	if (kind === null) {
 		if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) {
 			errors[path] = 'Enter a plain number, like 0.5 or 2.';
@@ -256,14 +273,14 @@ export function pathToSI(form: Pick<PathForm, 'elements' | 'points' | 'nohdExpos
 		const out: ElementSI = { kind: e.kind, label: e.label, ...NO_ELEMENT_VALUES };
 		for (const spec of elementFieldsByKind[e.kind]) {
 			const path = `elements.${i}.${spec.field}`;
-			const v = toSI(e[spec.field] as string, spec.unit, path, errors, spec.defaultUnit);
+			const v = toSI(e[spec.field] as string, spec.fraction ? 'fraction' : spec.unit, path, errors, spec.defaultUnit);
 			if (v === null && !spec.optional && !errors[path]) errors[path] = 'Needed for this element.';
 			(out as Record<string, unknown>)[spec.field] = v;
 		}
 		if (bandedKinds.includes(e.kind) && e.bands.length) {
 			out.bands = e.bands.map((b, j) => {
 				const at = (f: string) => `elements.${i}.bands.${j}.${f}`;
-				const band = { wavelengthMin: toSI(b.wavelengthMin, 'wavelength', at('wavelengthMin'), errors), wavelengthMax: toSI(b.wavelengthMax, 'wavelength', at('wavelengthMax'), errors), transmission: toSI(b.transmission, null, at('transmission'), errors) };
+				const band = { wavelengthMin: toSI(b.wavelengthMin, 'wavelength', at('wavelengthMin'), errors), wavelengthMax: toSI(b.wavelengthMax, 'wavelength', at('wavelengthMax'), errors), transmission: toSI(b.transmission, 'fraction', at('transmission'), errors) };
 				for (const [f, v] of Object.entries(band)) if (v === null && !errors[at(f)]) errors[at(f)] = 'Needed for the band.';
 				return band as { wavelengthMin: string; wavelengthMax: string; transmission: string };
 			});

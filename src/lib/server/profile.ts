@@ -1,9 +1,31 @@
 // Exposure along the path for the plot: the engine evaluated at evenly spaced positions, with the
 // same path and limits as the assessment (eye, intrabeam, at the hazard-distance duration, or at the
 // first eye point's duration when that is not given). Pure: no database.
-import type { AssessmentResult, Profile, ProfileSample } from '$lib/assessmentResult';
+import type { AssessmentResult, ElementPowers, Profile, ProfileSample } from '$lib/assessmentResult';
 import type { BeamPath, LimitSI } from '$lib/schemas/assessment';
 import { evaluate } from '$lib/server/hazard';
+import { variantsOf } from '$lib/server/hazard/tuning';
+import { validate } from '$lib/server/hazard/validate';
+import { walkPath } from '$lib/server/hazard/walk';
+
+/**
+ * The power factor of every line after every element, from the engine's own walk (bands included).
+ * A tunable line takes the largest factor over the wavelengths it is assessed at (never understated).
+ */
+export function elementPowers(path: BeamPath, limits: LimitSI[]): ElementPowers | null {
+	const v = validate(path, limits);
+	if (!v.ok) return null;
+	const variants = variantsOf(v.path.lines, v.limits, v.path.elements);
+	const walk = walkPath(variants, v.path.elements, v.path.length);
+	const factorsOf = (transmission: number[]) =>
+		v.path.lines.map((_, i) => Math.max(...transmission.filter((_, k) => variants[k].index === i)));
+	let current = factorsOf(walk.origins[0].transmission);
+	return v.path.elements.map((e) => {
+		const origin = walk.origins.find((o) => o.afterElement === e.index);
+		if (origin) current = factorsOf(origin.transmission);
+		return { element: e.index, factors: current };
+	});
+}
 
 const SAMPLES = 80;
 
@@ -40,5 +62,12 @@ export function exposureProfile(path: BeamPath, limits: LimitSI[], result: Asses
 		return { position: positions[i], exposure: raw, limit: null, accessible: pt.accessible };
 	});
 	const anyLimit = samples.some((s) => s.limit !== null);
-	return { check: anyLimit ? check : null, checkLabel: anyLimit ? (ranked[0]?.label ?? '') : 'No applicable limit: exposure only', unit, exposureDuration: T === null ? null : Number(T), samples };
+	const ratios =
+		path.lines.length > 1
+			? {
+					lines: path.lines.map((_, i) => ({ line: i, ratios: outcome.result.points.map((pt) => pt.lines.find((l) => l.line === i)?.worstRatio ?? null) })),
+					sum: outcome.result.points.map((pt) => pt.worstRatio)
+				}
+			: null;
+	return { check: anyLimit ? check : null, checkLabel: anyLimit ? (ranked[0]?.label ?? '') : 'No applicable limit: exposure only', unit, exposureDuration: T === null ? null : Number(T), samples, ratios };
 }

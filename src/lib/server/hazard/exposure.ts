@@ -25,6 +25,14 @@ import { hazardDistance } from './distances';
 import { exceeds, limitRef, nm, sig, VERDICT_RANK, worse, type Context } from './context';
 import { Working, type In } from './working';
 import { enclosureAt, originsAt, type Origin, type Walk } from './walk';
+import { pointFieldWords } from '$lib/pathFieldWords';
+
+/** 'points.1.reflectance' → 'the reflectance ρ (0–1)': the form's own label, within the point's message. */
+function pointFieldLabel(key: string): string {
+	const field = key.split('.').pop() ?? key;
+	const words = pointFieldWords[field] ?? field;
+	return `the ${words.charAt(0).toLowerCase()}${words.slice(1)}`;
+}
 import type { NormLimit, NormLine, NormPath, NormPoint } from './validate';
 
 interface LineEval {
@@ -107,7 +115,7 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 	for (const plan of ctx.plans[li].for(T)) {
 		const missing = planMissesT(plan) ? [`points.${point.index}.exposureDuration`, ...missingPoint] : missingPoint;
 		if (missing.length > 0) {
-			checks.push({ kind: plan.kind, label: plan.label, duration: plan.t, verdict: 'incomplete', reason: `Needs ${missing.map((m) => m.split('.').pop()).join(', ')}.`, ratio: null, decidingLimit: null, comparisons: [], missing: [...missing] });
+			checks.push({ kind: plan.kind, label: plan.label, duration: plan.t, verdict: 'incomplete', reason: `Needs ${missing.map(pointFieldLabel).join(', ')}.`, ratio: null, decidingLimit: null, comparisons: [], missing: [...missing] });
 			verdict = worse(verdict, 'incomplete');
 			continue;
 		}
@@ -484,7 +492,7 @@ const subscriptOf = (n: number) => String(n).replace(/\d/g, (d) => SUBSCRIPT_DIG
 function diffuseDistance(point: NormPoint, sum: number | null, perLine: (LineEval | null)[], missingChecks: CheckKind[], missingPoint: string[], w: Working): DiffuseDistance {
 	const lacking = missingChecks.length ? ` No limit (or no pulse-train rule) for the ${missingChecks.map((k) => k.replace('_', ' ')).join(', ')} check: the distance may be understated.` : '';
 	const none = { distance: null, decidingLimit: null, decidingCheck: null, decidingLine: null, missingChecks };
-	if (missingPoint.length) return { ...none, status: 'incomplete', reason: `Needs the ${missingPoint.map((m) => m.split('.').pop()).join(' and ')} of the reflection.` };
+	if (missingPoint.length) return { ...none, status: 'incomplete', reason: `Needs ${missingPoint.map(pointFieldLabel).join(' and ')} of the reflection.` };
 	if (sum === null) return { ...none, status: 'no_applicable_limit', reason: 'No entered limit applies to this reflection: no hazard distance can be given. Not shown as safe.' };
 	const r = point.viewingDistance! * Math.sqrt(sum);
 	// The line and limit that weigh most.

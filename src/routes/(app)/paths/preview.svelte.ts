@@ -2,7 +2,7 @@
 // asked again; an answer to an older request is never shown over a newer one.
 import { lineFromRow, type LineColumns, type PreviewRequest } from '$lib/schemas/assessment';
 import { pathToSI, type FieldErrors, type PathForm } from '$lib/schemas/register';
-import type { PreviewResponse } from '../../api/assessments/preview/+server';
+import type { PreviewResponse } from '$lib/assessmentResult';
 
 type BodyOutcome = { ok: true; body: PreviewRequest } | { ok: false; kind: 'unfinished'; errors: FieldErrors } | { ok: false; kind: 'line'; message: string };
 

@@ -5,15 +5,8 @@ import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireUser } from '$lib/server/auth/guard';
 import { currentLimits, evaluatePath } from '$lib/server/assessments';
 import { evaluate } from '$lib/server/hazard';
-import { exposureProfile } from '$lib/server/profile';
-import type { Profile } from '$lib/assessmentResult';
-
-export type PreviewResponse = {
-	result: AssessmentResult;
-	profile: Profile | null;
-	/** Where the limits came from: the library in force now, or the request body. */
-	limitsSource: 'library' | 'request';
-};
+import { elementPowers, exposureProfile } from '$lib/server/profile';
+import type { PreviewResponse } from '$lib/assessmentResult';
 
 /** Assess without saving: the editor calls this while the researcher types. */
 export const POST = endpoint(async ({ locals, request }) => {
@@ -37,5 +30,5 @@ export const POST = endpoint(async ({ locals, request }) => {
 		return apiError(400, 'The assessment cannot be computed from these values.', fields);
 	}
 	const profile = exposureProfile(path, limits, outcome.result);
-	return json({ result: outcome.result, profile, limitsSource: body.data.limits === undefined ? 'library' : 'request' } satisfies PreviewResponse);
+	return json({ result: outcome.result, profile, powers: elementPowers(path, limits), limitsSource: body.data.limits === undefined ? 'library' : 'request' } satisfies PreviewResponse);
 });
