@@ -113,3 +113,13 @@ export const authorisationWords: Record<string, StateWord> = {
 };
 
 export const visitorKindWords: Record<string, string> = { visitor: 'Visitor', contractor: 'Contractor' };
+
+/** The door posting of a laser controlled area. */
+export const postingWords = {
+	heading: 'Laser controlled area',
+	entry: 'Authorised people only. Wear the eyewear posted here when the lasers are on.',
+	emergency:
+		'In an emergency: switch the lasers off (key switch or emergency stop), keep everyone out, and call the laser safety officer. After a suspected eye exposure, do not rub the eye, do not look at a bright light to test it, and get medical help at once.',
+	notAssessed: 'not determined — ask the laser safety officer',
+	caution: 'Eyewear figures are computed from the data entered in Beamwarden and do not replace measurement; the laser safety officer decides.'
+};

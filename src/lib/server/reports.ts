@@ -140,3 +140,20 @@ export async function find(scope: Scope, pathId: string, snapshotId: string): Pr
 function isInputs(v: unknown): v is SnapshotInputs {
 	return typeof v === 'object' && v !== null && typeof (v as SnapshotInputs).path === 'object' && Array.isArray((v as SnapshotInputs).limits);
 }
+
+/** For the path page: the beam outline of the latest snapshot (for the zone drawing) and the snapshots with a report. */
+export async function pathPictures(pathId: string): Promise<{ beam: BeamSample[] | null; snapshots: { id: string; createdAt: string; verdict: string }[] }> {
+	const list = await snapshotsOf(pathId);
+	let beam: BeamSample[] | null = null;
+	if (list.length) {
+		const [latest] = await db.select({ inputs: table.assessment.inputs, result: table.assessment.result }).from(table.assessment).where(eq(table.assessment.id, list[0].id));
+		if (latest && isCurrentResult(latest.result) && isInputs(latest.inputs)) {
+			try {
+				beam = beamEnvelope(latest.inputs.path, latest.inputs.limits, latest.result.pathLength, latest.result.hazardDistances.map((d) => d.origin));
+			} catch {
+				beam = null;
+			}
+		}
+	}
+	return { beam, snapshots: list.map((s) => ({ id: s.id, createdAt: s.createdAt.toISOString(), verdict: s.verdict })) };
+}
