@@ -7,7 +7,7 @@
 // stretch the engine found over the limit is hazardous throughout even if no distance was found.
 import type { AssessmentResult, DiffuseDistance, HazardDistance } from '$lib/assessmentResult';
 import { ink, niceTicks, tickLabel, type Drawing, type Shape } from '$lib/drawing';
-import { elementWords } from '$lib/words';
+import { elementShortWords } from '$lib/words';
 
 export type SpanKind = 'hazard' | 'unknown';
 /** A stretch of the path (from, to in m along it) where the beam is hazardous or not known to be safe. */
@@ -191,7 +191,7 @@ export function zoneDrawing(zone: HazardZone): Drawing {
 	// Elements and points along the path.
 	for (const e of zone.elements) {
 		shapes.push({ t: 'line', x1: X(e.position), y1: TOP + plotH / 2 - 22, x2: X(e.position), y2: TOP + plotH / 2 + 22, stroke: ink.ink, width: 2 });
-		shapes.push({ t: 'text', x: X(e.position), y: TOP + plotH / 2 - 26, text: `${e.index + 1} ${(elementWords[e.kind] ?? e.kind).split(' ')[0].toLowerCase()}`, size: 10, anchor: 'middle', fill: ink.ink });
+		shapes.push({ t: 'text', x: X(e.position), y: TOP + plotH / 2 - 26, text: `${e.index + 1}. ${elementShortWords[e.kind] ?? e.kind}`, size: 10, anchor: 'middle', fill: ink.ink });
 	}
 	zone.points.forEach((p, i) => {
 		const x = X(p.position);

@@ -2,7 +2,7 @@
 // (its elements in order, not to scale) and the exposure along the path against the limit.
 import type { HazardDistance } from '$lib/assessmentResult';
 import { ink, niceTicks, tickLabel, type Drawing, type Shape } from '$lib/drawing';
-import { elementWords } from '$lib/words';
+import { elementShortWords as shortKind, elementWords } from '$lib/words';
 
 /** The plot's data (server/profile.ts makes it), as plain data the browser may hold. */
 export type PlotData = {
@@ -15,7 +15,6 @@ export type PlotData = {
 /** An element of the stored path: its kind, label and length (SI decimal text, null when it has none). */
 export type SchematicElement = { kind: string; label: string; length: string | null };
 
-const shortKind: Record<string, string> = { propagate: 'free space', transmission: 'window / filter', mirror: 'mirror', expander: 'expander', lens: 'lens', fibre: 'fibre', enclosure: 'enclosure' };
 const metres = (v: string | null) => (v === null ? '' : `${Number(Number(v).toPrecision(3))} m`);
 
 /** The path from the aperture to its end, one box per element, rows of six. */

@@ -123,3 +123,6 @@ export const postingWords = {
 	notAssessed: 'not determined — ask the laser safety officer',
 	caution: 'Eyewear figures are computed from the data entered in Beamwarden and do not replace measurement; the laser safety officer decides.'
 };
+
+/** Element kinds in a word or two, for labels inside drawings. */
+export const elementShortWords: Record<string, string> = { propagate: 'free space', transmission: 'window / filter', mirror: 'mirror', expander: 'expander', lens: 'lens', fibre: 'fibre', enclosure: 'enclosure' };

@@ -58,6 +58,7 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 	const [spxArea] = await sql`SELECT a.id FROM area a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
 	const [spxProcedure] = await sql`SELECT p.id FROM procedure p JOIN lab l ON l.id = p.lab_id WHERE l.code = 'SPX' LIMIT 1`;
 	const [spxAuthorisation] = await sql`SELECT a.id FROM authorisation a JOIN lab l ON l.id = a.lab_id WHERE l.code = 'SPX' LIMIT 1`;
+	const [snapshot] = await sql`SELECT id FROM assessment WHERE path_id = ${laser.paths[0].id} ORDER BY created_at DESC LIMIT 1`;
 	await sql.end();
 	return {
 		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
@@ -72,6 +73,7 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 		areaId: spxArea.id,
 		procedureId: spxProcedure.id,
 		authorisationId: spxAuthorisation.id,
+		snapshotId: snapshot.id,
 		token: 'not-a-real-token'
 	};
 }
