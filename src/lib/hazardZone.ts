@@ -30,6 +30,12 @@ export type HazardZone = {
 };
 
 const m = (v: number) => `${Number(v.toPrecision(3))} m`;
+/** A distance that bounds a zone, rounded up to 3 figures (as the screens write the NOHD). */
+const mUp = (v: number) => {
+	if (!(v > 0)) return m(v);
+	const unit = 10 ** (Math.floor(Math.log10(v)) - 2);
+	return `${Number((Math.ceil(v / unit - 1e-9) * unit).toPrecision(3))} m`;
+};
 
 /** Where a beam's hazard ends along the path: a position, Infinity (unbounded) or null (not known). */
 export function hazardEnd(d: HazardDistance): { end: number | null; atLeast: boolean } {
@@ -109,9 +115,9 @@ export function hazardZone(result: AssessmentResult, samples: BeamSample[] | nul
 	for (const s of spans.filter((x) => x.kind === 'unknown'))
 		notes.push(`From ${m(s.from)} to ${m(s.to)} the hazard zone is not known (${s.why}) — this is not a sign of safety; ask the laser safety officer.`);
 	if (spans.some((s) => s.kind === 'hazard' && s.why.includes('unbounded'))) notes.push('A beam that does not spread stays hazardous to the end of its stretch and beyond: it must be stopped.');
-	if (beyondEnd !== null) notes.push(`The eye hazard distance reaches ${m(beyondEnd)} along the path, beyond its end at ${m(result.pathLength)}: the beam must end on a stop or be enclosed there.`);
+	if (beyondEnd !== null) notes.push(`The eye hazard distance reaches ${mUp(beyondEnd)} along the path, beyond its end at ${m(result.pathLength)}: the beam must end on a stop or be enclosed there.`);
 	for (const d of diffuse.filter((x) => x.kind === 'unknown')) notes.push(`Diffuse reflection at “${d.label}”: its hazard radius is not known (${d.why}) — this is not a sign of safety.`);
-	for (const d of diffuse.filter((x) => x.kind === 'hazard' && x.why.startsWith('at least'))) notes.push(`Diffuse reflection at “${d.label}”: at least ${m(d.radius!)} (a check has no limit, so it may be larger).`);
+	for (const d of diffuse.filter((x) => x.kind === 'hazard' && x.why.startsWith('at least'))) notes.push(`Diffuse reflection at “${d.label}”: at least ${mUp(d.radius!)} (a check has no limit, so it may be larger).`);
 	if (result.pathLength <= 0) notes.push('The path has no length to draw along.');
 	return { length: result.pathLength, spans, diffuse, beam: beamOf(result, samples), enclosures, elements, points, beyondEnd, notes };
 }
@@ -218,7 +224,7 @@ export function zoneDrawing(zone: HazardZone): Drawing {
 	const hazardText = zone.spans.filter((s) => s.kind === 'hazard').map((s) => `${m(s.from)}–${m(s.to)}${s.enclosed ? ' (enclosed)' : ''}`);
 	const description =
 		(hazardText.length ? `Nominal hazard zone along the beam: ${hazardText.join(', ')}.` : 'No stretch of the beam is shown as hazardous.') +
-		zone.diffuse.filter((d) => d.kind === 'hazard').map((d) => ` Diffuse hazard radius ${m(d.radius!)} around “${d.label}”.`).join('') +
+		zone.diffuse.filter((d) => d.kind === 'hazard').map((d) => ` Diffuse hazard radius ${mUp(d.radius!)} around “${d.label}”.`).join('') +
 		(zone.notes.length ? ' ' + zone.notes.join(' ') : '') +
 		` Where the beam and its zone would be too thin to see, they are drawn wider than to scale.${stretchNote}`;
 	return { width: W, height: H, shapes, title: 'Hazard zone, top view', description };
