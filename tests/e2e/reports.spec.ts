@@ -1,7 +1,7 @@
 // Records to print: the hazard zone on a demo path, its evaluation report (printed by Chromium on
 // A4 and US Letter: no table row cut, nothing wider than the page), the PDF download, and an area's
 // door posting. Screenshots go to test-results/print-records/.
-import { readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import postgres from 'postgres';
 import { getDocument } from 'pdfjs-dist/legacy/build/pdf.mjs';
@@ -55,10 +55,13 @@ test('an officer sees the hazard zone of a demo path, opens its report, download
 	expect(checksum).toMatch(/^([0-9a-f]{8} ){7}[0-9a-f]{8}$/);
 	await expect(page.getByRole('navigation')).toHaveCount(1); // the report's own links only: no app chrome
 	await expectAccessible(page);
+	await page.screenshot({ path: `${shots}/evaluation-report.png`, fullPage: true });
 
 	const [download] = await Promise.all([page.waitForEvent('download'), report.getByTestId('pdf-a4').click()]);
 	expect(download.suggestedFilename()).toMatch(/^hazard-evaluation-.*\.pdf$/);
 	const pdf = readFileSync((await download.path())!);
+	mkdirSync(shots, { recursive: true });
+	writeFileSync(`${shots}/evaluation-server.pdf`, pdf);
 	expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
 	const text = (await pdfPages(new Uint8Array(pdf))).join(' ');
 	const verdict = norm(await report.getByTestId('headline').locator('dd').first().innerText());
@@ -118,7 +121,10 @@ for (const format of ['A4', 'Letter'] as const) {
 
 		// Printed by Chromium: each row's cells are all found on one page (a cut row splits them).
 		const rows = (await page.locator('main tbody tr').evaluateAll((trs) => trs.map((tr) => [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '')))).map((cells) => cells.map(norm).filter(Boolean));
-		const pages = await pdfPages(new Uint8Array(await page.pdf({ format, printBackground: true })));
+		const printed = await page.pdf({ format, printBackground: true });
+		mkdirSync(shots, { recursive: true });
+		writeFileSync(`${shots}/evaluation-printed-${format}.pdf`, printed);
+		const pages = await pdfPages(new Uint8Array(printed));
 		expect(pages.length).toBeGreaterThan(1);
 		const cut = rows.filter((cells) => !pages.some((p) => cells.every((c) => p.includes(c))));
 		expect(cut).toEqual([]);
