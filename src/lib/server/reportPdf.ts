@@ -129,23 +129,27 @@ class ReportWriter {
 	}
 
 	/** A table whose rows never break across pages: the header repeats on a new page. */
-	private table(head: string[], rows: string[][], widths: number[], size = 9) {
+	private table(head: string[], rows: (string[] | { span: string })[], widths: number[], size = 9) {
 		const { doc } = this;
 		const total = widths.reduce((a, b) => a + b, 0);
 		const cols = widths.map((w) => (w / total) * this.width);
 		const pad = 3;
-		const drawRow = (cells: string[], bold: boolean) => {
-			const h = Math.max(...cells.map((c, i) => this.heightOf(c, { width: cols[i] - pad * 2, size, bold }))) + pad * 2;
+		const drawRow = (row: string[] | { span: string }, bold: boolean) => {
+			// A spanning row (a line's exposure under its point) is written across the whole table.
+			const spanning = !Array.isArray(row);
+			const cells = spanning ? [row.span] : row;
+			const widthsOf = spanning ? [this.width - 14] : cols;
+			const h = Math.max(...cells.map((c, i) => this.heightOf(c, { width: widthsOf[i] - pad * 2, size, bold }))) + pad * 2;
 			if (doc.y + h > this.bottom) {
 				doc.addPage();
 				if (!bold) drawRow(head, true);
 			}
 			const y = doc.y;
-			let x = MARGIN;
+			let x = spanning ? MARGIN + 14 : MARGIN;
 			if (bold) doc.rect(MARGIN, y, this.width, h).fill('#ece8df');
 			cells.forEach((c, i) => {
-				this.text(c, { x: x + pad, y: y + pad, width: cols[i] - pad * 2, size, bold });
-				x += cols[i];
+				this.text(c, { x: x + pad, y: y + pad, width: widthsOf[i] - pad * 2, size, bold, color: spanning ? '#3f4a50' : undefined });
+				x += widthsOf[i];
 			});
 			doc.moveTo(MARGIN, y + h).lineTo(MARGIN + this.width, y + h).lineWidth(0.5).strokeColor('#cfd6d9').stroke();
 			doc.y = y + h;
@@ -241,8 +245,7 @@ class ReportWriter {
 			else this.para('No plot: the exposure could not be sampled along this path.', { size: 9 });
 
 			this.heading('Points of concern and results');
-			const rows = r.points.flatMap((p) => [pointRow(p), ...p.lines.map((l) => ['', exposureLine(r, l), '', '', '', ''])]);
-			// Line rows span the table: written into the second column, the others empty.
+			const rows = r.points.flatMap((p) => [pointRow(p), ...p.lines.map((l) => ({ span: exposureLine(r, l) }))]);
 			this.table(pointHead, rows, [26, 12, 12, 16, 12, 12]);
 			for (const p of r.points) {
 				this.ensure(60);
