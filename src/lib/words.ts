@@ -116,3 +116,16 @@ export const authorisationWords: Record<string, StateWord> = {
 };
 
 export const visitorKindWords: Record<string, string> = { visitor: 'Visitor', contractor: 'Contractor' };
+
+/** The door posting of a laser controlled area. */
+export const postingWords = {
+	heading: 'Laser controlled area',
+	entry: 'Authorised people only. Wear the eyewear posted here when the lasers are on.',
+	emergency:
+		'In an emergency: switch the lasers off (key switch or emergency stop), keep everyone out, and call the laser safety officer. After a suspected eye exposure, do not rub the eye, do not look at a bright light to test it, and get medical help at once.',
+	notAssessed: 'not determined — ask the laser safety officer',
+	caution: 'Eyewear figures are computed from the data entered in Beamwarden and do not replace measurement; the laser safety officer decides.'
+};
+
+/** Element kinds in a word or two, for labels inside drawings. */
+export const elementShortWords: Record<string, string> = { propagate: 'free space', transmission: 'window / filter', mirror: 'mirror', expander: 'expander', lens: 'lens', fibre: 'fibre', enclosure: 'enclosure' };

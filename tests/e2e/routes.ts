@@ -62,6 +62,7 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 	const [limitImport] = await sql`SELECT id FROM limit_import ORDER BY created_at LIMIT 1`;
 	// A register import, when a test has made one (else an unknown id: the route answers 404 to officers).
 	const [registerImport] = await sql`SELECT id FROM register_import ORDER BY created_at LIMIT 1`;
+	const [snapshot] = await sql`SELECT id FROM assessment WHERE path_id = ${laser.paths[0].id} ORDER BY created_at DESC LIMIT 1`;
 	await sql.end();
 	return {
 		userId: list.users.find((u) => u.email === demo('researcher').email)!.id,
@@ -78,6 +79,7 @@ export async function sampleIds(admin: APIRequestContext): Promise<Record<string
 		authorisationId: spxAuthorisation.id,
 		importId: limitImport?.id ?? '00000000-0000-4000-8000-000000000000',
 		registerImportId: registerImport?.id ?? '00000000-0000-4000-8000-000000000017',
+		snapshotId: snapshot.id,
 		token: 'not-a-real-token'
 	};
 }

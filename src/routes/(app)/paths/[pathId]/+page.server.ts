@@ -6,10 +6,15 @@ import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import { loadPath, savePath } from '$lib/server/pathForms';
+import * as reports from '$lib/server/reports';
 import * as reviews from '$lib/server/reviews';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = ({ locals, params }) => loadPath(locals, params.pathId);
+export const load: PageServerLoad = async ({ locals, params }) => {
+	const page = await loadPath(locals, params.pathId);
+	// The hazard zone drawing and the report links, beside the editor.
+	return { ...page, pictures: await reports.pathPictures(params.pathId) };
+};
 
 export const actions: Actions = {
 	save: async function savePathChanges({ locals, request, params }) {
