@@ -15,6 +15,7 @@ import * as reviews from '$lib/server/reviews';
 import { replySchema } from '$lib/schemas/reviews';
 import { orError } from '$lib/server/pages';
 import type { AssessmentResult } from '$lib/assessmentResult';
+import type { EditorData } from '$lib/components/path-editor/editorData';
 import type { LineColumns } from '$lib/schemas/assessment';
 import { formatQuantity, type QuantityKind } from '$lib/units';
 
@@ -69,7 +70,7 @@ export async function loadNewPath(locals: App.Locals, laserId: string) {
 		editable: true,
 		latest: null,
 		history: []
-	};
+	} satisfies EditorData;
 }
 
 /** A stored path as the editor's form values: SI numbers written back with their units. */
@@ -133,7 +134,7 @@ export async function loadPath(locals: App.Locals, pathId: string) {
 		// Where the path stands with the officer: the researcher reads the decision here.
 		review: await reviews.record(p, editable),
 		replyForm: await superValidate(zod4(replySchema), { id: 'reply' })
-	};
+	} satisfies EditorData;
 }
 
 export async function savePath(locals: App.Locals, request: Request, laserId: string | null, pathId: string | null) {

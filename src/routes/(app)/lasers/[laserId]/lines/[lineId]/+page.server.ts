@@ -1,4 +1,4 @@
-import { loadLineForm, saveLineForm } from '../lineForm.server';
+import { loadLineForm, saveLineForm } from '$lib/server/lineForms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, params }) => loadLineForm(locals, params.laserId, params.lineId);
