@@ -32,3 +32,11 @@ export type Verdict = (typeof verdicts)[number];
 export type LimitQuantity = (typeof limitQuantities)[number];
 export type PulseBasis = (typeof pulseBases)[number];
 export type WavelengthFactorKind = (typeof wavelengthFactorKinds)[number];
+
+// Reviews, eyewear, inspections and mail (each list also feeds a pgEnum or a text column's check).
+export const reviewStates = ['not_needed', 'awaiting_review', 'cleared', 'returned'] as const;
+export const decisionKinds = ['cleared', 'returned'] as const;
+export const controlKinds = ['eyewear', 'enclosure', 'interlock', 'signage', 'beam_stop', 'procedure', 'training', 'other'] as const;
+export const eyewearConditions = ['good', 'worn', 'damaged'] as const;
+export const checkOutcomes = ['pass', 'fail', 'not_applicable'] as const;
+export const mailModes = ['immediate', 'digest'] as const;

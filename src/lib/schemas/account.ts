@@ -1,5 +1,6 @@
 import type { Role } from '$lib/roles';
 import { z } from 'zod';
+import { mailModes } from '$lib/enums';
 
 export const resetRequestSchema = z
 	.object({ email: z.string().trim().min(1, 'Enter your e-mail address.').max(254).pipe(z.email({ error: 'Enter an e-mail address like name@example.org.' })) })
@@ -13,7 +14,7 @@ export const newPasswordSchema = z
 	.strict()
 	.refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ.' });
 
-export const preferencesSchema = z.object({ mailMode: z.enum(['immediate', 'digest'], { error: 'Choose immediate mails or a daily digest.' }) }).strict();
+export const preferencesSchema = z.object({ mailMode: z.enum(mailModes, { error: 'Choose immediate mails or a daily digest.' }) }).strict();
 
 /** GET /api/me: who is signed in and when the session ends. */
 export type MeResponse = {

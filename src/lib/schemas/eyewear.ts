@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
 import { parseQuantity } from '$lib/units';
+import { eyewearConditions } from '$lib/enums';
 
-export const eyewearConditions = ['good', 'worn', 'damaged'] as const;
 
 const wavelength = (what: string) =>
 	z

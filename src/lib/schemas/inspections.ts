@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
+import { checkOutcomes } from '$lib/enums';
 
 const isoDate = (what: string) =>
 	z
@@ -7,7 +8,6 @@ const isoDate = (what: string) =>
 		.trim()
 		.refine(isCalendarDay, `Enter ${what} as YYYY-MM-DD.`);
 
-export const checkOutcomes = ['pass', 'fail', 'not_applicable'] as const;
 export type CheckOutcome = (typeof checkOutcomes)[number];
 export const outcomeWords: Record<CheckOutcome, string> = { pass: 'pass', fail: 'fail', not_applicable: 'not applicable' };
 

@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
 import { formatQuantity, parseQuantity } from '$lib/units';
+import { controlKinds, decisionKinds } from '$lib/enums';
 
-export const controlKinds = ['eyewear', 'enclosure', 'interlock', 'signage', 'beam_stop', 'procedure', 'training', 'other'] as const;
 
 export const controlWords: Record<(typeof controlKinds)[number], string> = {
 	eyewear: 'Protective eyewear',
@@ -62,7 +62,7 @@ export const decisionSchema = z
 		assessmentId: z.uuid({ error: 'Reload the page: the assessment you read is unknown.' }),
 		/** The newest decision on the path when the officer opened it ('' for none): another officer's decision meanwhile is a 409. */
 		afterDecisionId: z.string().trim().max(64).default(''),
-		decision: z.enum(['cleared', 'returned'], { error: 'Choose to clear with controls or to return.' }),
+		decision: z.enum(decisionKinds, { error: 'Choose to clear with controls or to return.' }),
 		comments: z.string().trim().max(4000).default(''),
 		reviewBy: z
 			.string()

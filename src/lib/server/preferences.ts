@@ -2,8 +2,9 @@ import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
+import type { mailModes } from '$lib/enums';
 
-export type MailMode = (typeof table.mailModes)[number];
+export type MailMode = (typeof mailModes)[number];
 
 export async function mailMode(userId: string): Promise<MailMode> {
 	const [row] = await db.select().from(table.userPreference).where(eq(table.userPreference.userId, userId));

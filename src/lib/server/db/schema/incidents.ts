@@ -7,7 +7,7 @@ import { contributingFactors, incidentKinds, incidentStates, medicalAttentionCho
 import { user } from './auth';
 import { lab } from './labs';
 import { area, beamPath, laser } from './register';
-import { eyewear } from './reviews';
+import { eyewear } from './eyewear';
 
 export const incidentKindEnum = pgEnum('incident_kind', incidentKinds);
 export const incidentStateEnum = pgEnum('incident_state', incidentStates);

@@ -1,11 +1,9 @@
-// Inspections of laser controlled areas, their checklists and findings, uploaded documents,
-// and the e-mail ledger that makes every reminder go out exactly once.
+// Inspections of laser controlled areas, their checklists and findings.
 import { sql } from 'drizzle-orm';
-import { boolean, customType, date, index, integer, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { boolean, date, index, integer, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { user } from './auth';
 import { area } from './register';
-
-const bytea = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+import { checkOutcomes } from '../../../enums';
 
 export const checklistTemplate = pgTable('checklist_template', {
 	id: uuid('id').primaryKey().defaultRandom(),
@@ -49,7 +47,6 @@ export const inspection = pgTable(
 	]
 );
 
-export const checkOutcomes = ['pass', 'fail', 'not_applicable'] as const;
 export const checkOutcomeEnum = pgEnum('check_outcome', checkOutcomes);
 
 export const inspectionResult = pgTable(
@@ -84,84 +81,5 @@ export const finding = pgTable(
 	(t) => [index('finding_open_idx').on(t.closedOn, t.dueOn)]
 );
 
-/** Uploaded files (photos, SOPs, certificates), kept in PostgreSQL with the record they belong to. */
-export const document = pgTable(
-	'document',
-	{
-		id: uuid('id').primaryKey().defaultRandom(),
-		entity: text('entity').notNull(),
-		entityId: text('entity_id').notNull(),
-		fileName: text('file_name').notNull(),
-		mediaType: text('media_type').notNull(),
-		size: integer('size').notNull(),
-		sha256: text('sha256').notNull(),
-		width: integer('width'),
-		height: integer('height'),
-		data: bytea('data').notNull(),
-		uploadedBy: text('uploaded_by').references(() => user.id),
-		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
-	},
-	(t) => [index('document_entity_idx').on(t.entity, t.entityId)]
-);
-
-export const mailModes = ['immediate', 'digest'] as const;
-
-export const userPreference = pgTable('user_preference', {
-	userId: text('user_id')
-		.primaryKey()
-		.references(() => user.id),
-	mailMode: text('mail_mode', { enum: mailModes }).notNull().default('immediate'),
-	updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
-});
-
-export const mailStatuses = ['pending', 'held', 'sending', 'sent', 'failed', 'digested'] as const;
-
-/**
- * The e-mail ledger: one row per (kind, record, due key, step, recipient), ever. A reminder that is
- * computed again finds its row and is not sent twice; the row is our permanent sent-log.
- */
-export const mailOutbox = pgTable(
-	'mail_outbox',
-	{
-		id: uuid('id').primaryKey().defaultRandom(),
-		kind: text('kind').notNull(),
-		recordId: text('record_id').notNull(),
-		dueKey: text('due_key').notNull(),
-		step: text('step').notNull(),
-		recipientId: text('recipient_id').references(() => user.id),
-		recipientEmail: text('recipient_email').notNull(),
-		subject: text('subject').notNull(),
-		textBody: text('text_body').notNull(),
-		htmlBody: text('html_body').notNull(),
-		/** Why the person gets it, said in the mail. */
-		reason: text('reason').notNull(),
-		status: text('status', { enum: mailStatuses }).notNull().default('pending'),
-		attempts: integer('attempts').notNull().default(0),
-		nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
-		claimedAt: timestamp('claimed_at', { withTimezone: true }),
-		lastError: text('last_error'),
-		sentAt: timestamp('sent_at', { withTimezone: true }),
-		/** For held rows: the digest mail that carried them. */
-		digestId: uuid('digest_id'),
-		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
-	},
-	(t) => [
-		uniqueIndex('mail_outbox_key_idx').on(t.kind, t.recordId, t.dueKey, t.step, t.recipientEmail),
-		index('mail_outbox_pending_idx').on(t.status, t.nextAttemptAt)
-	]
-);
-
-export const passwordReset = pgTable('password_reset', {
-	tokenHash: text('token_hash').primaryKey(),
-	userId: text('user_id')
-		.notNull()
-		.references(() => user.id),
-	expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
-	usedAt: timestamp('used_at', { withTimezone: true }),
-	createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
-});
-
 export type Inspection = typeof inspection.$inferSelect;
 export type Finding = typeof finding.$inferSelect;
-export type MailOutbox = typeof mailOutbox.$inferSelect;
-export type DocumentRow = typeof document.$inferSelect;

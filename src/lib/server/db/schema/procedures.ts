@@ -8,7 +8,7 @@ import { boolean, check, date, index, integer, pgEnum, pgTable, primaryKey, text
 import { user } from './auth';
 import { lab } from './labs';
 import { area, beamPath, laser } from './register';
-import { document } from './inspections';
+import { document } from './documents';
 import { procedureKinds } from '../../../schemas/procedures';
 
 export { procedureKinds };

@@ -10,7 +10,7 @@ const updated = () => timestamp('updated_at', { withTimezone: true }).notNull().
 const si = (name: string) => numeric(name);
 
 // The lists themselves are written once, in src/lib/enums.ts (relative import: drizzle-kit has no $lib).
-import { beamDefinitions, beamProfiles, elementKinds, emissionModes, laserClasses, laserStatuses, pointKinds, tissues, verdicts } from '../../../enums';
+import { beamDefinitions, beamProfiles, elementKinds, emissionModes, laserClasses, laserStatuses, pointKinds, reviewStates, tissues, verdicts } from '../../../enums';
 
 export const laserClassEnum = pgEnum('laser_class', laserClasses);
 export const laserStatusEnum = pgEnum('laser_status', laserStatuses);
@@ -128,7 +128,7 @@ export const beamPath = pgTable(
 		stale: boolean('stale').notNull().default(false),
 		retired: boolean('retired').notNull().default(false),
 		/** Where the path stands with the officer: derived from its snapshots and decisions, kept here for the queue. */
-		reviewState: text('review_state', { enum: ['not_needed', 'awaiting_review', 'cleared', 'returned'] }).notNull().default('not_needed'),
+		reviewState: text('review_state', { enum: reviewStates }).notNull().default('not_needed'),
 		/** When it waits for review: since when (the queue is oldest first). */
 		awaitingSince: timestamp('awaiting_since', { withTimezone: true }),
 		/** The snapshot of the latest clearance, if any: the diff is shown against it. */
