@@ -20,6 +20,14 @@ export const init: ServerInit = async () => {
 		console.error((e as Error).message);
 		process.exit(2);
 	}
+	// The job queue's library records a job's end on its own connection; during a database restart
+	// that write can fail outside any promise we hold. Such a rejection must not end the process (the
+	// schedule repeats the job); any other stays fatal, as Node makes it by default.
+	process.on('unhandledRejection', (e) => {
+		if (!isDatabaseUnavailable(e)) throw e;
+		noteUnavailable();
+		console.error('job queue: the database was unavailable:', (e as Error).message);
+	});
 	if (process.env.BEAMWARDEN_JOBS !== 'off') startJobsWhenReady();
 	process.on('sveltekit:shutdown', async () => {
 		await stopJobs();

@@ -30,6 +30,7 @@ function chunkedPost(path: string, headers: Record<string, string>, chunk: Buffe
 }
 
 test('JSON and form bodies over a few hundred kB answer 413, declared or streamed; uploads have their own, larger limit', async () => {
+	test.setTimeout(120_000); // a 1 MB noisy PNG is drawn and posted twice: slow on a busy machine
 	const officer = await signedInClient(demo('officer'));
 	const cookie = (await officer.storageState()).cookies.map((c) => `${c.name}=${c.value}`).join('; ');
 	const big = JSON.stringify({ maker: 'x'.repeat(600 * 1024) });
