@@ -219,3 +219,22 @@ export function formatQuantity(valueSI: Decimal.Value, kind: QuantityKind, opts:
 	const n = si.div(def.factor).toSignificantDigits(sd, rm).toString();
 	return def.symbol === '°' ? `${n}°` : `${n} ${def.symbol}`;
 }
+
+/** The quantity each beam-path field holds (lines, elements, points), for writing its SI value with a unit. */
+export const fieldQuantityKinds: Record<string, QuantityKind> = {
+	wavelength: 'wavelength',
+	wavelengthMax: 'wavelength',
+	power: 'power',
+	pulseEnergy: 'energy',
+	pulseDuration: 'time',
+	repetitionRate: 'frequency',
+	beamDiameter: 'length',
+	divergence: 'angle',
+	length: 'length',
+	focalLength: 'length',
+	coreDiameter: 'length',
+	position: 'length',
+	exposureDuration: 'time',
+	viewingAngle: 'angle',
+	viewingDistance: 'length'
+};

@@ -5,10 +5,10 @@
 import { and, asc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import type { Scope } from '$lib/server/auth/scope';
+import { inReadableLabs, type Scope } from '$lib/server/auth/scope';
 import { writeCsv } from '$lib/server/csv';
 import { registerColumns } from '$lib/registerCsv';
-import { chooseUnit, toUnit, type QuantityKind } from '$lib/units';
+import { chooseUnit, fieldQuantityKinds, toUnit, type QuantityKind } from '$lib/units';
 import { pathStateOf } from '$lib/pathState';
 import { pathStateWords, verdictWords } from '$lib/words';
 
@@ -17,7 +17,8 @@ export type ExportKind = (typeof exportKinds)[number];
 
 function visible(scope: Scope, labIds?: string[]): SQL | undefined {
 	const where: SQL[] = [];
-	if (scope.labIds !== 'all') where.push(scope.labIds.length ? inArray(table.laser.labId, scope.labIds) : sql`false`);
+	const readable = inReadableLabs(scope, table.laser.labId);
+	if (readable) where.push(readable);
 	if (labIds) where.push(labIds.length ? inArray(table.laser.labId, labIds) : sql`false`);
 	return where.length ? and(...where) : undefined;
 }
@@ -29,19 +30,6 @@ function quantity(si: string | null, kind: QuantityKind | null): string {
 	const unit = chooseUnit(si, kind);
 	return `${toUnit(si, unit, kind).toString()} ${unit}`;
 }
-
-const units: Record<string, QuantityKind | null> = {
-	wavelength: 'wavelength',
-	wavelengthMax: 'wavelength',
-	power: 'power',
-	pulseEnergy: 'energy',
-	pulseDuration: 'time',
-	repetitionRate: 'frequency',
-	beamDiameter: 'length',
-	divergence: 'angle',
-	beamQuality: null,
-	hotSpotFactor: null
-};
 
 const laserOrder = [asc(table.lab.code), asc(table.laser.maker), asc(table.laser.model), asc(table.laser.serial), asc(table.laser.id)];
 
@@ -59,7 +47,9 @@ export async function linesCsv(scope: Scope, labIds?: string[]): Promise<string>
 			if (c.field === 'labId') return labCode;
 			if (!c.field.startsWith('line.')) return laser[c.field as keyof typeof laser] as string;
 			const f = c.field.slice(5) as keyof typeof line;
-			return f in units ? quantity(line[f] as string | null, units[f]) : (line[f] as string);
+			const value = line[f];
+			// Numbers (strings from numeric columns, or null) with their unit where they have one; words as they are.
+			return value === null || typeof value === 'string' ? quantity(value, fieldQuantityKinds[f] ?? null) : String(value);
 		})
 	);
 	return writeCsv(

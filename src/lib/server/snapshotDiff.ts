@@ -2,28 +2,10 @@
 // the officer reads: "Line: Power: 5 W → 6 W", "Element 3 (lens, f = 100 mm) added",
 // "Limit … version 1 → 2", and for the results "Verdict: within limit → exceeds limit".
 import type { SnapshotInputs } from '$lib/server/assessments';
-import { formatQuantity, type QuantityKind } from '../units';
+import { fieldQuantityKinds, formatQuantity } from '../units';
 
 type Json = Record<string, unknown>;
 export type Change = { where: string; before: string; after: string };
-
-const kinds: Record<string, QuantityKind | null> = {
-	wavelength: 'wavelength',
-	wavelengthMax: 'wavelength',
-	power: 'power',
-	pulseEnergy: 'energy',
-	pulseDuration: 'time',
-	repetitionRate: 'frequency',
-	beamDiameter: 'length',
-	divergence: 'angle',
-	length: 'length',
-	focalLength: 'length',
-	coreDiameter: 'length',
-	position: 'length',
-	exposureDuration: 'time',
-	viewingAngle: 'angle',
-	viewingDistance: 'length'
-};
 
 const names: Record<string, string> = {
 	mode: 'Emission',
@@ -59,7 +41,7 @@ const names: Record<string, string> = {
 
 function show(key: string, v: unknown): string {
 	if (v === null || v === undefined || v === '') return '—';
-	const kind = kinds[key];
+	const kind = fieldQuantityKinds[key] ?? null;
 	if (kind && (typeof v === 'string' || typeof v === 'number')) {
 		try {
 			return formatQuantity(String(v), kind, { significantDigits: 6 });
