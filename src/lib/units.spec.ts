@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { all, create } from 'mathjs';
-import { DEFAULT_UNIT, QUANTITY_KINDS, UnitDecimal, chooseUnit, formatQuantity, fromUnit, parseFraction, parseQuantity, toUnit, unitsFor, type QuantityKind } from './units';
+import { DEFAULT_UNIT, QUANTITY_KINDS, UnitDecimal, asEntered, chooseUnit, formatQuantity, fromUnit, parseFraction, parseQuantity, toUnit, unitsFor, type QuantityKind } from './units';
 
 const math = create(all);
 
@@ -195,5 +195,25 @@ describe('parseFraction: a transmission typed as a fraction, a percentage or an 
 	it('leaves the 0–1 rule to the engine (a reading outside 0–1 is still a reading)', () => {
 		expect(value('150 %')).toBe('1.5');
 		expect(value('OD -1')).toBe('10');
+	});
+});
+
+describe('asEntered: a stored value written back as typed', () => {
+	it('writes a customary unit and parses back to the stored value', () => {
+		expect(asEntered('0.0125', 'power')).toBe('12.5 mW');
+		expect(asEntered('5.32e-7', 'wavelength')).toBe('532 nm');
+		expect(asEntered(null, 'power')).toBe('');
+		expect(asEntered('0.500', null)).toBe('0.5');
+		// 0.5° stored in radians to 40 digits (the unit module's precision) comes back as 0.5°.
+		expect(asEntered(fromUnit('0.5', '°', 'angle').toString(), 'angle', '°')).toBe('0.5°');
+	});
+	it('keeps every digit of a value of up to 15 significant digits (property)', () => {
+		fc.assert(
+			fc.property(fc.constantFrom<QuantityKind>('power', 'length', 'time', 'energy', 'wavelength'), fc.integer({ min: 1, max: 999_999_999_999_999 }), fc.integer({ min: -15, max: 3 }), (kind, digits, exp) => {
+				const si = new UnitDecimal(digits).times(new UnitDecimal(10).pow(exp));
+				const back = parseQuantity(asEntered(si, kind), kind);
+				expect(back.ok && back.value.eq(si)).toBe(true);
+			})
+		);
 	});
 });

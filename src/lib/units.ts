@@ -220,6 +220,17 @@ export function formatQuantity(valueSI: Decimal.Value, kind: QuantityKind, opts:
 	return def.symbol === '°' ? `${n}°` : `${n} ${def.symbol}`;
 }
 
+/**
+ * A stored SI value written back as a person types it, in a readable unit (or `unit`): a form's
+ * starting value, a cell of an export. 15 significant digits keep every digit anyone enters, so the
+ * text parses back to the stored value. A plain number (a fraction, an exponent) has no kind.
+ */
+export function asEntered(valueSI: Decimal.Value | null, kind: QuantityKind | null, unit?: string): string {
+	if (valueSI === null) return '';
+	if (kind === null) return new UnitDecimal(valueSI).toSignificantDigits(15).toString();
+	return formatQuantity(valueSI, kind, { significantDigits: 15, unit });
+}
+
 /** The quantity each beam-path field holds (lines, elements, points), for writing its SI value with a unit. */
 export const fieldQuantityKinds: Record<string, QuantityKind> = {
 	wavelength: 'wavelength',

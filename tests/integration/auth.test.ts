@@ -9,7 +9,7 @@ import * as deviceCookies from '$lib/server/auth/device';
 import * as throttle from '$lib/server/auth/throttle';
 import * as passwordResets from '$lib/server/passwordResets';
 import * as users from '$lib/server/users';
-import { makeLab, makeUser } from './factories';
+import { makeLab, makeUser, must } from './factories';
 
 describe('password storage [ASVS 11.4.2, 6.2.x]', () => {
 	it('stores only an Argon2id hash with m ≥ 19456 KiB, t ≥ 2, p = 1', async () => {
@@ -85,12 +85,12 @@ describe('sessions [ASVS 7.2.x, 7.3.x, 7.4.x]', () => {
 		const admin = await makeUser('admin');
 		const u = await makeUser('researcher');
 		const s1 = await auth.createSession(u.id);
-		const before = (await users.find(u.id))!;
+		const before = must(await users.find(u.id)).person;
 		expect((await users.update(admin.id, u.id, { role: 'officer', labIds: [], disabled: false, version: before.version })).ok).toBe(true);
 		expect((await auth.validateSessionToken(s1.id)).session).toBeNull();
 
 		const s2 = await auth.createSession(u.id);
-		const now = (await users.find(u.id))!;
+		const now = must(await users.find(u.id)).person;
 		await users.update(admin.id, u.id, { role: 'officer', labIds: [], disabled: true, version: now.version });
 		expect((await auth.validateSessionToken(s2.id)).session).toBeNull();
 
@@ -285,11 +285,11 @@ describe('people, labs and the audit log', () => {
 	it('refuses a stale save with 409 and keeps the first one', async () => {
 		const admin = await makeUser('admin');
 		const u = await makeUser();
-		const { version } = (await users.find(u.id))!;
+		const { version } = must(await users.find(u.id)).person;
 		expect((await users.update(admin.id, u.id, { role: 'manager', labIds: [], disabled: false, version })).ok).toBe(true);
 		const stale = await users.update(admin.id, u.id, { role: 'officer', labIds: [], disabled: false, version });
 		expect(stale).toMatchObject({ ok: false, status: 409 });
-		expect((await users.find(u.id))!.role).toBe('manager');
+		expect(must(await users.find(u.id)).person.role).toBe('manager');
 	});
 
 	it('writes nothing when part of the input is bad', async () => {
@@ -309,7 +309,7 @@ describe('people, labs and the audit log', () => {
 		const admin = await makeUser('admin');
 		const lab = await makeLab();
 		const u = await makeUser();
-		const { version } = (await users.find(u.id))!;
+		const { version } = must(await users.find(u.id)).person;
 		await users.update(admin.id, u.id, { role: 'researcher', labIds: [lab.id], disabled: false, version });
 		const [entry] = await db.select().from(table.auditLog).where(sql`${table.auditLog.entityId} = ${u.id} AND ${table.auditLog.action} = 'user.update'`);
 		expect(entry.actorId).toBe(admin.id);
@@ -337,11 +337,11 @@ describe('the last active administrator', () => {
 		const b = await makeUser('admin');
 		// Only a and b are active administrators from here on (files run one after another).
 		await db.execute(sql`UPDATE "user" SET disabled = true WHERE role = 'admin' AND id NOT IN (${a.id}, ${b.id})`);
-		const version = async (id: string) => (await users.find(id))!.version;
+		const version = async (id: string) => must(await users.find(id)).person.version;
 		expect((await users.update(a.id, b.id, { role: 'admin', labIds: [], disabled: true, version: await version(b.id) })).ok).toBe(true);
 		const demote = await users.update(b.id, a.id, { role: 'officer', labIds: [], disabled: false, version: await version(a.id) });
 		expect(demote).toMatchObject({ ok: false, status: 409 });
-		expect((await users.find(a.id))!.role).toBe('admin');
+		expect(must(await users.find(a.id)).person.role).toBe('admin');
 	});
 });
 

@@ -19,7 +19,7 @@ import * as preferences from '$lib/server/preferences';
 import { reportSchema, type ReportForm } from '$lib/schemas/incidents';
 import { todayISO } from '$lib/inspectionState';
 import { png } from '../../seed/png';
-import { lasers, laserForm, limitForm, limits, makeLab, makeUser, pathForm, scopeFor } from './factories';
+import { lasers, laserForm, limitForm, limits, makeLab, makeUser, must, pathForm, scopeFor } from './factories';
 
 const today = todayISO();
 let lab: { id: string };
@@ -173,7 +173,7 @@ describe('who sees what', () => {
 	});
 
 	it('officers see everything, the reporter included', async () => {
-		const v = (await incidents.view(officer, id, today))!;
+		const v = must(await incidents.find(officer, id, today)).incident;
 		expect(v.level).toBe('full');
 		expect(v.reporter).toEqual({ name: reporterName, anonymous: true });
 		expect(v.peopleInvolved).toBe('Quentin Example-Bystander');
@@ -181,7 +181,7 @@ describe('who sees what', () => {
 	});
 
 	it('the manager sees the people involved but not an anonymous reporter', async () => {
-		const v = (await incidents.view(manager, id, today))!;
+		const v = must(await incidents.find(manager, id, today)).incident;
 		expect(v.level).toBe('manager');
 		expect(v.reporter).toBeNull();
 		expect(v.reporterWithheld).toBe(true);
@@ -189,11 +189,11 @@ describe('who sees what', () => {
 		expect(JSON.stringify(v)).not.toContain(reporterName);
 		// Not anonymous: the manager sees who reported.
 		const open = await sent(reporter);
-		expect((await incidents.view(manager, open, today))!.reporter?.name).toBe(reporterName);
+		expect(must(await incidents.find(manager, open, today)).incident.reporter?.name).toBe(reporterName);
 	});
 
 	it('researchers of the lab see its near misses with every name removed; other labs see nothing', async () => {
-		const v = (await incidents.view(colleague, id, today))!;
+		const v = must(await incidents.find(colleague, id, today)).incident;
 		expect(v.level).toBe('redacted');
 		expect(v.reporter).toBeNull();
 		expect(v.peopleInvolved).toBeNull();
@@ -201,14 +201,14 @@ describe('who sees what', () => {
 		const text = JSON.stringify(v);
 		expect(text).not.toContain(reporterName);
 		expect(text).not.toContain('Quentin');
-		expect(await incidents.view(stranger, id, today)).toBeNull();
+		expect(await incidents.find(stranger, id, today)).toMatchObject({ ok: false, status: 404 });
 		expect((await incidents.list(stranger, today)).map((r) => r.id)).not.toContain(id);
 		expect((await incidents.list(colleague, today)).map((r) => r.id)).toContain(id);
 		// An incident that is not a near miss stays with the officers, the manager and the reporter.
 		const burn = await sent(reporter, { kind: 'skin_exposure' });
-		expect(await incidents.view(colleague, burn, today)).toBeNull();
-		expect((await incidents.view(reporter, burn, today))!.level).toBe('own');
-		expect(await incidents.view(admin, burn, today)).toBeNull();
+		expect(await incidents.find(colleague, burn, today)).toMatchObject({ ok: false, status: 404 });
+		expect(must(await incidents.find(reporter, burn, today)).incident.level).toBe('own');
+		expect(await incidents.find(admin, burn, today)).toMatchObject({ ok: false, status: 404 });
 	});
 
 	it('lists carry no personal field for anyone', async () => {
@@ -221,9 +221,9 @@ describe('who sees what', () => {
 
 	it('every view of personal fields is in the audit log; a view without them is not', async () => {
 		const before = (await personalViews(id)).length;
-		await incidents.view(officer, id, today, 'api');
-		await incidents.view(manager, id, today);
-		await incidents.view(colleague, id, today);
+		await incidents.find(officer, id, today, 'api');
+		await incidents.find(manager, id, today);
+		await incidents.find(colleague, id, today);
 		const after = await personalViews(id);
 		expect(after.length).toBe(before + 2);
 		expect(after.map((a) => a.actorId)).toEqual(expect.arrayContaining([officer.userId, manager.userId]));
@@ -239,7 +239,7 @@ describe('who sees what', () => {
 		expect(await medical.save(secondOfficer, id, { examinationRequestedOn: '2026-03-04', examinationDoneOn: '', outcome: '', version: 0 })).toMatchObject({ ok: false, status: 409 });
 		expect(await medical.read(officer, id, 'page')).toMatchObject({ ok: true, outcome: 'No lesion seen; review in four weeks', version: 1 });
 		// Not in anyone's incident view, nor the officer's (it has its own page and API).
-		for (const s of [officer, manager, colleague]) expect(JSON.stringify(await incidents.view(s, id, today))).not.toContain('No lesion seen');
+		for (const s of [officer, manager, colleague]) expect(JSON.stringify(await incidents.find(s, id, today))).not.toContain('No lesion seen');
 		const reads = await db.select().from(table.auditLog).where(and(eq(table.auditLog.entityId, id), eq(table.auditLog.action, 'incident.view_medical')));
 		expect(reads.length).toBeGreaterThanOrEqual(1);
 	});
@@ -253,7 +253,7 @@ describe('investigating, following up and closing', () => {
 		const inv = { severity: 'slight' as const, causes: 'Mount not tightened after the last change.', factors: ['alignment' as const, 'equipment' as const], pathIds: [], eyewearIds: [], procedures: 'SOP UFL-03\nSOP UFL-03\nAlignment checklist', version: 1 };
 		expect(await incidents.investigate(officer, id, inv)).toEqual({ ok: true });
 		expect(await incidents.investigate(secondOfficer, id, inv)).toMatchObject({ ok: false, status: 409 });
-		const v = (await incidents.view(officer, id, today))!;
+		const v = must(await incidents.find(officer, id, today)).incident;
 		expect(v).toMatchObject({ state: 'investigating', severity: 'slight', factors: ['alignment', 'equipment'] });
 		expect(v.links.procedures).toEqual(['Alignment checklist', 'SOP UFL-03']);
 
@@ -275,7 +275,7 @@ describe('investigating, following up and closing', () => {
 		expect(await incidents.close(officer, id, { closingNote: '', version: 2 })).toMatchObject({ ok: false, status: 409, message: expect.stringMatching(/1 corrective action is still open/) });
 		expect(await incidents.closeAction(officer, { actionId: a2.id, evidence: 'Briefed at the group meeting.', version: 1 })).toMatchObject({ ok: true });
 		expect(await incidents.close(officer, id, { closingNote: 'Clamp every mount.', version: 2 })).toEqual({ ok: true });
-		const closed = (await incidents.view(officer, id, today))!;
+		const closed = must(await incidents.find(officer, id, today)).incident;
 		expect(closed.state).toBe('closed');
 		expect(closed.actions.map((a) => a.state)).toEqual(['done', 'done']);
 		expect(closed.actions[0].photos).toHaveLength(1);

@@ -44,7 +44,7 @@ beforeAll(async () => {
 describe('a limit in its published form', () => {
 	it('is stored exactly in SI and shown back as entered', async () => {
 		const created = must(await limits.create(officer.userId, published));
-		const found = (await limits.find(created.id))!;
+		const found = must(await limits.find(created.id)).limit;
 		expect(found.current).toMatchObject({
 			wavelengthFactorKind: 'exponential',
 			wavelengthFactorSlope: '2000000', // 0.002 per nm = 2·10⁶ per m

@@ -53,7 +53,7 @@ describe('limit sets', () => {
 		expect(before.limits.length).toBeGreaterThanOrEqual(demoLimits.length);
 		const versions = await versionCount();
 		const id = await stageText(JSON.stringify(await limitSets.document()));
-		const draft = (await limitSets.find(id))!;
+		const draft = must(await limitSets.find(id)).limitImport;
 		expect(draft.state).toBe('draft');
 		expect(draft.plan.counts).toEqual({ new: 0, changed: 0, unchanged: before.limits.length });
 		expect(draft.plan.rows.every((r) => r.status === 'unchanged' && r.changes.length === 0)).toBe(true);
@@ -62,7 +62,7 @@ describe('limit sets', () => {
 		expect(published).toMatchObject({ created: 0, revised: 0, unchanged: before.limits.length, staleMarked: 0 });
 		expect(await versionCount()).toBe(versions);
 		expect(await libraryFile()).toEqual(before); // identical
-		expect((await limitSets.find(id))!.state).toBe('published');
+		expect(must(await limitSets.find(id)).limitImport.state).toBe('published');
 		const [trail] = await db.select().from(table.auditLog).where(and(eq(table.auditLog.action, 'limit_import.publish'), eq(table.auditLog.entityId, id)));
 		expect(trail.actorId).toBe(officer.userId);
 		// Published once only.
@@ -81,7 +81,7 @@ describe('limit sets', () => {
 		const rows: LimitSetRow[] = file.limits.map((r) => (r === target ? { ...r, k: '9 W/m²', citation: `${r.citation} (revised)` } : r));
 		const versionsBefore = await db.select().from(table.exposureLimitVersion);
 		const id = await stageText(JSON.stringify({ ...file, limits: rows }));
-		const draft = (await limitSets.find(id))!;
+		const draft = must(await limitSets.find(id)).limitImport;
 		expect(draft.plan.counts).toEqual({ new: 0, changed: 1, unchanged: rows.length - 1 });
 		const changed = draft.plan.rows.find((r) => r.status === 'changed')!;
 		expect(changed).toMatchObject({ limitId: target.id, label: target.label, changes: ['Coefficient k', 'Citation of the local code'] });
@@ -108,7 +108,7 @@ describe('limit sets', () => {
 		const { id: _, ...fresh } = mine[0];
 		const { id: __, ...byName } = mine[1];
 		const id = await stageText(JSON.stringify({ ...file, limits: [{ ...fresh, label: `${fresh.label} (second copy)` }, { ...byName, n: '0.5' }] }));
-		const draft = (await limitSets.find(id))!;
+		const draft = must(await limitSets.find(id)).limitImport;
 		expect(draft.plan.rows.map((r) => [r.status, r.limitId])).toEqual([
 			['new', null],
 			['changed', mine[1].id]
@@ -133,17 +133,17 @@ describe('limit sets', () => {
 
 		// Reviewed, then someone edits the library by hand: publishing the old review is refused, whole.
 		const id = await stageText(JSON.stringify({ ...file, limits: file.limits.map((r) => ({ ...r, citation: `${r.citation} (v2)` })) }));
-		const reviewed = (await limitSets.find(id))!.plan.stamp;
-		const one = (await limits.find(file.limits.find((r) => !inForceBefore.has(r.id!))!.id!))!;
+		const reviewed = must(await limitSets.find(id)).limitImport.plan.stamp;
+		const one = must(await limits.find(file.limits.find((r) => !inForceBefore.has(r.id!))!.id!)).limit;
 		must(await limits.revise(officer.userId, one.id, { ...limitFormValues(one.current, one.currentVersion), n: '0.8' }));
 		const versionsNow = await versionCount();
 		expect(await limitSets.publish(officer.userId, id, reviewed)).toMatchObject({ ok: false, status: 409 });
 		expect(await versionCount()).toBe(versionsNow);
-		expect((await limitSets.find(id))!.state).toBe('draft');
+		expect(must(await limitSets.find(id)).limitImport.state).toBe('draft');
 
 		must(await limitSets.discard(officer.userId, id));
-		expect((await limitSets.find(id))!.state).toBe('discarded');
-		expect(await limitSets.publish(officer.userId, id, (await limitSets.find(id))!.plan.stamp)).toMatchObject({ ok: false, status: 409 });
+		expect(must(await limitSets.find(id)).limitImport.state).toBe('discarded');
+		expect(await limitSets.publish(officer.userId, id, must(await limitSets.find(id)).limitImport.plan.stamp)).toMatchObject({ ok: false, status: 409 });
 		expect(await versionCount()).toBe(versionsNow);
 		const trail = await db.select().from(table.auditLog).where(and(eq(table.auditLog.entityId, id), inArray(table.auditLog.action, ['limit_import.stage', 'limit_import.discard'])));
 		expect(trail).toHaveLength(2);

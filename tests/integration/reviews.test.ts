@@ -7,7 +7,7 @@ import * as paths from '$lib/server/paths';
 import * as reviews from '$lib/server/reviews';
 import type { Scope } from '$lib/server/auth/scope';
 import type { DecisionForm } from '$lib/schemas/reviews';
-import { lasers, laserForm, limitForm, limits, makeLab, makeUser, pathForm, scopeFor } from './factories';
+import { lasers, laserForm, limitForm, limits, makeLab, makeUser, must, pathForm, scopeFor } from './factories';
 
 let lab: { id: string };
 let researcher: Scope;
@@ -140,7 +140,7 @@ describe('review decisions', () => {
 		expect(await eyewear.retire(researcher, g2.id, 1)).toMatchObject({ ok: false, status: 403 });
 		expect(await eyewear.retire(officer, g2.id, 1)).toEqual({ ok: true });
 		expect((await eyewear.checksForPaths([pathId])).get(pathId)?.result.status).toBe('inadequate');
-		expect((await eyewear.find(officer, g2.id))?.retired).toBe(true);
+		expect(must(await eyewear.find(officer, g2.id)).eyewear.retired).toBe(true);
 		const [entry] = await db.select().from(table.auditLog).where(and(eq(table.auditLog.action, 'eyewear.retire'), eq(table.auditLog.entityId, g2.id)));
 		expect(entry.actorId).toBe(officer.userId);
 	});

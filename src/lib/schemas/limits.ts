@@ -1,7 +1,7 @@
 // The exposure-limit form: values typed with their units, checked the same way in browser and server.
 import { z } from 'zod';
 import { isCalendarDay } from './dates';
-import { formatQuantity, parseQuantity, UnitDecimal, type QuantityKind } from '$lib/units';
+import { asEntered, parseQuantity, UnitDecimal, type QuantityKind } from '$lib/units';
 import { limitQuantities, pulseBases, tissues, wavelengthFactorKinds } from '../enums';
 
 export { limitQuantities, pulseBases, wavelengthFactorKinds };
@@ -206,34 +206,32 @@ export function limitToSI(l: Omit<LimitForm, 'version'>) {
 /** A stored limit version (numbers as exact decimal strings in SI) — the columns the form shows. */
 export type StoredLimit = Omit<ReturnType<typeof limitToSI>, 'validFrom' | 'validUntil'> & { validFrom: Date | null; validUntil: Date | null };
 
-/** The form of a stored limit: each quantity in a readable unit, exact to 12 significant digits. */
+/** The form of a stored limit: each quantity as entered (asEntered), in a readable unit. */
 export function limitFormValues(c: StoredLimit, version: number): LimitForm {
-	const text = (v: string, kind: QuantityKind, unit?: string) => formatQuantity(v, kind, { significantDigits: 12, unit });
-	const maybe = (v: string | null, kind: QuantityKind, unit?: string) => (v === null ? '' : text(v, kind, unit));
-	const plain = (v: string | null) => (v === null ? '' : new UnitDecimal(v).toString());
+	const plain = (v: string | null) => asEntered(v, null);
 	const day = (d: Date | null) => (d ? d.toISOString().slice(0, 10) : '');
 	return {
 		label: c.label,
 		tissue: c.tissue,
-		wavelengthMin: text(c.wavelengthMin, 'wavelength'),
-		wavelengthMax: text(c.wavelengthMax, 'wavelength'),
-		durationMin: text(c.durationMin, 'time'),
-		durationMax: text(c.durationMax, 'time'),
+		wavelengthMin: asEntered(c.wavelengthMin, 'wavelength'),
+		wavelengthMax: asEntered(c.wavelengthMax, 'wavelength'),
+		durationMin: asEntered(c.durationMin, 'time'),
+		durationMax: asEntered(c.durationMax, 'time'),
 		quantity: c.quantity,
-		k: text(c.k, c.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure'),
+		k: asEntered(c.k, c.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure'),
 		n: plain(c.n),
 		wavelengthFactorKind: c.wavelengthFactorKind,
 		wavelengthFactorValue: plain(c.wavelengthFactorValue),
 		wavelengthFactorSlope: c.wavelengthFactorSlope === null ? '' : new UnitDecimal(c.wavelengthFactorSlope).div(1e9).toString(),
-		wavelengthFactorOrigin: maybe(c.wavelengthFactorOrigin, 'wavelength'),
-		wavelengthFactorFrom: maybe(c.wavelengthFactorFrom, 'wavelength'),
-		wavelengthFactorTo: maybe(c.wavelengthFactorTo, 'wavelength'),
-		extendedAlphaMin: maybe(c.extendedAlphaMin, 'angle', 'mrad'),
-		extendedAlphaMax: maybe(c.extendedAlphaMax, 'angle', 'mrad'),
+		wavelengthFactorOrigin: asEntered(c.wavelengthFactorOrigin, 'wavelength'),
+		wavelengthFactorFrom: asEntered(c.wavelengthFactorFrom, 'wavelength'),
+		wavelengthFactorTo: asEntered(c.wavelengthFactorTo, 'wavelength'),
+		extendedAlphaMin: asEntered(c.extendedAlphaMin, 'angle', 'mrad'),
+		extendedAlphaMax: asEntered(c.extendedAlphaMax, 'angle', 'mrad'),
 		extendedExponent: plain(c.extendedExponent),
-		limitingAperture: text(c.limitingAperture, 'length', 'mm'),
+		limitingAperture: asEntered(c.limitingAperture, 'length', 'mm'),
 		limitingApertureExponent: new UnitDecimal(c.limitingApertureExponent).isZero() ? '' : plain(c.limitingApertureExponent),
-		pulseGroupingTime: maybe(c.pulseGroupingTime, 'time'),
+		pulseGroupingTime: asEntered(c.pulseGroupingTime, 'time'),
 		pulseBasis: c.pulseBasis,
 		pulseTrainExponent: plain(c.pulseTrainExponent),
 		noTrainCorrection: c.noTrainCorrection,

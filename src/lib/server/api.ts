@@ -1,6 +1,6 @@
 // One shape for every JSON API answer that is not a success: { message, fields? } with a 4xx/5xx.
 import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
-import type { Failure } from '$lib/server/failure';
+import { fieldMessages, type Failure } from '$lib/server/failure';
 import type { z } from 'zod';
 import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from './db/errors';
 import { noteUnavailable } from './db/outage';
@@ -58,12 +58,3 @@ export async function readJson<S extends z.ZodType>(
 	return { ok: true, data: parsed.data };
 }
 
-/** zod issues as messages per dotted field path. */
-export function fieldMessages(error: z.ZodError): Record<string, string[]> {
-	const fields: Record<string, string[]> = {};
-	for (const issue of error.issues) {
-		const key = issue.path.join('.') || '(body)';
-		(fields[key] ??= []).push(issue.message);
-	}
-	return fields;
-}

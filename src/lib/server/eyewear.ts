@@ -31,9 +31,8 @@ export async function list(scope: Scope) {
 }
 
 export async function find(scope: Scope, eyewearId: string) {
-	if (!isUuid(eyewearId)) return null;
-	const all = await list(scope);
-	return all.find((e) => e.id === eyewearId) ?? null;
+	const found = isUuid(eyewearId) ? (await list(scope)).find((e) => e.id === eyewearId) : undefined;
+	return found ? { ok: true as const, eyewear: found } : notFound('eyewear');
 }
 
 export async function save(scope: Scope, eyewearId: string | null, form: EyewearForm): Promise<{ ok: true; id: string } | Failure> {

@@ -1,5 +1,5 @@
 // Load and save of the eyewear form, shared by "add" and "edit".
-import { error, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { eyewearSchema, type EyewearForm } from '$lib/schemas/eyewear';
@@ -7,8 +7,9 @@ import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
 import { failForm, readForm } from '$lib/server/forms';
+import { orError } from '$lib/server/pages';
 import * as labs from '$lib/server/labs';
-import { formatQuantity } from '$lib/units';
+import { asEntered } from '$lib/units';
 
 export async function loadEyewearForm(locals: App.Locals, eyewearId: string | null) {
 	const scope = await scopeOf(requireAbility(locals, 'manageEyewear'));
@@ -17,8 +18,7 @@ export async function loadEyewearForm(locals: App.Locals, eyewearId: string | nu
 		const start: EyewearForm = { labId: '', label: '', location: '', frame: '', condition: 'good', lastCheckedAt: '', bands: [{ wavelengthMin: '', wavelengthMax: '', od: '' }], version: 0 };
 		return { labs: labList, form: await superValidate(start, zod4(eyewearSchema), { errors: false }), label: null, retired: false, version: 0 };
 	}
-	const e = await eyewear.find(scope, eyewearId);
-	if (!e) error(404, { message: 'No such eyewear.' });
+	const { eyewear: e } = orError(await eyewear.find(scope, eyewearId));
 	const values: EyewearForm = {
 		labId: e.labId,
 		label: e.label,
@@ -26,7 +26,7 @@ export async function loadEyewearForm(locals: App.Locals, eyewearId: string | nu
 		frame: e.frame,
 		condition: e.condition,
 		lastCheckedAt: e.lastCheckedAt?.toISOString().slice(0, 10) ?? '',
-		bands: e.bands.map((b) => ({ wavelengthMin: formatQuantity(b.wavelengthMin, 'wavelength', { significantDigits: 10 }), wavelengthMax: formatQuantity(b.wavelengthMax, 'wavelength', { significantDigits: 10 }), od: String(Number(b.od)) })),
+		bands: e.bands.map((b) => ({ wavelengthMin: asEntered(b.wavelengthMin, 'wavelength'), wavelengthMax: asEntered(b.wavelengthMax, 'wavelength'), od: asEntered(b.od, null) })),
 		version: e.version
 	};
 	return { labs: labList, form: await superValidate(values, zod4(eyewearSchema)), label: e.label, retired: e.retired, version: e.version };

@@ -1,10 +1,11 @@
 // Reading form posts and turning refusals into form errors. Every form action reads its body through
 // readForm (superforms) or formFields (plain fields): whatever the body, the action gets a value it
 // can answer with a 4xx, never an exception that becomes a 500.
-import { error } from '@sveltejs/kit';
-import { defaultValues, setError, message, superValidate, type JSONSchema, type SuperValidated } from 'sveltekit-superforms';
+import { error, type ActionFailure } from '@sveltejs/kit';
+import { defaultValues, fail, setError, message, superValidate, type JSONSchema, type SuperValidated } from 'sveltekit-superforms';
 import type { ValidationAdapter } from 'sveltekit-superforms/adapters';
 import { isTooLarge, tooLargeMessage } from './bodyLimit';
+import type { Refusal } from '$lib/refusal';
 import type { Failure } from './failure';
 
 type Options<T extends Record<string, unknown>> = Parameters<typeof superValidate<T>>[2];
@@ -135,8 +136,24 @@ export async function formObject(request: Request): Promise<Record<string, FormD
 	return Object.fromEntries((await formFields(request)) ?? []);
 }
 
-/** Turn a data module's failure into the form's per-field errors, with its 4xx status. */
-export function failForm<T extends Record<string, unknown>>(form: SuperValidated<T>, failure: Failure) {
+/** A form action without a superform: its name, and the row it is about when the page repeats it. */
+export type PlainForm = { action: string; about?: string };
+
+/**
+ * The one way a form action answers a refusal, with the failure's 4xx status. A superform gets the
+ * failure as its message and per-field errors; any other form gets `{ refused }` (see $lib/refusal),
+ * with `extra` beside it for what the page shows with the refusal (an import's problem list).
+ */
+export function failForm<T extends Record<string, unknown>, In extends Record<string, unknown>>(
+	form: SuperValidated<T, string, In>,
+	failure: Failure
+): { form: SuperValidated<T, string, In> } | ActionFailure<{ form: SuperValidated<T, string, In> }>;
+export function failForm<E extends Record<string, unknown> = Record<never, never>>(form: PlainForm, failure: Failure, extra?: E): ActionFailure<{ refused: Refusal } & E>;
+export function failForm(form: SuperValidated<Record<string, unknown>, string> | PlainForm, failure: Failure, extra?: Record<string, unknown>) {
+	if ('action' in form) {
+		const fields = Object.fromEntries(Object.entries(failure.fields ?? {}).map(([k, v]) => [k, v[0]]));
+		return fail(failure.status, { ...extra, refused: { action: form.action, about: form.about ?? null, message: failure.message, fields } satisfies Refusal });
+	}
 	for (const [field, messages] of Object.entries(failure.fields ?? {})) {
 		// 'elements.2.length' (ours) → 'elements[2].length' (superforms' path syntax)
 		// A message about a whole list goes to its '_errors' (superforms would otherwise replace the list's item errors).

@@ -378,11 +378,11 @@ export type IncidentView = {
 };
 
 /**
- * One incident as this person may see it, or null (404) when they may not. A view that carries
+ * One incident as this person may see it, or a 404 when they may not. A view that carries
  * personal fields is written to the audit log (`viewer` says through which door: page or API).
  */
-export async function view(scope: Scope, incidentId: string, today: string, viewer: 'page' | 'api' = 'page'): Promise<IncidentView | null> {
-	if (!isUuid(incidentId)) return null;
+export async function find(scope: Scope, incidentId: string, today: string, viewer: 'page' | 'api' = 'page'): Promise<{ ok: true; incident: IncidentView } | Failure> {
+	if (!isUuid(incidentId)) return notFound('incident');
 	const i = table.incident;
 	const [r] = await db
 		.select({
@@ -405,9 +405,9 @@ export async function view(scope: Scope, incidentId: string, today: string, view
 		.leftJoin(investigatorUser, eq(investigatorUser.id, i.investigatedBy))
 		.leftJoin(closerUser, eq(closerUser.id, i.closedBy))
 		.where(eq(i.id, incidentId));
-	if (!r) return null;
+	if (!r) return notFound('incident');
 	const level = levelFor(scope, r.i);
-	if (!level) return null;
+	if (!level) return notFound('incident');
 	const names = level === 'full' || level === 'manager';
 	const owner = alias(table.user, 'owner_user');
 	const [links, actionRows, docs, susp] = await Promise.all([
@@ -505,7 +505,7 @@ export async function view(scope: Scope, incidentId: string, today: string, view
 		await db.transaction((tx) =>
 			audit.record(tx, { actorId: scope.userId, action: 'incident.view_personal', entity: 'incident', entityId: incidentId, after: { level, via: viewer } })
 		);
-	return shaped;
+	return { ok: true, incident: shaped };
 }
 
 /** How much of this incident the person may see (null: nothing, or no such incident). */

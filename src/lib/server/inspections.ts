@@ -117,7 +117,7 @@ export async function openFindings(scope: Scope) {
 }
 
 export async function find(scope: Scope, inspectionId: string) {
-	if (!isUuid(inspectionId)) return null;
+	if (!isUuid(inspectionId)) return notFound('inspection');
 	const [row] = await db
 		.select({ inspection: table.inspection, area: table.area, labCode: table.lab.code, inspectorName: inspectorUser.name })
 		.from(table.inspection)
@@ -125,7 +125,7 @@ export async function find(scope: Scope, inspectionId: string) {
 		.innerJoin(table.lab, eq(table.lab.id, table.area.labId))
 		.leftJoin(inspectorUser, eq(inspectorUser.id, table.inspection.inspectorId))
 		.where(eq(table.inspection.id, inspectionId));
-	if (!row || !canRead(scope, row.area.labId)) return null;
+	if (!row || !canRead(scope, row.area.labId)) return notFound('inspection');
 	const [results, findings, photos, history] = await Promise.all([
 		db.select().from(table.inspectionResult).where(eq(table.inspectionResult.inspectionId, inspectionId)).orderBy(asc(table.inspectionResult.sequence)),
 		db
@@ -146,7 +146,7 @@ export async function find(scope: Scope, inspectionId: string) {
 			.orderBy(desc(table.inspection.dueOn))
 			.limit(20)
 	]);
-	return { ...row, results, findings, photos, history };
+	return { ok: true as const, ...row, results, findings, photos, history };
 }
 
 export async function templates() {
@@ -168,7 +168,7 @@ export async function createTemplate(actorId: string, name: string, lines: strin
 export async function record(scope: Scope, inspectionId: string, form: RecordInspectionForm): Promise<{ ok: true; nextId: string; nextDueOn: string } | Failure> {
 	if (!can(scope, 'recordInspections')) return failure(403, 'Only a laser safety officer records inspections.');
 	const found = await find(scope, inspectionId);
-	if (!found) return notFound('inspection');
+	if (!found.ok) return found;
 	if (found.inspection.completedOn) return failure(409, 'This inspection is already recorded as done.');
 	const [template] = await db.select().from(table.checklistTemplate).where(eq(table.checklistTemplate.id, form.templateId));
 	if (!template) return fieldsNeedAttention({ templateId: 'Unknown checklist.' });
@@ -204,7 +204,7 @@ export async function record(scope: Scope, inspectionId: string, form: RecordIns
 export async function closeFinding(scope: Scope, inspectionId: string, form: CloseFindingForm): Promise<{ ok: true; description: string } | Failure> {
 	if (!can(scope, 'recordInspections')) return failure(403, 'Only a laser safety officer closes findings.');
 	const found = await find(scope, inspectionId);
-	if (!found) return notFound('inspection');
+	if (!found.ok) return found;
 	const before = found.findings.find((f) => f.id === form.findingId);
 	if (!before) return notFound('finding');
 	if (before.closedOn) return failure(409, 'This finding is already closed.');
@@ -231,7 +231,7 @@ export async function closeFinding(scope: Scope, inspectionId: string, form: Clo
 export async function attach(scope: Scope, inspectionId: string, files: StoredUpload[]): Promise<{ ok: true; count: number } | Failure> {
 	if (!can(scope, 'recordInspections')) return failure(403, 'Only a laser safety officer adds photos to inspections.');
 	const found = await find(scope, inspectionId);
-	if (!found) return notFound('inspection');
+	if (!found.ok) return found;
 	if (files.length === 0) return fieldsNeedAttention({ photos: 'Choose a file to upload.' });
 	await db.transaction(async (tx) => {
 		const rows = await tx

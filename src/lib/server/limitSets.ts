@@ -60,10 +60,10 @@ export async function listDrafts() {
 
 /** A draft (or a decided import) with its rows compared against the library as it is now. */
 export async function find(importId: string) {
-	if (!isUuid(importId)) return null;
+	if (!isUuid(importId)) return notFound('limit-set import');
 	const [found] = await db.select().from(table.limitImport).where(eq(table.limitImport.id, importId));
-	if (!found) return null;
-	return { ...found, plan: await plan(db, found.id, found.rows) };
+	if (!found) return notFound('limit-set import');
+	return { ok: true as const, limitImport: { ...found, plan: await plan(db, found.id, found.rows) } };
 }
 
 /**

@@ -26,11 +26,11 @@ export async function list(ex: Tx | typeof db = db): Promise<LimitSummary[]> {
 }
 
 export async function find(limitId: string) {
-	if (!isUuid(limitId)) return null;
+	if (!isUuid(limitId)) return notFound('limit');
 	const [head] = await db.select().from(table.exposureLimit).where(eq(table.exposureLimit.id, limitId));
-	if (!head) return null;
+	if (!head) return notFound('limit');
 	const versions = await db.select().from(table.exposureLimitVersion).where(eq(table.exposureLimitVersion.limitId, limitId)).orderBy(desc(table.exposureLimitVersion.version));
-	return { ...head, current: versions.find((v) => v.version === head.currentVersion)!, versions };
+	return { ok: true as const, limit: { ...head, current: versions.find((v) => v.version === head.currentVersion)!, versions } };
 }
 
 /** Mark stale every assessed, live path whose line (or tunable range) meets one of these wavelength ranges. */

@@ -8,9 +8,7 @@ import { scopeOf } from '$lib/server/auth/scope';
 import { failForm, readForm } from '$lib/server/forms';
 import * as lasers from '$lib/server/lasers';
 import { orError } from '$lib/server/pages';
-import { formatQuantity, type QuantityKind } from '$lib/units';
-
-const shown = (v: string | null, kind: QuantityKind) => (v === null ? '' : formatQuantity(v, kind, { significantDigits: 12 }));
+import { asEntered } from '$lib/units';
 
 export async function loadLineForm(locals: App.Locals, laserId: string, lineId: string | null) {
 	const scope = await scopeOf(requireAbility(locals, 'changeRegister'));
@@ -23,15 +21,15 @@ export async function loadLineForm(locals: App.Locals, laserId: string, lineId: 
 	const values = {
 		label: l.label,
 		mode: l.mode,
-		wavelength: shown(l.wavelength, 'wavelength'),
-		wavelengthMax: shown(l.wavelengthMax, 'wavelength'),
-		power: shown(l.power, 'power'),
-		pulseEnergy: shown(l.pulseEnergy, 'energy'),
-		pulseDuration: shown(l.pulseDuration, 'time'),
-		repetitionRate: shown(l.repetitionRate, 'frequency'),
-		beamDiameter: shown(l.beamDiameter, 'length'),
+		wavelength: asEntered(l.wavelength, 'wavelength'),
+		wavelengthMax: asEntered(l.wavelengthMax, 'wavelength'),
+		power: asEntered(l.power, 'power'),
+		pulseEnergy: asEntered(l.pulseEnergy, 'energy'),
+		pulseDuration: asEntered(l.pulseDuration, 'time'),
+		repetitionRate: asEntered(l.repetitionRate, 'frequency'),
+		beamDiameter: asEntered(l.beamDiameter, 'length'),
 		beamDiameterDefinition: l.beamDiameterDefinition,
-		divergence: shown(l.divergence, 'angle'),
+		divergence: asEntered(l.divergence, 'angle'),
 		divergenceDefinition: l.divergenceDefinition,
 		beamQuality: l.beamQuality ?? '',
 		beamProfile: l.beamProfile,

@@ -22,7 +22,7 @@ export const MAX_PER_ADDRESS_PER_HOUR = 10;
 
 const hash = (token: string) => createHash('sha256').update(token).digest('hex');
 
-export type RequestOutcome = { ok: true } | Failure | { ok: false; status: 429; message: string };
+export type RequestOutcome = { ok: true } | Failure;
 
 /**
  * A reset request. It does the same work whether or not an account uses the address, so neither
@@ -37,7 +37,7 @@ export async function request(emailInput: string, address: string, now = new Dat
 		FROM password_reset_request
 		WHERE requested_at > ${hourAgo}::timestamptz AND (address = ${address} OR email = ${email})`);
 	if (counts.from_address >= MAX_PER_ADDRESS_PER_HOUR)
-		return { ok: false, status: 429, message: 'Too many reset requests from here. Wait an hour, or ask an administrator to set a new password.' };
+		return failure(429, 'Too many reset requests from here. Wait an hour, or ask an administrator to set a new password.');
 	// Over the per-address-typed limit the request is kept (it counts) but already done: nothing is mailed.
 	const quiet = counts.for_email >= MAX_PER_EMAIL_PER_HOUR;
 	await db.insert(table.passwordResetRequest).values({ email, address, requestedAt: now, processedAt: quiet ? now : null });

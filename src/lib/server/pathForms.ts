@@ -17,10 +17,9 @@ import { orError } from '$lib/server/pages';
 import type { AssessmentResult } from '$lib/assessmentResult';
 import type { EditorData } from '$lib/components/path-editor/editorData';
 import type { LineColumns } from '$lib/schemas/assessment';
-import { formatQuantity, type QuantityKind } from '$lib/units';
+import { asEntered, type QuantityKind } from '$lib/units';
 
-const shown = (v: string | null, kind: QuantityKind | null) =>
-	v === null ? '' : kind ? formatQuantity(v, kind, { significantDigits: 12, unit: kind === 'angle' ? '°' : undefined }) : String(Number(v));
+const shown = (v: string | null, kind: QuantityKind | null) => asEntered(v, kind, kind === 'angle' ? '°' : undefined);
 
 /** The laser's lines as the editor needs them: the stored columns, which the preview maps with lineFromRow. */
 function editorLines(detail: NonNullable<lasers.LaserDetail>): LineColumns[] {

@@ -8,7 +8,7 @@ import * as table from '$lib/server/db/schema';
 import { inReadableLabs, type Scope } from '$lib/server/auth/scope';
 import { writeCsv } from '$lib/server/csv';
 import { registerColumns } from '$lib/registerCsv';
-import { chooseUnit, fieldQuantityKinds, toUnit, type QuantityKind } from '$lib/units';
+import { asEntered, fieldQuantityKinds } from '$lib/units';
 import { pathStateOf } from '$lib/pathState';
 import { pathStateWords, verdictWords } from '$lib/words';
 
@@ -23,13 +23,6 @@ function visible(scope: Scope, labIds?: string[]): SQL | undefined {
 	return where.length ? and(...where) : undefined;
 }
 
-/** An SI value in a customary unit, every digit kept: "532 nm", "0.0125 W" → "12.5 mW". */
-function quantity(si: string | null, kind: QuantityKind | null): string {
-	if (si === null) return '';
-	if (kind === null) return si;
-	const unit = chooseUnit(si, kind);
-	return `${toUnit(si, unit, kind).toString()} ${unit}`;
-}
 
 const laserOrder = [asc(table.lab.code), asc(table.laser.maker), asc(table.laser.model), asc(table.laser.serial), asc(table.laser.id)];
 
@@ -49,7 +42,7 @@ export async function linesCsv(scope: Scope, labIds?: string[]): Promise<string>
 			const f = c.field.slice(5) as keyof typeof line;
 			const value = line[f];
 			// Numbers (strings from numeric columns, or null) with their unit where they have one; words as they are.
-			return value === null || typeof value === 'string' ? quantity(value, fieldQuantityKinds[f] ?? null) : String(value);
+			return value === null || typeof value === 'string' ? asEntered(value, fieldQuantityKinds[f] ?? null) : String(value);
 		})
 	);
 	return writeCsv(
@@ -83,8 +76,8 @@ export async function lasersCsv(scope: Scope, labIds?: string[]): Promise<string
 			r.laser.status,
 			r.areaName,
 			r.lines,
-			quantity(r.laser.wavelengthMin, 'wavelength'),
-			quantity(r.laser.wavelengthMax, 'wavelength'),
+			asEntered(r.laser.wavelengthMin, 'wavelength'),
+			asEntered(r.laser.wavelengthMax, 'wavelength'),
 			r.paths,
 			r.laser.notes,
 			r.laser.updatedAt.toISOString()
@@ -122,7 +115,7 @@ export async function pathsCsv(scope: Scope, labIds?: string[]): Promise<string>
 			r.model,
 			r.serial,
 			r.path.name,
-			(r.lines ?? []).map((l) => l.label || quantity(l.wavelength, 'wavelength')).join('; '),
+			(r.lines ?? []).map((l) => l.label || asEntered(l.wavelength, 'wavelength')).join('; '),
 			r.verdict ? verdictWords[r.verdict].word : 'not assessed',
 			r.worstRatio,
 			pathStateWords[pathStateOf(r.path)].word,

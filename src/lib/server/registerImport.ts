@@ -52,7 +52,7 @@ export async function recent(limit = 10) {
 		.innerJoin(table.user, eq(table.user.id, table.registerImport.createdBy))
 		.orderBy(desc(table.registerImport.createdAt))
 		.limit(limit);
-	return rows.map((r) => ({ id: r.record.id, fileName: r.record.fileName, state: r.record.state, uploader: r.uploader, createdAt: r.record.createdAt.toISOString(), totalRows: r.record.totalRows, errorRows: r.record.errorRows }));
+	return rows.map((r) => ({ id: r.record.id, fileName: r.record.fileName, state: r.record.state, uploader: r.uploader, createdAt: r.record.createdAt, totalRows: r.record.totalRows, errorRows: r.record.errorRows }));
 }
 
 /** Check a file and stage its valid rows. A file that cannot be read as the register's CSV stages nothing. */

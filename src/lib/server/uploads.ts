@@ -23,10 +23,10 @@ export async function sniff(b: Buffer): Promise<AllowedType | null> {
 	return found && (allowedTypes as readonly string[]).includes(found.mime) ? (found.mime as AllowedType) : null;
 }
 
-type Refusal = { reason: 'unreadable' } | { reason: 'too many pixels'; width: number; height: number };
+type ImageProblem = { reason: 'unreadable' } | { reason: 'too many pixels'; width: number; height: number };
 
 /** Decode with the pixel limit, upright the photo as it was taken, and encode it again in its own format without metadata. */
-export async function reencodeImage(data: Buffer, type: Exclude<AllowedType, 'application/pdf'>): Promise<{ ok: true; data: Buffer; width: number; height: number } | ({ ok: false } & Refusal)> {
+export async function reencodeImage(data: Buffer, type: Exclude<AllowedType, 'application/pdf'>): Promise<{ ok: true; data: Buffer; width: number; height: number } | ({ ok: false } & ImageProblem)> {
 	let header: sharp.Metadata;
 	try {
 		header = await sharp(data).metadata();

@@ -6,7 +6,7 @@ import { burnVerification, hashPassword, passwordProblem, verifyPassword } from 
 import * as device from '$lib/server/auth/device';
 import * as throttle from '$lib/server/auth/throttle';
 import type { NewUserInput, UpdateUserInput } from '$lib/schemas/users';
-import type { Failure } from '$lib/server/failure';
+import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
 
 export type UserSummary = {
 	id: string;
@@ -38,11 +38,11 @@ export async function list(): Promise<UserSummary[]> {
 	return people.map((p) => ({ ...p, labIds: labsOf.get(p.id) ?? [] }));
 }
 
-export async function find(userId: string): Promise<UserSummary | null> {
+export async function find(userId: string): Promise<{ ok: true; person: UserSummary } | Failure> {
 	const [person] = await db.select(summaryColumns).from(table.user).where(eq(table.user.id, userId));
-	if (!person) return null;
+	if (!person) return notFound('person');
 	const memberships = await db.select().from(table.labMember).where(eq(table.labMember.userId, userId));
-	return { ...person, labIds: memberships.map((m) => m.labId) };
+	return { ok: true, person: { ...person, labIds: memberships.map((m) => m.labId) } };
 }
 
 async function unknownLabs(labIds: string[]): Promise<string[]> {
@@ -54,9 +54,9 @@ async function unknownLabs(labIds: string[]): Promise<string[]> {
 
 export async function create(actorId: string | null, input: NewUserInput): Promise<{ ok: true; id: string } | Failure> {
 	const problem = passwordProblem(input.password, [input.name, input.email.split('@')[0]]);
-	if (problem) return { ok: false, status: 400, message: 'Some fields need attention.', fields: { password: [problem] } };
+	if (problem) return fieldsNeedAttention({ password: problem });
 	if ((await unknownLabs(input.labIds)).length)
-		return { ok: false, status: 400, message: 'Some fields need attention.', fields: { labIds: ['Unknown lab.'] } };
+		return fieldsNeedAttention({ labIds: 'Unknown lab.' });
 	const passwordHash = await hashPassword(input.password);
 	return db.transaction(async (tx) => {
 		const inserted = await tx
@@ -65,7 +65,7 @@ export async function create(actorId: string | null, input: NewUserInput): Promi
 			.onConflictDoNothing({ target: table.user.email })
 			.returning({ id: table.user.id });
 		if (inserted.length === 0)
-			return { ok: false, status: 409, message: 'Some fields need attention.', fields: { email: ['Someone already uses this e-mail address.'] } } as Failure;
+			return failure(409, 'Some fields need attention.', { email: 'Someone already uses this e-mail address.' });
 		const id = inserted[0].id;
 		if (input.labIds.length) await tx.insert(table.labMember).values(input.labIds.map((labId) => ({ labId, userId: id })));
 		await audit.record(tx, {
@@ -82,9 +82,9 @@ export async function create(actorId: string | null, input: NewUserInput): Promi
 /** Role, labs and disabled flag, guarded by the row's version. A change of role or a disable ends the person's sessions. */
 export async function update(actorId: string, userId: string, input: UpdateUserInput): Promise<{ ok: true } | Failure> {
 	if ((await unknownLabs(input.labIds)).length)
-		return { ok: false, status: 400, message: 'Some fields need attention.', fields: { labIds: ['Unknown lab.'] } };
+		return fieldsNeedAttention({ labIds: 'Unknown lab.' });
 	if (actorId === userId && (input.disabled || input.role !== 'admin'))
-		return { ok: false, status: 400, message: 'You cannot disable yourself or remove your own administrator role.' };
+		return failure(400, 'You cannot disable yourself or remove your own administrator role.');
 	return db.transaction(async (tx) => {
 		// The active administrators are locked first, always in the same order, so that two admins
 		// demoting each other at once are serialised and the second sees that none would remain.
@@ -95,17 +95,17 @@ export async function update(actorId: string, userId: string, input: UpdateUserI
 			.orderBy(asc(table.user.id))
 			.for('update');
 		const [before] = await tx.select(summaryColumns).from(table.user).where(eq(table.user.id, userId)).for('update');
-		if (!before) return { ok: false, status: 404, message: 'No such user.' } as Failure;
+		if (!before) return notFound('user');
 		const removesAdmin = admins.some((a) => a.id === userId) && (input.role !== 'admin' || input.disabled);
 		if (removesAdmin && admins.length <= 1)
-			return { ok: false, status: 409, message: 'This is the last active administrator: make someone else an administrator first.' } as Failure;
+			return failure(409, 'This is the last active administrator: make someone else an administrator first.');
 		const updated = await tx
 			.update(table.user)
 			.set({ role: input.role, disabled: input.disabled, version: before.version + 1, updatedAt: new Date() })
 			.where(and(eq(table.user.id, userId), eq(table.user.version, input.version)))
 			.returning({ id: table.user.id });
 		if (updated.length === 0)
-			return { ok: false, status: 409, message: 'Someone else changed this user meanwhile. Reload to see their change; nothing was saved.' } as Failure;
+			return changedMeanwhile('user');
 		const oldLabs = (await tx.select().from(table.labMember).where(eq(table.labMember.userId, userId))).map((m) => m.labId);
 		await tx.delete(table.labMember).where(eq(table.labMember.userId, userId));
 		if (input.labIds.length) await tx.insert(table.labMember).values(input.labIds.map((labId) => ({ labId, userId })));

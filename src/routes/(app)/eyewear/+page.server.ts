@@ -9,7 +9,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 	const scope = await scopeOf(user);
 	const items = await eyewear.list(scope);
 	return {
-		items: items.map((i) => ({ ...i, lastCheckedAt: i.lastCheckedAt?.toISOString().slice(0, 10) ?? null, createdAt: i.createdAt.toISOString() })),
+		items,
 		cleared: await eyewear.clearedPathChecks(scope),
 		canManage: can(user, 'manageEyewear')
 	};

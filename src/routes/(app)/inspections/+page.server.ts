@@ -1,7 +1,7 @@
 import { can } from '$lib/abilities';
-import { fail } from 'sveltekit-superforms';
 import { assignSchema } from '$lib/schemas/inspections';
-import { formObject } from '$lib/server/forms';
+import { invalidInput } from '$lib/server/failure';
+import { failForm, formObject } from '$lib/server/forms';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as inspections from '$lib/server/inspections';
@@ -20,9 +20,9 @@ export const actions: Actions = {
 	assign: async function assignInspector({ locals, request }) {
 		const scope = await scopeOf(requireAbility(locals, 'assignInspectors'));
 		const parsed = assignSchema.safeParse(await formObject(request));
-		if (!parsed.success) return fail(400, { assignError: parsed.error.issues[0].message });
+		if (!parsed.success) return failForm({ action: 'assign' }, invalidInput(parsed.error));
 		const r = await inspections.assign(scope, parsed.data.inspectionId, parsed.data.inspectorId, parsed.data.version);
-		if (!r.ok) return fail(r.status, { assignError: r.fields ? Object.values(r.fields)[0][0] : r.message, inspectionId: parsed.data.inspectionId });
+		if (!r.ok) return failForm({ action: 'assign', about: parsed.data.inspectionId }, r);
 		return { assigned: parsed.data.inspectionId, confirmation: `${r.inspectorName} is now the inspector of ${r.areaName}.` };
 	}
 };

@@ -32,7 +32,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 		training: records.filter((r) => r.state === 'expired' || r.state === 'expires_soon').map((r) => ({ id: r.id, topic: r.topic, expiresOn: r.expiresOn, state: r.state })),
 		duties,
 		desk,
-		notifications: recent.map((n) => ({ id: n.id, title: n.title, body: n.body, pathId: n.pathId, kind: n.kind, createdAt: n.createdAt.toISOString(), read: n.readAt !== null }))
+		notifications: recent.map((n) => ({ id: n.id, title: n.title, body: n.body, pathId: n.pathId, kind: n.kind, createdAt: n.createdAt, read: n.readAt !== null }))
 	};
 };
 

@@ -20,7 +20,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const [found, all, counts] = await Promise.all([reviews.queue(scope, { state: filter.state, labId: filter.lab, page: filter.page }), labs.list(), reviews.counts(scope)]);
 	const rows = found.slice(0, reviews.QUEUE_PAGE_SIZE);
 	return {
-		rows: rows.map((r) => ({ ...r, awaitingSince: r.awaitingSince?.toISOString() ?? null, updatedAt: r.updatedAt.toISOString() })),
+		rows,
 		pages: { page: filter.page, hasNext: found.length > reviews.QUEUE_PAGE_SIZE, size: reviews.QUEUE_PAGE_SIZE },
 		labs: scope.labIds === 'all' ? all : all.filter((l) => (scope.labIds as string[]).includes(l.id)),
 		filter,

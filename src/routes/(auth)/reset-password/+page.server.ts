@@ -1,6 +1,6 @@
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/forms';
 import { resetRequestSchema } from '$lib/schemas/account';
 import * as resets from '$lib/server/passwordResets';
 import type { Actions, PageServerLoad } from './$types';
@@ -12,7 +12,7 @@ export const actions: Actions = {
 		const form = await readForm(request, zod4(resetRequestSchema));
 		if (!form.valid) return fail(400, { form });
 		const outcome = await resets.request(form.data.email, getClientAddress());
-		if (!outcome.ok) return message(form, outcome.message, { status: outcome.status });
+		if (!outcome.ok) return failForm(form, outcome);
 		return message(form, 'If an active account uses this address, a link to choose a new password is on its way. It works once, for 30 minutes.');
 	}
 };

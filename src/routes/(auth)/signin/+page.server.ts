@@ -1,7 +1,8 @@
 import { redirect } from '@sveltejs/kit';
-import { fail, message, superValidate } from 'sveltekit-superforms';
+import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { readForm } from '$lib/server/forms';
+import { failure } from '$lib/server/failure';
+import { failForm, readForm } from '$lib/server/forms';
 import { signInSchema } from '$lib/schemas/users';
 import * as auth from '$lib/server/auth/session';
 import * as device from '$lib/server/auth/device';
@@ -21,9 +22,9 @@ export const actions: Actions = {
 		form.data.password = '';
 		if (!outcome.ok && outcome.reason === 'throttled') {
 			const minutes = Math.ceil(outcome.retryAfter / 60);
-			return message(form, `Too many failed attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, sign in from a browser you have used here before, or reset your password.`, { status: 429 });
+			return failForm(form, failure(429, `Too many failed attempts. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, sign in from a browser you have used here before, or reset your password.`));
 		}
-		if (!outcome.ok) return message(form, 'That e-mail and password do not match an active account.', { status: 400 });
+		if (!outcome.ok) return failForm(form, failure(400, 'That e-mail and password do not match an active account.'));
 		// A fresh session on every sign-in; the old one (if any) ends.
 		if (event.locals.session) await auth.invalidateSession(event.locals.session.id);
 		const session = await auth.createSession(outcome.userId);

@@ -19,9 +19,9 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const now = new Date();
 	const last = await dailyRun.lastRun();
 	return {
-		daily: { lastAt: last?.finishedAt.toISOString() ?? null, late: dailyRun.isLate(last?.finishedAt ?? null, now), nextAt: dailyRun.nextScheduled(now).toISOString() },
+		daily: { lastAt: last?.finishedAt ?? null, late: dailyRun.isLate(last?.finishedAt ?? null, now), nextAt: dailyRun.nextScheduled(now) },
 		box,
 		message: open && open.available ? open.message : null,
-		ledger: ledger.map((l) => ({ ...l, nextAttemptAt: l.nextAttemptAt.toISOString(), sentAt: l.sentAt?.toISOString() ?? null, createdAt: l.createdAt.toISOString() }))
+		ledger
 	};
 };

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
-import { fail } from 'sveltekit-superforms';
 import { z } from 'zod';
-import { formObject } from '$lib/server/forms';
+import { reloadAndRetry } from '$lib/server/failure';
+import { failForm, formObject } from '$lib/server/forms';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
@@ -17,9 +17,9 @@ export const actions: Actions = {
 	retire: async function retireEyewear({ locals, request, params }) {
 		const scope = await scopeOf(requireAbility(locals, 'manageEyewear'));
 		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(await formObject(request));
-		if (!parsed.success) return fail(400, { retireError: 'Reload the page and try again.' });
+		if (!parsed.success) return failForm({ action: 'retire' }, reloadAndRetry());
 		const result = await eyewear.retire(scope, params.eyewearId, parsed.data.version);
-		if (!result.ok) return fail(result.status, { retireError: result.message });
+		if (!result.ok) return failForm({ action: 'retire' }, result);
 		redirect(303, '/eyewear');
 	}
 };

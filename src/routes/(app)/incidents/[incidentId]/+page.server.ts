@@ -1,10 +1,12 @@
-import { error, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { actionSchema, closeActionSchema, closeIncidentSchema, investigationSchema, liftSchema, suspendSchema, type InvestigationForm } from '$lib/schemas/incidents';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
+import { unreadableUpload } from '$lib/server/failure';
 import { failForm, formFields, readForm } from '$lib/server/forms';
+import { orError } from '$lib/server/pages';
 import { closeActionFromForm } from '$lib/server/incidentForms';
 import * as incidents from '$lib/server/incidents';
 import * as medical from '$lib/server/medical';
@@ -17,8 +19,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const user = requireUser(locals);
 	const scope = await scopeOf(user);
 	const today = todayISO();
-	const incident = await incidents.view(scope, params.incidentId, today);
-	if (!incident) error(404, { message: 'No such incident, or it is not one you may see.' });
+	const { incident } = orError(await incidents.find(scope, params.incidentId, today));
 	if (incident.state === 'draft' && incident.can.edit) redirect(303, `/incidents/${incident.id}/edit`);
 	const officer = incident.can.investigate;
 	const investigation: InvestigationForm = {
@@ -52,6 +53,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 async function officerScope(locals: App.Locals) {
 	return scopeOf(requireAbility(locals, 'investigateIncidents'));
 }
+
+const photos = { action: 'photos' };
 
 export const actions: Actions = {
 	investigate: async function recordInvestigation({ locals, request, params }) {
@@ -101,13 +104,11 @@ export const actions: Actions = {
 	photos: async function addIncidentPhotos({ locals, request, params }) {
 		const scope = await officerScope(locals);
 		const data = await formFields(request);
-		if (!data) {
-			return fail(400, { photoError: 'The upload could not be read; send the form again.' });
-		}
+		if (!data) return failForm(photos, unreadableUpload());
 		const files = await readUploads(data, 'photos');
-		if (!files.ok) return fail(files.status, { photoError: files.message });
+		if (!files.ok) return failForm(photos, files);
 		const r = await incidents.attachPhotos(scope, params.incidentId, files.files);
-		if (!r.ok) return fail(r.status, { photoError: r.fields ? Object.values(r.fields)[0][0] : r.message });
+		if (!r.ok) return failForm(photos, r);
 		return { photosAdded: r.count };
 	}
 };

@@ -16,7 +16,10 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const path = places.paths.find((p) => p.id === q('pathId'));
 	const laser = places.lasers.find((l) => l.id === (path?.laserId ?? q('laserId')));
 	let areaId = laser?.areaId ?? '';
-	if (!laser && q('inspectionId')) areaId = (await inspections.find(scope, q('inspectionId')))?.area.id ?? '';
+	if (!laser && q('inspectionId')) {
+		const found = await inspections.find(scope, q('inspectionId'));
+		if (found.ok) areaId = found.area.id;
+	}
 	const start: ReportForm = {
 		intent: 'submit',
 		kind: '',

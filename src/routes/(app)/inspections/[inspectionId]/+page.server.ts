@@ -1,11 +1,13 @@
 import { can } from '$lib/abilities';
-import { error, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { closeFindingSchema, recordInspectionSchema, type RecordInspectionForm } from '$lib/schemas/inspections';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
+import { invalidInput, unreadableUpload } from '$lib/server/failure';
 import { failForm, formFields, formObject, readForm } from '$lib/server/forms';
+import { orError } from '$lib/server/pages';
 import * as inspections from '$lib/server/inspections';
 import { readUploads } from '$lib/server/uploads';
 import { inspectionState, todayISO } from '$lib/inspectionState';
@@ -14,8 +16,7 @@ import type { Actions, PageServerLoad } from './$types';
 export const load: PageServerLoad = async ({ locals, params }) => {
 	const user = requireUser(locals);
 	const scope = await scopeOf(user);
-	const found = await inspections.find(scope, params.inspectionId);
-	if (!found) error(404, { message: 'No such inspection, or it belongs to a lab you are not a member of.' });
+	const found = orError(await inspections.find(scope, params.inspectionId));
 	const templates = await inspections.templates();
 	const first = templates[0];
 	const start: RecordInspectionForm = {
@@ -29,7 +30,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const today = todayISO();
 	return {
 		today,
-		inspection: { ...found.inspection, createdAt: found.inspection.createdAt.toISOString(), state: inspectionState(found.inspection.dueOn, found.inspection.completedOn, today) },
+		inspection: { ...found.inspection, state: inspectionState(found.inspection.dueOn, found.inspection.completedOn, today) },
 		area: { id: found.area.id, name: found.area.name, room: found.area.room, building: found.area.building, interval: found.area.inspectionIntervalMonths, interlockNotes: found.area.interlockNotes, signageNotes: found.area.signageNotes },
 		labCode: found.labCode,
 		inspectorName: found.inspectorName,
@@ -43,6 +44,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		canCloseFindings: can(user, 'recordInspections')
 	};
 };
+
+const photos = { action: 'photos' };
 
 export const actions: Actions = {
 	record: async function recordInspection({ locals, request, params }) {
@@ -58,22 +61,20 @@ export const actions: Actions = {
 		const body = await formObject(request);
 		const findingId = typeof body?.findingId === 'string' ? body.findingId : '';
 		const parsed = closeFindingSchema.safeParse(body);
-		if (!parsed.success) {
-			const fields = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'form'), i.message]));
-			return fail(400, { closeFinding: { findingId, message: 'Some fields need attention.', fields } });
-		}
+		const closing = { action: 'closeFinding', about: findingId };
+		if (!parsed.success) return failForm(closing, invalidInput(parsed.error));
 		const r = await inspections.closeFinding(scope, params.inspectionId, parsed.data);
-		if (!r.ok) return fail(r.status, { closeFinding: { findingId, message: r.message, fields: {} as Record<string, string> } });
+		if (!r.ok) return failForm(closing, r);
 		return { findingClosed: r.description };
 	},
 	photos: async function attachPhotos({ locals, request, params }) {
 		const scope = await scopeOf(requireAbility(locals, 'recordInspections'));
 		const data = await formFields(request);
-		if (!data) return fail(400, { photoError: 'The upload could not be read; send the form again.' });
+		if (!data) return failForm(photos, unreadableUpload());
 		const files = await readUploads(data, 'photos');
-		if (!files.ok) return fail(files.status, { photoError: files.message });
+		if (!files.ok) return failForm(photos, files);
 		const r = await inspections.attach(scope, params.inspectionId, files.files);
-		if (!r.ok) return fail(r.status, { photoError: r.fields ? Object.values(r.fields)[0][0] : r.message });
+		if (!r.ok) return failForm(photos, r);
 		return { photosAdded: r.count };
 	}
 };

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
-import { fail } from 'sveltekit-superforms';
 import { templateSchema } from '$lib/schemas/inspections';
-import { formObject } from '$lib/server/forms';
+import { invalidInput } from '$lib/server/failure';
+import { failForm, formObject } from '$lib/server/forms';
 import { requireAbility } from '$lib/server/auth/guard';
 import * as inspections from '$lib/server/inspections';
 import type { Actions, PageServerLoad } from './$types';
@@ -16,7 +16,7 @@ export const actions: Actions = {
 		const officer = requireAbility(locals, 'recordInspections');
 		const raw = await formObject(request);
 		const parsed = templateSchema.safeParse(raw);
-		if (!parsed.success) return fail(400, { error: parsed.error.issues[0].message, values: { name: String(raw.name ?? ''), items: String(raw.items ?? '') } });
+		if (!parsed.success) return failForm({ action: 'create' }, invalidInput(parsed.error), { values: { name: String(raw.name ?? ''), items: String(raw.items ?? '') } });
 		const lines = parsed.data.items.split('\n').map((l) => l.trim()).filter(Boolean);
 		await inspections.createTemplate(officer.id, parsed.data.name, lines);
 		redirect(303, '/inspections/checklists');

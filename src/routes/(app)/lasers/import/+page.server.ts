@@ -1,9 +1,10 @@
 import { redirect } from '@sveltejs/kit';
-import { fail } from 'sveltekit-superforms';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { formFields } from '$lib/server/forms';
+import { unreadableUpload, type Failure } from '$lib/server/failure';
+import { failForm, formFields } from '$lib/server/forms';
 import * as registerImport from '$lib/server/registerImport';
+import type { ImportProblem } from '$lib/registerCsv';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals }) => {
@@ -11,15 +12,18 @@ export const load: PageServerLoad = async ({ locals }) => {
 	return { recent: await registerImport.recent() };
 };
 
+/** A refused upload, with the file's problems by line when it was read. */
+const refuseUpload = (f: Failure, problems: ImportProblem[] = []) => failForm({ action: 'upload' }, f, { problems });
+
 export const actions: Actions = {
 	upload: async function upload({ locals, request }) {
 		const scope = await scopeOf(requireAbility(locals, 'importRegister'));
 		const data = await formFields(request);
-		if (!data) return fail(400, { uploadError: 'The upload could not be read; choose the file and send it again.', problems: [] });
+		if (!data) return refuseUpload(unreadableUpload());
 		const read = await registerImport.readUpload(data.get('file'));
-		if (!read.ok) return fail(read.status, { uploadError: read.message, problems: [] });
+		if (!read.ok) return refuseUpload(read);
 		const staged = await registerImport.stage(scope, read.fileName, read.text);
-		if (!staged.ok) return fail(staged.status, { uploadError: staged.message, problems: 'problems' in staged ? (staged.problems ?? []) : [] });
+		if (!staged.ok) return refuseUpload(staged, staged.problems);
 		redirect(303, `/lasers/import/${staged.id}`);
 	}
 };

@@ -1,11 +1,13 @@
 import { can } from '$lib/abilities';
-import { error, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
 import { limitFormSchema, limitFormValues } from '$lib/schemas/limits';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
+import { reloadAndRetry } from '$lib/server/failure';
 import { failForm, formObject, readForm } from '$lib/server/forms';
+import { orError } from '$lib/server/pages';
 import * as limits from '$lib/server/limits';
 import * as paths from '$lib/server/paths';
 import type { Actions, PageServerLoad } from './$types';
@@ -13,13 +15,12 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {
 	const user = requireUser(locals);
-	const found = await limits.find(params.limitId);
-	if (!found) error(404, { message: 'No such limit.' });
+	const { limit: found } = orError(await limits.find(params.limitId));
 	const c = found.current;
 	const values = limitFormValues(c, found.currentVersion);
 	return {
 		limit: { id: found.id, retired: found.retired, currentVersion: found.currentVersion, label: c.label },
-		versions: found.versions.map((v) => ({ ...v, createdAt: v.createdAt.toISOString() })),
+		versions: found.versions,
 		stale: await paths.countStale(),
 		form: await superValidate(values, zod4(limitFormSchema), { errors: false }),
 		canManage: can(user, 'manageLimits')
@@ -38,9 +39,9 @@ export const actions: Actions = {
 	retire: async function retireLimit({ locals, request, params }) {
 		const officer = requireAbility(locals, 'manageLimits');
 		const parsed = z.object({ version: z.coerce.number().int().positive() }).safeParse(await formObject(request));
-		if (!parsed.success) return fail(400, { retireError: 'Reload the page and try again.' });
+		if (!parsed.success) return failForm({ action: 'retire' }, reloadAndRetry());
 		const result = await limits.retire(officer.id, params.limitId, parsed.data.version);
-		if (!result.ok) return fail(result.status, { retireError: result.message });
+		if (!result.ok) return failForm({ action: 'retire' }, result);
 		redirect(303, `/limits/${params.limitId}?withdrawn=1&stale=${result.staleMarked}`);
 	}
 };

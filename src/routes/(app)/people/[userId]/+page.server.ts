@@ -5,6 +5,7 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
 import * as procedures from '$lib/server/procedures';
 import * as training from '$lib/server/training';
+import { orError } from '$lib/server/pages';
 import * as users from '$lib/server/users';
 import { signoffState } from '$lib/authorisationState';
 import { todayISO } from '$lib/inspectionState';
@@ -15,8 +16,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const user = requireUser(locals);
 	// A researcher sees only themselves; another person's page answers as if it did not exist.
 	if (!can(user, 'readEveryone') && params.userId !== user.id) error(404, { message: 'No such person.' });
-	const person = await users.find(params.userId);
-	if (!person) error(404, { message: 'No such person.' });
+	const { person } = orError(await users.find(params.userId));
 	const today = todayISO();
 	const scope = await scopeOf(user);
 	const [records, rows, interval] = await Promise.all([training.list(today, person.id), authorisations.list(scope, today, { userId: person.id }), procedures.signoffInterval()]);

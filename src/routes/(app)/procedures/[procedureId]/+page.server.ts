@@ -5,6 +5,7 @@ import { addYears, format } from 'date-fns';
 import { approveSchema, confirmSchema, coverSchema, draftSchema, returnDraftSchema, signSchema, submitSchema } from '$lib/schemas/procedures';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
+import { fieldsNeedAttention, reloadAndRetry, unreadableUpload } from '$lib/server/failure';
 import { failForm, formFields, readForm } from '$lib/server/forms';
 import { nudge, queues } from '$lib/server/jobs/queues';
 import { orError } from '$lib/server/pages';
@@ -78,16 +79,15 @@ export const actions: Actions = {
 	attach: async function attachPdf({ locals, params, request }) {
 		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));
 		const data = await formFields(request);
-		if (!data) {
-			return fail(400, { pdfError: 'The upload could not be read; send the form again.' });
-		}
+		const attach = { action: 'attach' };
+		if (!data) return failForm(attach, unreadableUpload());
 		const version = Number(data.get('version'));
-		if (!Number.isInteger(version) || version < 1) return fail(400, { pdfError: 'Reload the page and try again.' });
+		if (!Number.isInteger(version) || version < 1) return failForm(attach, reloadAndRetry());
 		const files = await readUploads(data, 'pdf', 1, 'application/pdf');
-		if (!files.ok) return fail(files.status, { pdfError: files.message });
-		if (files.files.length === 0) return fail(400, { pdfError: 'Choose a PDF file to attach.' });
+		if (!files.ok) return failForm(attach, files);
+		if (files.files.length === 0) return failForm(attach, fieldsNeedAttention({ pdf: 'Choose a PDF file to attach.' }));
 		const r = await procedures.attachPdf(scope, params.procedureId, files.files[0], version);
-		if (!r.ok) return fail(r.status, { pdfError: r.fields ? Object.values(r.fields)[0][0] : r.message });
+		if (!r.ok) return failForm(attach, r);
 		redirect(303, `/procedures/${params.procedureId}?attached=1#next-version`);
 	},
 	detach: async function detachPdf({ locals, params, request }) {

@@ -12,7 +12,7 @@ import { isCurrentResult } from '$lib/assessmentResult';
 import { orError } from '$lib/server/pages';
 import { formValues } from '$lib/server/pathForms';
 import * as paths from '$lib/server/paths';
-import { exposureProfile } from '$lib/server/profile';
+import { exposureProfile } from '$lib/server/alongPath';
 import * as reviews from '$lib/server/reviews';
 import { diffInputs, diffResults, normaliseInputs } from '$lib/server/snapshotDiff';
 import type { Actions, PageServerLoad } from './$types';
@@ -50,11 +50,11 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		controls: reviews.eyewearControls(result)
 	};
 	return {
-		path: { ...detail.path, createdAt: detail.path.createdAt.toISOString(), updatedAt: detail.path.updatedAt.toISOString() },
+		path: detail.path,
 		laser: { id: detail.laser.id, name: `${detail.laser.maker} ${detail.laser.model}`, laserClass: detail.laser.laserClass },
 		lab: detail.lab,
 		form: formValues(detail),
-		snapshot: { id: latest.id, createdAt: latest.createdAt.toISOString(), cause: latest.cause, engineVersion: latest.engineVersion, stale: latest.stale, staleReason: latest.staleReason, result, legacy, errors: result || legacy ? null : ((latest.result as { errors?: unknown[] }).errors ?? []) },
+		snapshot: { id: latest.id, createdAt: latest.createdAt, cause: latest.cause, engineVersion: latest.engineVersion, stale: latest.stale, staleReason: latest.staleReason, result, legacy, errors: result || legacy ? null : ((latest.result as { errors?: unknown[] }).errors ?? []) },
 		profile,
 		limits: limitRows.map((l) => ({ id: l.limitId, version: l.version, label: l.label, citation: l.citation, demonstration: l.demonstration, tissue: l.tissue })),
 		changes,

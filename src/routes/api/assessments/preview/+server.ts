@@ -5,7 +5,7 @@ import { apiError, endpoint, readJson } from '$lib/server/api';
 import { requireUser } from '$lib/server/auth/guard';
 import { currentLimits, evaluatePath } from '$lib/server/assessments';
 import { evaluate } from '$lib/server/hazard';
-import { elementPowers, exposureProfile } from '$lib/server/profile';
+import { elementPowers, exposureProfile } from '$lib/server/alongPath';
 import type { PreviewResponse } from '$lib/assessmentResult';
 
 /** Assess without saving: the editor calls this while the researcher types. */

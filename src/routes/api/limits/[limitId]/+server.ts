@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { limitFormSchema } from '$lib/schemas/limits';
-import { apiError, failureAnswer, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import * as limits from '$lib/server/limits';
 import type { RequestHandler } from './$types';
@@ -8,7 +8,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 	requireUser(locals);
 	const found = await limits.find(params.limitId);
-	return found ? json(found) : apiError(404, 'No such limit.');
+	return found.ok ? json(found.limit) : failureAnswer(found);
 });
 
 /** A revision: a new version; `version` must be the current one. */

@@ -1,17 +1,17 @@
-import { error, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { updateUserSchema } from '$lib/schemas/users';
 import { requireAbility } from '$lib/server/auth/guard';
 import { failForm, readForm } from '$lib/server/forms';
+import { orError } from '$lib/server/pages';
 import * as labs from '$lib/server/labs';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {
 	requireAbility(locals, 'administer');
-	const person = await users.find(params.userId);
-	if (!person) error(404, { message: 'No such person.' });
+	const { person } = orError(await users.find(params.userId));
 	const { role, labIds, disabled, version } = person;
 	return {
 		person: { id: person.id, name: person.name, email: person.email },

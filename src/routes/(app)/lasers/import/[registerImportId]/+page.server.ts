@@ -1,8 +1,7 @@
 import { redirect } from '@sveltejs/kit';
-import { fail } from 'sveltekit-superforms';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { formObject } from '$lib/server/forms';
+import { failForm, formObject } from '$lib/server/forms';
 import { nudge, queues } from '$lib/server/jobs/queues';
 import { orError } from '$lib/server/pages';
 import * as registerImport from '$lib/server/registerImport';
@@ -21,7 +20,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		fileName: r.fileName,
 		uploader: found.uploader,
 		mine: found.mine,
-		createdAt: r.createdAt.toISOString(),
+		createdAt: r.createdAt,
 		totalRows: r.totalRows,
 		errorRows: r.errorRows,
 		newLasers: r.newLasers,
@@ -38,14 +37,14 @@ export const actions: Actions = {
 		const scope = await scopeOf(requireAbility(locals, 'importRegister'));
 		const form = await formObject(request);
 		const r = await registerImport.start(scope, params.registerImportId, form.validOnly === 'true');
-		if (!r.ok) return fail(r.status, { actionError: r.message });
+		if (!r.ok) return failForm({ action: 'decide' }, r);
 		await nudge(queues.registerImport);
 		redirect(303, `/lasers/import/${params.registerImportId}`);
 	},
 	discard: async function discard({ locals, params }) {
 		const scope = await scopeOf(requireAbility(locals, 'importRegister'));
 		const r = await registerImport.discard(scope, params.registerImportId);
-		if (!r.ok) return fail(r.status, { actionError: r.message });
+		if (!r.ok) return failForm({ action: 'decide' }, r);
 		redirect(303, '/lasers/import?discarded=1');
 	}
 };

@@ -1,14 +1,14 @@
 import { json } from '@sveltejs/kit';
 import { updateUserSchema } from '$lib/schemas/users';
-import { apiError, failureAnswer, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import * as users from '$lib/server/users';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 	requireAbility(locals, 'administer');
-	const person = await users.find(params.userId);
-	return person ? json(person) : apiError(404, 'No such person.');
+	const found = await users.find(params.userId);
+	return found.ok ? json(found.person) : failureAnswer(found);
 });
 
 export const PATCH: RequestHandler = endpoint(async ({ locals, request, params }) => {
@@ -17,5 +17,6 @@ export const PATCH: RequestHandler = endpoint(async ({ locals, request, params }
 	if (!body.ok) return body.response;
 	const result = await users.update(admin.id, params.userId, body.data);
 	if (!result.ok) return failureAnswer(result);
-	return json(await users.find(params.userId));
+	const found = await users.find(params.userId);
+	return found.ok ? json(found.person) : failureAnswer(found);
 });

@@ -1,12 +1,39 @@
-// Exposure along the path for the plot: the engine evaluated at evenly spaced positions, with the
-// same path and limits as the assessment (eye, intrabeam, at the hazard-distance duration, or at the
-// first eye point's duration when that is not given). Pure: no database.
+// The beam and the exposure along a stored path, for the drawings (the exposure plot, the hazard
+// zone) and the editor's power column: the engine evaluated at sampled positions with the same path
+// and limits as the assessment. Pure: no database.
 import type { AssessmentResult, ElementPowers, Profile, ProfileSample } from '$lib/assessmentResult';
+import type { BeamSample } from '$lib/hazardZone';
 import type { BeamPath, LimitSI } from '$lib/schemas/assessment';
 import { evaluate } from '$lib/server/hazard';
 import { variantsOf } from '$lib/server/hazard/tuning';
 import { validate } from '$lib/server/hazard/validate';
 import { walkPath } from '$lib/server/hazard/walk';
+
+const PROFILE_SAMPLES = 80;
+const ENVELOPE_SAMPLES = 120;
+
+/** The duration a sampled point is assessed for: the path's hazard-distance duration, else its first eye point's (none: the checks say what is missing). */
+export function samplingDuration(path: BeamPath): string | null {
+	return path.nohdExposureDuration ?? path.points.find((p) => p.tissue === 'eye')?.exposureDuration ?? null;
+}
+
+const evenly = (length: number, samples: number) => Array.from({ length: samples + 1 }, (_, i) => (length * i) / samples);
+
+/** The path with its points replaced by eye-level intrabeam points at these positions, evaluated without the breakdown. */
+function sampleAlong(path: BeamPath, limits: LimitSI[], positions: number[]) {
+	const exposureDuration = samplingDuration(path);
+	const points = positions.map((z, i) => ({ id: `s${i}`, label: '', position: String(z), tissue: 'eye' as const, kind: 'intrabeam' as const, exposureDuration, reflectance: null, viewingAngle: null, viewingDistance: null }));
+	return evaluate({ ...path, points }, limits, { breakdown: false });
+}
+
+/** The beam's diameter along the path for the hazard zone drawing: evenly spaced and at every element, the widest line at each. */
+export function beamEnvelope(path: BeamPath, limits: LimitSI[], length: number, elementPositions: number[] = []): BeamSample[] | null {
+	if (!(length > 0)) return null;
+	const positions = [...new Set([...evenly(length, ENVELOPE_SAMPLES), ...elementPositions.filter((z) => z >= 0 && z <= length)])].sort((a, b) => a - b);
+	const outcome = sampleAlong(path, limits, positions);
+	if (!outcome.ok) return null;
+	return outcome.result.points.map((p, i) => ({ position: positions[i], diameter: Math.max(0, ...p.lines.map((l) => l.beamDiameter).filter(Number.isFinite)) }));
+}
 
 /**
  * The power factor of every line after every element, from the engine's own walk (bands included).
@@ -27,21 +54,12 @@ export function elementPowers(path: BeamPath, limits: LimitSI[]): ElementPowers 
 	});
 }
 
-const SAMPLES = 80;
-
 export function exposureProfile(path: BeamPath, limits: LimitSI[], result: AssessmentResult): Profile | null {
 	const length = result.pathLength;
 	if (!(length > 0)) return null;
-	const T = path.nohdExposureDuration ?? path.points.find((p) => p.tissue === 'eye')?.exposureDuration ?? null;
-	const positions = Array.from({ length: SAMPLES + 1 }, (_, i) => (length * i) / SAMPLES);
-	const outcome = evaluate(
-		{
-			...path,
-			points: positions.map((z, i) => ({ id: `s${i}`, label: '', position: String(z), tissue: 'eye' as const, kind: 'intrabeam' as const, exposureDuration: T, reflectance: null, viewingAngle: null, viewingDistance: null }))
-		},
-		limits,
-		{ breakdown: false }
-	);
+	const T = samplingDuration(path);
+	const positions = evenly(length, PROFILE_SAMPLES);
+	const outcome = sampleAlong(path, limits, positions);
 	if (!outcome.ok) return null;
 	// Plot one check throughout: the one with the highest ratio at the aperture.
 	const first = outcome.result.points[0].lines[0];
