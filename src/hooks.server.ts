@@ -9,8 +9,8 @@ import { startJobs, stopJobs } from '$lib/server/jobs/workers';
 import * as auth from '$lib/server/auth/session';
 import { allows, ruleFor } from '$lib/server/auth/policy';
 import { forbidden } from '$lib/server/auth/guard';
-import { apiError } from '$lib/server/api';
-import { bodyLimitFor, drain, tooLargeMessage, withBodyLimit } from '$lib/server/bodyLimit';
+import { apiError } from '$lib/server/http/api';
+import { bodyLimitFor, drain, tooLargeMessage, withBodyLimit } from '$lib/server/http/bodyLimit';
 
 export const init: ServerInit = async () => {
 	if (building) return;

@@ -110,6 +110,27 @@ describe('one way per thing', () => {
 		const twice = files.filter((f) => /import \{[^}]*\bfail\b[^}]*\} from '@sveltejs\/kit'/.test(readFileSync(f, 'utf8'))).map(rel);
 		expect(twice).toEqual([]);
 	});
+
+	it('a form action answers a refusal through failForm only: `fail` itself carries nothing but an invalid superform', () => {
+		const own = files
+			.filter((f) => f.startsWith(ROUTES) || f.includes(join('lib', 'server')))
+			.filter((f) => !f.endsWith(join('server', 'http', 'forms.ts')))
+			.flatMap((f) => [...readFileSync(f, 'utf8').matchAll(/\bfail\(([^)]{0,60})|\brefused:/g)].filter((m) => !/^\d+, \{ (\w+Form|form)\b/.test(m[1] ?? '')).map((m) => `${rel(f)}: ${m[0]}`));
+		expect(own).toEqual([]);
+	});
+
+	it('every data module’s `find` answers the record or a Failure, never null', () => {
+		const finds = files
+			.filter((f) => f.includes(join('lib', 'server')) && f.endsWith('.ts'))
+			.flatMap((f) => {
+				const text = readFileSync(f, 'utf8');
+				const at = text.indexOf('export async function find(');
+				if (at < 0) return [];
+				const body = text.slice(at, text.indexOf('\n}\n', at));
+				return /return null\b|\| null>/.test(body) || !/notFound\(|Failure/.test(body) ? [rel(f)] : [];
+			});
+		expect(finds).toEqual([]);
+	});
 });
 
 describe('role rules', () => {

@@ -5,7 +5,7 @@ import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
-import { fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
 import { isUuid } from '$lib/server/lasers';
 import type { VisitForm } from '$lib/schemas/authorisations';
 

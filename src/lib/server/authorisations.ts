@@ -7,7 +7,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, type Scope } from '$lib/server/auth/scope';
-import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
+import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
 import { isUuid } from '$lib/server/lasers';
 import { readMailConfig } from '$lib/server/mail/config';
 import * as outbox from '$lib/server/mail/outbox';

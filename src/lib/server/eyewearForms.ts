@@ -6,8 +6,8 @@ import { eyewearSchema, type EyewearForm } from '$lib/schemas/eyewear';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';
-import { failForm, readForm } from '$lib/server/forms';
-import { orError } from '$lib/server/pages';
+import { failForm, readForm } from '$lib/server/http/forms';
+import { orError } from '$lib/server/http/pages';
 import * as labs from '$lib/server/labs';
 import { asEntered } from '$lib/units';
 

@@ -5,10 +5,10 @@ import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { closeActionSchema, reportSchema } from '$lib/schemas/incidents';
 import type { Scope } from '$lib/server/auth/scope';
-import { failForm, formFields, readFormData } from '$lib/server/forms';
+import { failForm, formFields, readFormData } from '$lib/server/http/forms';
 import * as incidents from '$lib/server/incidents';
 import { readUploads } from '$lib/server/uploads';
-import { failure } from '$lib/server/failure';
+import { failure } from '$lib/server/http/failure';
 
 export async function saveReportForm(scope: Scope, request: Request, incidentId: string | null) {
 	const data = await formFields(request);

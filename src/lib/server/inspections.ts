@@ -6,7 +6,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
-import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
+import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
 import { writeCsv } from '$lib/server/csv';
 import { isUuid } from '$lib/server/lasers';
 import type { StoredUpload } from '$lib/server/uploads';

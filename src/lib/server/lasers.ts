@@ -5,7 +5,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { nudge, queues } from '$lib/server/jobs/queues';
 import { canEdit, canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
-import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
 import type { NewLaserForm } from '$lib/schemas/register';
 import { checkedLine } from '$lib/server/lineRules';
 import { lineFromRow } from '$lib/schemas/assessment';

@@ -11,7 +11,7 @@ import { nudge, queues } from '$lib/server/jobs/queues';
 import * as limits from '$lib/server/limits';
 import { lockLimitLibrary } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
-import { failure, notFound, type Failure } from '$lib/server/failure';
+import { failure, notFound, type Failure } from '$lib/server/http/failure';
 import { limitFieldNames, limitToSI } from '$lib/schemas/limits';
 import type { LimitSetRow } from '$lib/schemas/limitSet';
 import { changedFields, limitSetDocument } from './limitSetFormat';

@@ -5,7 +5,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { nudge, queues } from '$lib/server/jobs/queues';
-import { changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
+import { changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
 import { engineProblems } from '$lib/server/limitChecks';
 import { lockLimitLibrary } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';

@@ -5,9 +5,9 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { lineSchema } from '$lib/schemas/register';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as lasers from '$lib/server/lasers';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import { asEntered } from '$lib/units';
 
 export async function loadLineForm(locals: App.Locals, laserId: string, lineId: string | null) {

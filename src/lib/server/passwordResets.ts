@@ -10,7 +10,7 @@ import { hashPassword, passwordProblem } from '$lib/server/auth/password';
 import * as throttle from '$lib/server/auth/throttle';
 import { enqueuePasswordReset } from '$lib/server/mail/outbox';
 import { nudge, queues } from '$lib/server/jobs/queues';
-import { failure, fieldsNeedAttention, type Failure } from '$lib/server/failure';
+import { failure, fieldsNeedAttention, type Failure } from '$lib/server/http/failure';
 
 export const RESET_VALID_MS = 30 * 60 * 1000;
 /** Links mailed to one account in an hour; requests beyond it are recorded and answered alike, and send nothing. */

@@ -8,12 +8,12 @@ import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as lasers from '$lib/server/lasers';
 import * as paths from '$lib/server/paths';
 import * as reviews from '$lib/server/reviews';
 import { replySchema } from '$lib/schemas/reviews';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import type { AssessmentResult } from '$lib/assessmentResult';
 import type { EditorData } from '$lib/components/path-editor/editorData';
 import type { LineColumns } from '$lib/schemas/assessment';
@@ -128,8 +128,8 @@ export async function loadPath(locals: App.Locals, pathId: string) {
 		pathId,
 		editable,
 		path: { stale: p.stale, flagged: p.flagged, verdict: p.verdict, staleReason: detail.latest?.staleReason ?? null },
-		latest: detail.latest ? { createdAt: detail.latest.createdAt.toISOString(), result: detail.latest.result as AssessmentResult | { errors: unknown[] }, cause: detail.latest.cause } : null,
-		history: history.map((h) => ({ ...h, createdAt: h.createdAt.toISOString() })),
+		latest: detail.latest ? { createdAt: detail.latest.createdAt, result: detail.latest.result as AssessmentResult | { errors: unknown[] }, cause: detail.latest.cause } : null,
+		history,
 		// Where the path stands with the officer: the researcher reads the decision here.
 		review: await reviews.record(p, editable),
 		replyForm: await superValidate(zod4(replySchema), { id: 'reply' })

@@ -5,7 +5,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
-import { cannotChange, changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { cannotChange, changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
 import { currentLimits, evaluatePath, latestFor, lockLimitLibrary, needsReview } from '$lib/server/assessments';
 import { isUuid } from '$lib/server/lasers';
 import * as reviews from '$lib/server/reviews';

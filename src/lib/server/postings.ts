@@ -10,7 +10,7 @@ import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as areas from '$lib/server/areas';
 import * as authorisations from '$lib/server/authorisations';
-import type { Failure } from '$lib/server/failure';
+import type { Failure } from '$lib/server/http/failure';
 import type { SnapshotInputs } from '$lib/server/assessments';
 
 /** What the door says about one wavelength (a line, or a tunable line's range). */

@@ -8,7 +8,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
-import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
 import { isUuid } from '$lib/server/lasers';
 import { procedureHtml } from '$lib/server/richText';
 import * as safetyMail from '$lib/server/safetyMail';

@@ -42,7 +42,9 @@ export async function linesCsv(scope: Scope, labIds?: string[]): Promise<string>
 			const f = c.field.slice(5) as keyof typeof line;
 			const value = line[f];
 			// Numbers (strings from numeric columns, or null) with their unit where they have one; words as they are.
-			return value === null || typeof value === 'string' ? asEntered(value, fieldQuantityKinds[f] ?? null) : String(value);
+			const kind = fieldQuantityKinds[f];
+			if (value === null) return '';
+			return typeof value === 'string' ? (kind ? asEntered(value, kind) : value) : String(value);
 		})
 	);
 	return writeCsv(

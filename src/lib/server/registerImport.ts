@@ -10,7 +10,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import type { Scope } from '$lib/server/auth/scope';
-import { failure, notFound, type Failure } from '$lib/server/failure';
+import { failure, notFound, type Failure } from '$lib/server/http/failure';
 import { cleanFileName, MAX_UPLOAD_BYTES } from '$lib/server/uploads';
 import { fileTypeFromBuffer } from 'file-type';
 import { isUuid } from '$lib/server/lasers';

@@ -7,7 +7,7 @@ import { isCurrentResult, type AssessmentResult, type CitedLimit } from '$lib/as
 import type { Scope } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import { notFound, type Failure } from '$lib/server/failure';
+import { notFound, type Failure } from '$lib/server/http/failure';
 import { isUuid } from '$lib/server/lasers';
 import * as paths from '$lib/server/paths';
 import { beamEnvelope, exposureProfile } from '$lib/server/alongPath';

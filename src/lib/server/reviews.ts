@@ -5,7 +5,7 @@ import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
-import { cannotChange, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/failure';
+import { cannotChange, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
 import { isUuid } from '$lib/server/lasers';
 import { needsReview } from '$lib/server/assessments';
 import { notify, officerIds } from '$lib/server/notifications';

@@ -4,7 +4,7 @@ import { aliasedTable, and, asc, desc, eq, isNull } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
-import { failure, fieldsNeedAttention, type Failure } from '$lib/server/failure';
+import { failure, fieldsNeedAttention, type Failure } from '$lib/server/http/failure';
 import type { RecordTrainingForm, WithdrawTrainingForm } from '$lib/schemas/training';
 import { trainingState, type TrainingState } from '$lib/trainingState';
 

@@ -7,7 +7,7 @@ import { createHash } from 'node:crypto';
 import makeContentDisposition from 'content-disposition';
 import { fileTypeFromBuffer } from 'file-type';
 import sharp from 'sharp';
-import { failure, type Failure } from './failure';
+import { failure, type Failure } from '$lib/server/http/failure';
 
 export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
 /** 50 megapixels: above any phone or camera photo, far below a decompression bomb. */

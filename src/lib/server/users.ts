@@ -6,7 +6,7 @@ import { burnVerification, hashPassword, passwordProblem, verifyPassword } from 
 import * as device from '$lib/server/auth/device';
 import * as throttle from '$lib/server/auth/throttle';
 import type { NewUserInput, UpdateUserInput } from '$lib/schemas/users';
-import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/failure';
+import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
 
 export type UserSummary = {
 	id: string;

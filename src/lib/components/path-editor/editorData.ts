@@ -9,14 +9,14 @@ import type { PathForm } from '$lib/schemas/register';
 import type { replySchema } from '$lib/schemas/reviews';
 import type ReviewRecord from '$lib/components/review/ReviewRecord.svelte';
 
-export type EditorHistoryRow = { id: string; createdAt: string; verdict: Verdict | null; cause: string; worstRatio: string | null; stale: boolean };
+export type EditorHistoryRow = { id: string; createdAt: Date; verdict: Verdict | null; cause: string; worstRatio: string | null; stale: boolean };
 
 type Common = {
 	laser: { id: string; name: string; labCode: string };
 	lines: LineColumns[];
 	form: SuperValidated<PathForm>;
 	editable: boolean;
-	latest: { createdAt: string; result: AssessmentResult | { errors: unknown[] }; cause: string } | null;
+	latest: { createdAt: Date; result: AssessmentResult | { errors: unknown[] }; cause: string } | null;
 	history: EditorHistoryRow[];
 };
 

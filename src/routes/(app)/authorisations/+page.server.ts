@@ -6,7 +6,7 @@ import { grantSchema, requestSchema, type GrantForm } from '$lib/schemas/authori
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import { nudge, queues } from '$lib/server/jobs/queues';
 import * as procedures from '$lib/server/procedures';
 import { todayISO } from '$lib/inspectionState';

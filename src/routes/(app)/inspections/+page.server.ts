@@ -1,7 +1,7 @@
 import { can } from '$lib/abilities';
 import { assignSchema } from '$lib/schemas/inspections';
-import { invalidInput } from '$lib/server/failure';
-import { failForm, formObject } from '$lib/server/forms';
+import { invalidInput } from '$lib/server/http/failure';
+import { failForm, formObject } from '$lib/server/http/forms';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as inspections from '$lib/server/inspections';

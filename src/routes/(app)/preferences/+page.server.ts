@@ -1,6 +1,6 @@
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { readForm } from '$lib/server/forms';
+import { readForm } from '$lib/server/http/forms';
 import { preferencesSchema } from '$lib/schemas/account';
 import { requireUser } from '$lib/server/auth/guard';
 import * as preferences from '$lib/server/preferences';

@@ -5,7 +5,7 @@ import { intervalSchema } from '$lib/schemas/procedures';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as procedures from '$lib/server/procedures';
 import { signoffState } from '$lib/authorisationState';
 import { todayISO } from '$lib/inspectionState';

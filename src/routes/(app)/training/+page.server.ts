@@ -3,7 +3,7 @@ import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { recordTrainingSchema, withdrawTrainingSchema } from '$lib/schemas/training';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as training from '$lib/server/training';
 import { todayISO } from '$lib/inspectionState';
 import type { Actions, PageServerLoad } from './$types';

@@ -1,6 +1,6 @@
 import { fail, message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import { resetRequestSchema } from '$lib/schemas/account';
 import * as resets from '$lib/server/passwordResets';
 import type { Actions, PageServerLoad } from './$types';

@@ -1,8 +1,8 @@
 import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { failure } from '$lib/server/failure';
-import { failForm, readForm } from '$lib/server/forms';
+import { failure } from '$lib/server/http/failure';
+import { failForm, readForm } from '$lib/server/http/forms';
 import { signInSchema } from '$lib/schemas/users';
 import * as auth from '$lib/server/auth/session';
 import * as device from '$lib/server/auth/device';

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { newLaserSchema } from '$lib/schemas/register';
-import { apiError, failureAnswer, endpoint, readJson } from '$lib/server/api';
-import { fieldMessages } from '$lib/server/failure';
+import { apiError, failureAnswer, endpoint, readJson } from '$lib/server/http/api';
+import { fieldMessages } from '$lib/server/http/failure';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as lasers from '$lib/server/lasers';

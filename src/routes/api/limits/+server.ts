@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { limitFormSchema } from '$lib/schemas/limits';
-import { failureAnswer, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/http/api';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import * as limits from '$lib/server/limits';
 import type { RequestHandler } from './$types';

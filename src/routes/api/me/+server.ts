@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { endpoint } from '$lib/server/api';
+import { endpoint } from '$lib/server/http/api';
 import { requireUser } from '$lib/server/auth/guard';
 import { ABSOLUTE_TIMEOUT_MS } from '$lib/server/auth/session';
 import * as labs from '$lib/server/labs';

@@ -6,8 +6,8 @@ import { decideSchema, withdrawSchema, type DecideForm } from '$lib/schemas/auth
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
-import { failForm, readForm } from '$lib/server/forms';
-import { orError } from '$lib/server/pages';
+import { failForm, readForm } from '$lib/server/http/forms';
+import { orError } from '$lib/server/http/pages';
 import { todayISO } from '$lib/inspectionState';
 import type { Actions, PageServerLoad } from './$types';
 

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { reloadAndRetry } from '$lib/server/failure';
-import { failForm, formObject } from '$lib/server/forms';
+import { reloadAndRetry } from '$lib/server/http/failure';
+import { failForm, formObject } from '$lib/server/http/forms';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as eyewear from '$lib/server/eyewear';

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { templateSchema } from '$lib/schemas/inspections';
-import { invalidInput } from '$lib/server/failure';
-import { failForm, formObject } from '$lib/server/forms';
+import { invalidInput } from '$lib/server/http/failure';
+import { failForm, formObject } from '$lib/server/http/forms';
 import { requireAbility } from '$lib/server/auth/guard';
 import * as inspections from '$lib/server/inspections';
 import type { Actions, PageServerLoad } from './$types';

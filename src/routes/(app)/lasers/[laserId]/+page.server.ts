@@ -5,7 +5,7 @@ import * as lasers from '$lib/server/lasers';
 import * as authorisations from '$lib/server/authorisations';
 import * as procedures from '$lib/server/procedures';
 import { todayISO } from '$lib/inspectionState';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params }) => {

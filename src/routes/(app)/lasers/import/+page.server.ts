@@ -1,8 +1,8 @@
 import { redirect } from '@sveltejs/kit';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { unreadableUpload, type Failure } from '$lib/server/failure';
-import { failForm, formFields } from '$lib/server/forms';
+import { unreadableUpload, type Failure } from '$lib/server/http/failure';
+import { failForm, formFields } from '$lib/server/http/forms';
 import * as registerImport from '$lib/server/registerImport';
 import type { ImportProblem } from '$lib/registerCsv';
 import type { Actions, PageServerLoad } from './$types';

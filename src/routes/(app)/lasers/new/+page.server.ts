@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { newLaserSchema } from '$lib/schemas/register';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as labs from '$lib/server/labs';
 import * as lasers from '$lib/server/lasers';
 import type { Actions, PageServerLoad } from './$types';

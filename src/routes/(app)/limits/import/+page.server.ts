@@ -1,8 +1,8 @@
 import { redirect } from '@sveltejs/kit';
 import { MAX_LIMIT_SET_BYTES } from '$lib/schemas/limitSet';
 import { requireAbility } from '$lib/server/auth/guard';
-import { failure, unreadableUpload } from '$lib/server/failure';
-import { failForm, formFields } from '$lib/server/forms';
+import { failure, unreadableUpload } from '$lib/server/http/failure';
+import { failForm, formFields } from '$lib/server/http/forms';
 import * as limitSets from '$lib/server/limitSets';
 import { readLimitSet, type RowProblem } from '$lib/server/limitSetFormat';
 import { readTextUpload } from '$lib/server/uploads';

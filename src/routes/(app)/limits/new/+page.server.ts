@@ -1,10 +1,10 @@
 import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { readForm } from '$lib/server/forms';
+import { readForm } from '$lib/server/http/forms';
 import { limitFormSchema } from '$lib/schemas/limits';
 import { requireAbility } from '$lib/server/auth/guard';
-import { failForm } from '$lib/server/forms';
+import { failForm } from '$lib/server/http/forms';
 import * as limits from '$lib/server/limits';
 import type { Actions, PageServerLoad } from './$types';
 

@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { replySchema } from '$lib/schemas/reviews';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import { loadPath, savePath } from '$lib/server/pathForms';
 import * as reports from '$lib/server/reports';
 import * as reviews from '$lib/server/reviews';

@@ -5,7 +5,7 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as authorisations from '$lib/server/authorisations';
 import * as procedures from '$lib/server/procedures';
 import * as training from '$lib/server/training';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import * as users from '$lib/server/users';
 import { signoffState } from '$lib/authorisationState';
 import { todayISO } from '$lib/inspectionState';

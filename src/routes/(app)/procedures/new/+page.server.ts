@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { newProcedureSchema, type NewProcedureForm } from '$lib/schemas/procedures';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as procedures from '$lib/server/procedures';
 import type { Actions, PageServerLoad } from './$types';
 

@@ -2,7 +2,7 @@ import { redirect } from '@sveltejs/kit';
 import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { newPasswordSchema } from '$lib/schemas/account';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as resets from '$lib/server/passwordResets';
 import type { Actions, PageServerLoad } from './$types';
 

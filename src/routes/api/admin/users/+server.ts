@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { newUserSchema } from '$lib/schemas/users';
-import { failureAnswer, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/http/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import * as users from '$lib/server/users';
 import type { RequestHandler } from './$types';

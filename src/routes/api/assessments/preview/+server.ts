@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import type { AssessmentResult } from '$lib/assessmentResult';
 import { previewSchema, type LimitSI } from '$lib/schemas/assessment';
-import { apiError, endpoint, readJson } from '$lib/server/api';
+import { apiError, endpoint, readJson } from '$lib/server/http/api';
 import { requireUser } from '$lib/server/auth/guard';
 import { currentLimits, evaluatePath } from '$lib/server/assessments';
 import { evaluate } from '$lib/server/hazard';

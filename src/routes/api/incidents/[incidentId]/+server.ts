@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { endpoint, failureAnswer } from '$lib/server/api';
+import { endpoint, failureAnswer } from '$lib/server/http/api';
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as incidents from '$lib/server/incidents';

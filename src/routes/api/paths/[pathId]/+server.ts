@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { pathFormSchema } from '$lib/schemas/register';
-import { failureAnswer, endpoint, readJson } from '$lib/server/api';
+import { failureAnswer, endpoint, readJson } from '$lib/server/http/api';
 import { requireAbility, requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as paths from '$lib/server/paths';

@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { apiError, endpoint } from '$lib/server/api';
+import { apiError, endpoint } from '$lib/server/http/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as registerImport from '$lib/server/registerImport';

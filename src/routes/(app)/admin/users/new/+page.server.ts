@@ -3,7 +3,7 @@ import { fail, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { newUserSchema } from '$lib/schemas/users';
 import { requireAbility } from '$lib/server/auth/guard';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as labs from '$lib/server/labs';
 import * as users from '$lib/server/users';
 import type { Actions, PageServerLoad } from './$types';

@@ -3,7 +3,7 @@ import { scopeOf } from '$lib/server/auth/scope';
 import * as areas from '$lib/server/areas';
 import * as authorisations from '$lib/server/authorisations';
 import * as inspections from '$lib/server/inspections';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import { todayISO } from '$lib/inspectionState';
 import type { PageServerLoad } from './$types';
 

@@ -1,6 +1,6 @@
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import * as postings from '$lib/server/postings';
 import { todayISO } from '$lib/inspectionState';
 import type { PageServerLoad } from './$types';

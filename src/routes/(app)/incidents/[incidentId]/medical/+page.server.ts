@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { medicalSchema } from '$lib/schemas/incidents';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm, readForm } from '$lib/server/forms';
+import { failForm, readForm } from '$lib/server/http/forms';
 import * as medical from '$lib/server/medical';
 import type { Actions, PageServerLoad } from './$types';
 

@@ -1,9 +1,9 @@
 import { redirect } from '@sveltejs/kit';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { failForm, formObject } from '$lib/server/forms';
+import { failForm, formObject } from '$lib/server/http/forms';
 import { nudge, queues } from '$lib/server/jobs/queues';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import * as registerImport from '$lib/server/registerImport';
 import type { ImportProblem } from '$lib/registerCsv';
 import type { Actions, PageServerLoad } from './$types';

@@ -1,9 +1,9 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireAbility } from '$lib/server/auth/guard';
-import { reloadAndRetry } from '$lib/server/failure';
-import { failForm, formObject } from '$lib/server/forms';
-import { orError } from '$lib/server/pages';
+import { reloadAndRetry } from '$lib/server/http/failure';
+import { failForm, formObject } from '$lib/server/http/forms';
+import { orError } from '$lib/server/http/pages';
 import * as limitSets from '$lib/server/limitSets';
 import type { Actions, PageServerLoad } from './$types';
 

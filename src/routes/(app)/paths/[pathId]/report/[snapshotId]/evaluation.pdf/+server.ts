@@ -1,6 +1,6 @@
 import { requireUser } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
-import { orError } from '$lib/server/pages';
+import { orError } from '$lib/server/http/pages';
 import * as reports from '$lib/server/reports';
 import { renderReportPdf } from '$lib/server/reportPdf';
 import { contentDisposition } from '$lib/server/uploads';

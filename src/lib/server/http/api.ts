@@ -1,9 +1,9 @@
 // One shape for every JSON API answer that is not a success: { message, fields? } with a 4xx/5xx.
 import { isHttpError, isRedirect, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
-import { fieldMessages, type Failure } from '$lib/server/failure';
+import { fieldMessages, type Failure } from '$lib/server/http/failure';
 import type { z } from 'zod';
-import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from './db/errors';
-import { noteUnavailable } from './db/outage';
+import { DATABASE_UNAVAILABLE, isDatabaseUnavailable, refusedInput } from '../db/errors';
+import { noteUnavailable } from '../db/outage';
 import { isTooLarge, tooLargeMessage } from './bodyLimit';
 
 export type ApiError = App.Error;
