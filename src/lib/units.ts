@@ -221,14 +221,18 @@ export function formatQuantity(valueSI: Decimal.Value, kind: QuantityKind, opts:
 }
 
 /**
- * A stored SI value written back as a person types it, in a readable unit (or `unit`): a form's
- * starting value, a cell of an export. 15 significant digits keep every digit anyone enters, so the
- * text parses back to the stored value. A plain number (a fraction, an exponent) has no kind.
+ * A stored SI value written back as a person types it: a form's starting value, a cell of an export.
+ * In a readable unit (or `unit`) with up to 12 significant digits when that text reads back as the
+ * stored value; otherwise every digit, in the SI unit, so that saving the form or importing the file
+ * again never changes a value. A plain number (a fraction, an exponent) has no kind.
  */
 export function asEntered(valueSI: Decimal.Value | null, kind: QuantityKind | null, unit?: string): string {
 	if (valueSI === null) return '';
-	if (kind === null) return new UnitDecimal(valueSI).toSignificantDigits(15).toString();
-	return formatQuantity(valueSI, kind, { significantDigits: 15, unit });
+	const exact = new UnitDecimal(valueSI);
+	if (kind === null) return exact.toString();
+	const text = formatQuantity(exact, kind, { significantDigits: 12, unit });
+	const back = parseQuantity(text, kind);
+	return back.ok && back.value.eq(exact) ? text : `${exact.toString()} ${SI_UNIT[kind]}`;
 }
 
 /** The quantity each beam-path field holds (lines, elements, points), for writing its SI value with a unit. */

@@ -6,7 +6,7 @@ import * as table from '$lib/server/db/schema';
 import * as paths from '$lib/server/paths';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
-import { currentLimits } from '$lib/server/assessments';
+import { currentLimits } from '$lib/server/limits';
 import { startJobs, stopJobs } from '$lib/server/jobs/workers';
 import type { Scope } from '$lib/server/auth/scope';
 import { laserForm, limitForm, makeLab, makeUser, must, pathForm, scopeFor } from './factories';

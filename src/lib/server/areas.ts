@@ -6,7 +6,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import type { VisitForm } from '$lib/schemas/authorisations';
 
 const responsible = aliasedTable(table.user, 'responsible');

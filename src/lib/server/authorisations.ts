@@ -8,7 +8,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, type Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import { readMailConfig } from '$lib/server/mail/config';
 import * as outbox from '$lib/server/mail/outbox';
 import { daysBetween } from '$lib/server/mail/schedule';

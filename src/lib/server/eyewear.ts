@@ -6,7 +6,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { cannotChange, changedMeanwhile, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import { adequacy, type AdequacyResult, type BandOnRecord, type Requirement } from '$lib/server/eyewearAdequacy';
 import type { EyewearForm } from '$lib/schemas/eyewear';
 import { formatQuantity, parseQuantity } from '$lib/units';

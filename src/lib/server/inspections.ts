@@ -8,7 +8,7 @@ import * as audit from '$lib/server/audit';
 import { canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
 import { writeCsv } from '$lib/server/csv';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import type { StoredUpload } from '$lib/server/uploads';
 import type { MonthCount } from '$lib/inspectionState';
 import { inspectionState, type InspectionState } from '$lib/inspectionState';

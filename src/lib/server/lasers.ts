@@ -2,6 +2,7 @@
 import { and, asc, desc, eq, gte, inArray, lte, sql, type SQL } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
+import { isUuid } from '$lib/server/db/ids';
 import * as audit from '$lib/server/audit';
 import { nudge, queues } from '$lib/server/jobs/queues';
 import { canEdit, canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
@@ -224,9 +225,6 @@ export async function find(scope: Scope, laserId: string): Promise<{ ok: true; d
 	return { ok: true, detail, editable: canEdit(scope, detail.laser.labId) };
 }
 
-export function isUuid(s: string): boolean {
-	return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(s);
-}
 
 /** Keep the laser's wavelength span (for the band filter) in step with its lines. */
 async function refreshWavelengthSpan(tx: Tx, laserId: string) {

@@ -6,7 +6,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import type { Scope } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, notFound, type Failure } from '$lib/server/http/failure';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import type { MedicalForm } from '$lib/schemas/incidents';
 import { can } from '$lib/abilities';
 

@@ -9,7 +9,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope, inReadableLabs } from '$lib/server/auth/scope';
 import { changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import { procedureHtml } from '$lib/server/richText';
 import * as safetyMail from '$lib/server/safetyMail';
 import { lineDiff, type DiffBlock } from '$lib/server/textDiff';

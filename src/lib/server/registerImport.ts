@@ -13,7 +13,7 @@ import type { Scope } from '$lib/server/auth/scope';
 import { failure, notFound, type Failure } from '$lib/server/http/failure';
 import { cleanFileName, MAX_UPLOAD_BYTES } from '$lib/server/uploads';
 import { fileTypeFromBuffer } from 'file-type';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import { laserKey, parseRegisterFile, type LaserValues, type ParsedRow } from '$lib/server/registerRows';
 import { IMPORT_BATCH_ROWS, type ImportProblem, type ImportProgress } from '$lib/registerCsv';
 import type { LineValues } from '$lib/schemas/register';

@@ -8,7 +8,7 @@ import type { Scope } from '$lib/server/auth/scope';
 import { db } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
 import { notFound, type Failure } from '$lib/server/http/failure';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import * as paths from '$lib/server/paths';
 import { beamEnvelope, exposureProfile } from '$lib/server/alongPath';
 import type { SnapshotInputs } from '$lib/server/assessments';

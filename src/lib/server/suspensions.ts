@@ -8,7 +8,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canRead, type Scope } from '$lib/server/auth/scope';
 import { failure, fieldsNeedAttention, notFound, type Failure } from '$lib/server/http/failure';
-import { isUuid } from '$lib/server/lasers';
+import { isUuid } from '$lib/server/db/ids';
 import type { LiftForm, SuspendForm } from '$lib/schemas/incidents';
 import type { SuspensionInfo } from '$lib/incidentTypes';
 import { can } from '$lib/abilities';
