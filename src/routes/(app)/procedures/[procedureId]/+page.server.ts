@@ -12,6 +12,7 @@ import { orError } from '$lib/server/http/pages';
 import * as procedures from '$lib/server/procedures';
 import { readUploads } from '$lib/server/uploads';
 import { todayISO } from '$lib/inspectionState';
+import { day } from '$lib/dates';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params, url }) => {
@@ -130,7 +131,7 @@ export const actions: Actions = {
 		if (!form.valid) return fail(400, { signForm: form });
 		const r = await procedures.sign(scope, params.procedureId, form.data.versionId, todayISO());
 		if (!r.ok) return failForm(form, r);
-		return message(form, `Signed on ${r.signedAt.toISOString().slice(0, 10)}. Thank you.`);
+		return message(form, `Signed on ${day(r.signedAt)}. Thank you.`);
 	},
 	cover: async function coverPaths({ locals, params, request }) {
 		const scope = await scopeOf(requireAbility(locals, 'workWithLasers'));

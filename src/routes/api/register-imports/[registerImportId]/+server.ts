@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { apiError, endpoint } from '$lib/server/http/api';
+import { endpoint, failureAnswer } from '$lib/server/http/api';
 import { requireAbility } from '$lib/server/auth/guard';
 import { scopeOf } from '$lib/server/auth/scope';
 import * as registerImport from '$lib/server/registerImport';
@@ -9,6 +9,6 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = endpoint(async ({ locals, params }) => {
 	const scope = await scopeOf(requireAbility(locals, 'importRegister'));
 	const found = await registerImport.progress(scope, params.registerImportId);
-	if (!found.ok) return apiError(found.status, found.message);
+	if (!found.ok) return failureAnswer(found);
 	return json(found.progress, { headers: { 'cache-control': 'no-store' } });
 });
