@@ -24,6 +24,8 @@ import * as limits from '$lib/server/limits';
 import { scopeOf } from '$lib/server/auth/scope';
 import type { LimitForm } from '$lib/schemas/limits';
 import { blankElement, type NewLaserForm, type PathForm } from '$lib/schemas/register';
+import * as dailyRun from '$lib/server/jobs/dailyRun';
+import { startJobs } from '$lib/server/jobs/workers';
 
 export async function scopeFor(u: { id: string; email: string; role: Role }) {
 	return scopeOf({ id: u.id, email: u.email, name: 'Test', role: u.role, disabled: false });
@@ -129,3 +131,13 @@ export function limitForm(overrides: Partial<LimitForm> = {}): LimitForm {
 }
 
 export { lasers, limits };
+
+/**
+ * Start the job queue for a test without the start-up catch-up of the daily reminders: that run
+ * would put today's reminders for every record of the shared test database in the mail ledger,
+ * where the mail tests of later files would find them.
+ */
+export async function startJobsForTest() {
+	await dailyRun.recordRun(new Date(), { test: 'daily run not owed' });
+	return startJobs(process.env.DATABASE_URL!);
+}

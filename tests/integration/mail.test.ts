@@ -14,10 +14,10 @@ import { listMailbox, readMailboxDir, readMailboxMessage, type StoredMail } from
 import * as templates from '$lib/server/mail/templates';
 import { createSender } from '$lib/server/mail/transport';
 import { readMailConfig } from '$lib/server/mail/config';
-import { startJobs, stopJobs } from '$lib/server/jobs/workers';
+import { handlersAtWork, stopJobs } from '$lib/server/jobs/workers';
 import { nudge, queueDefinitions, queues } from '$lib/server/jobs/queues';
 import { startFakeMailServer, type FakeMailServer } from '../../scripts/fake-mail';
-import { makeUser } from './factories';
+import { makeUser, startJobsForTest } from './factories';
 import { freePort } from '../free-port';
 
 let SMTP_PORT = 0;
@@ -385,7 +385,7 @@ describe('the job queue', () => {
 		const person = await makeUser('officer');
 		const m = mail(person);
 		await enqueue([m]);
-		const boss = await startJobs(process.env.DATABASE_URL!);
+		const boss = await startJobsForTest();
 		try {
 			for (const q of [queues.mailDaily, queues.mailDeliver]) expect(await boss.getQueue(q)).toMatchObject({ name: q, policy: 'stately' });
 			await nudge(queues.mailDeliver);
@@ -399,6 +399,8 @@ describe('the job queue', () => {
 		} finally {
 			await stopJobs();
 		}
+		// Stopped means stopped: the daily run the start-up caught up on is not still sending.
+		expect(handlersAtWork()).toBe(0);
 		const [row] = await rowsFor([m.recordId]);
 		expect((await mailbox()).has(outbox.messageIdFor(row.id))).toBe(true);
 	});

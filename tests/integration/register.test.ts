@@ -7,9 +7,9 @@ import * as paths from '$lib/server/paths';
 import * as lasers from '$lib/server/lasers';
 import * as limits from '$lib/server/limits';
 import { currentLimits } from '$lib/server/limits';
-import { startJobs, stopJobs } from '$lib/server/jobs/workers';
+import { stopJobs } from '$lib/server/jobs/workers';
 import type { Scope } from '$lib/server/auth/scope';
-import { laserForm, limitForm, makeLab, makeUser, must, pathForm, scopeFor } from './factories';
+import { laserForm, limitForm, makeLab, makeUser, must, pathForm, scopeFor, startJobsForTest } from './factories';
 
 let labA: { id: string };
 let labB: { id: string };
@@ -222,7 +222,7 @@ describe('beam paths and their assessment snapshots', () => {
 			}
 			return false;
 		};
-		await startJobs(process.env.DATABASE_URL!);
+		await startJobsForTest();
 		try {
 			// The start-up run clears whatever earlier tests left stale; wait until it has finished and the queue is idle.
 			const idle = async () => {

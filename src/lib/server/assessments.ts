@@ -3,7 +3,7 @@
 import { desc, eq } from 'drizzle-orm';
 import { db, type Tx } from '$lib/server/db';
 import * as table from '$lib/server/db/schema';
-import { evaluate, type EvaluateOptions, type Outcome } from '$lib/server/hazard';
+import { evaluate, type EvaluateOptions, type InputError, type Outcome } from '$lib/server/hazard';
 import type { LimitRow } from '$lib/server/limits';
 import { limitFromRow, type BeamPath, type LimitSI } from '$lib/schemas/assessment';
 
@@ -17,6 +17,13 @@ export type SnapshotInputs = { path: BeamPath; limits: LimitSI[] };
 export function evaluatePath(path: BeamPath, limitRows: LimitRow[], options: EvaluateOptions = {}): { inputs: SnapshotInputs; outcome: Outcome } {
 	const inputs = { path, limits: limitRows.map(limitFromRow) };
 	return { inputs, outcome: evaluate(inputs.path, inputs.limits, options) };
+}
+
+/** The engine's refusals of its input by field path (`(body)`: the path as a whole), as the API and the forms name fields. */
+export function errorsByField(errors: InputError[]): Record<string, string[]> {
+	const fields: Record<string, string[]> = {};
+	for (const e of errors) (fields[e.field || '(body)'] ??= []).push(e.reason);
+	return fields;
 }
 
 /** Anything that is not shown to be within limit needs the officer's eyes. */

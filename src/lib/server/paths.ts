@@ -6,7 +6,7 @@ import * as table from '$lib/server/db/schema';
 import * as audit from '$lib/server/audit';
 import { canEdit, canRead, type Scope } from '$lib/server/auth/scope';
 import { cannotChange, changedMeanwhile, failure, fieldsNeedAttention, notFound, notYours, type Failure } from '$lib/server/http/failure';
-import { evaluatePath, latestFor, needsReview } from '$lib/server/assessments';
+import { errorsByField, evaluatePath, latestFor, needsReview } from '$lib/server/assessments';
 import { currentLimits, lockLimitLibrary } from '$lib/server/limits';
 import { isUuid } from '$lib/server/db/ids';
 import * as reviews from '$lib/server/reviews';
@@ -85,12 +85,10 @@ export function beamPathOf(detail: Pick<PathDetail, 'lines' | 'elements' | 'poin
 
 /** Engine errors as form fields: line problems go into the message (they are fixed on the laser's page). */
 function engineFailure(errors: InputError[]): Failure {
-	const fields: Record<string, string[]> = {};
-	const lineProblems: string[] = [];
-	for (const e of errors) {
-		if (e.field === '' || e.field.startsWith('lines')) lineProblems.push(e.reason);
-		else (fields[e.field] ??= []).push(e.reason);
-	}
+	const byField = Object.entries(errorsByField(errors));
+	const onLine = ([field]: [string, string[]]) => field === '(body)' || field.startsWith('lines');
+	const lineProblems = byField.filter(onLine).flatMap(([, reasons]) => reasons);
+	const fields = Object.fromEntries(byField.filter((f) => !onLine(f)));
 	const message = lineProblems.length ? `The emission line cannot be assessed: ${lineProblems.join(' ')} Correct it on the laser’s page.` : 'The assessment cannot be computed from these values.';
 	return failure(400, message, Object.keys(fields).length ? fields : undefined);
 }

@@ -55,13 +55,21 @@ const handlers: Record<QueueName, () => Promise<unknown>> = {
 	}
 };
 
+/** Handlers at work now: stopping waits for them (pg-boss gives up waiting after its timeout, the work does not stop). */
+const inFlight = new Set<Promise<unknown>>();
+export const handlersAtWork = () => inFlight.size;
+
 /** Run a queue's handler; a failure is logged (message only) and rethrown so pg-boss records it. */
 async function runHandler(name: QueueName) {
+	const work = handlers[name]();
+	inFlight.add(work);
 	try {
-		return await handlers[name]();
+		return await work;
 	} catch (e) {
 		console.error(`job ${name} failed:`, (e as Error).message);
 		throw e;
+	} finally {
+		inFlight.delete(work);
 	}
 }
 
@@ -94,7 +102,9 @@ export async function startJobs(connectionString: string): Promise<PgBoss> {
 	return b;
 }
 
+/** Stop taking jobs and wait for the handlers at work to finish, so that nothing is still sending when this returns. */
 export async function stopJobs(): Promise<void> {
 	await boss()?.stop({ graceful: true, timeout: 5000 });
+	await Promise.allSettled([...inFlight]);
 	setBoss(null);
 }

@@ -3,7 +3,7 @@ import type { AssessmentResult } from '$lib/assessmentResult';
 import { previewSchema, type LimitSI } from '$lib/schemas/assessment';
 import { apiError, endpoint, readJson } from '$lib/server/http/api';
 import { requireUser } from '$lib/server/auth/guard';
-import { evaluatePath } from '$lib/server/assessments';
+import { errorsByField, evaluatePath } from '$lib/server/assessments';
 import { currentLimits } from '$lib/server/limits';
 import { evaluate } from '$lib/server/hazard';
 import { elementPowers, exposureProfile } from '$lib/server/alongPath';
@@ -25,11 +25,7 @@ export const POST = endpoint(async ({ locals, request }) => {
 		limits = body.data.limits;
 		outcome = evaluate(path, limits, { breakdown });
 	}
-	if (!outcome.ok) {
-		const fields: Record<string, string[]> = {};
-		for (const e of outcome.errors) (fields[e.field || '(body)'] ??= []).push(e.reason);
-		return apiError(400, 'The assessment cannot be computed from these values.', fields);
-	}
+	if (!outcome.ok) return apiError(400, 'The assessment cannot be computed from these values.', errorsByField(outcome.errors));
 	const profile = exposureProfile(path, limits, outcome.result);
 	return json({ result: outcome.result, profile, powers: elementPowers(path, limits), limitsSource: body.data.limits === undefined ? 'library' : 'request' } satisfies PreviewResponse);
 });
