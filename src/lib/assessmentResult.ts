@@ -318,7 +318,7 @@ export function isCurrentResult(r: unknown): r is AssessmentResult {
 	return typeof r === 'object' && r !== null && Array.isArray((r as AssessmentResult).lines) && typeof (r as AssessmentResult).engineVersion === 'string';
 }
 
-/** Exposure along the path for the plot (computed by $lib/server/profile). */
+/** Exposure along the path for the plot (computed by $lib/server/alongPath). */
 export type ProfileSample = {
 	position: number;
 	/** Exposure of the plotted check, in its unit; null where it cannot be computed. */

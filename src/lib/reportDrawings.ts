@@ -4,7 +4,7 @@ import type { HazardDistance } from '$lib/assessmentResult';
 import { ink, niceTicks, tickLabel, type Drawing, type Shape } from '$lib/drawing';
 import { elementShortWords as shortKind, elementWords } from '$lib/words';
 
-/** The plot's data (server/profile.ts makes it), as plain data the browser may hold. */
+/** The plot's data (server/alongPath.ts makes it), as plain data the browser may hold. */
 export type PlotData = {
 	checkLabel: string;
 	unit: string | null;
