@@ -15,8 +15,25 @@
  */
 import type { CheckKind, Step } from '$lib/assessmentResult';
 import type { LimitQuantity, PulseBasis, Tissue } from '$lib/enums';
-import type { ComparisonTexts } from './exposure';
 import type { NormLimit, NormLine } from './validate';
+
+/** Ids, labels and formulas of one comparison's steps. */
+export interface ComparisonTexts {
+	averaging: string;
+	exposure: string;
+	convert: string;
+	limit: string;
+	ratio: string;
+	averagingLabel: string;
+	averagedLabel: string;
+	averagedFormula: string;
+	diffuseLabel: string;
+	diffuseFormula: string;
+	convertLabel: string;
+	convertFormula: string;
+	ratioLabel: string;
+	ratioFormula: string;
+}
 
 export const MEASURE_UNIT = { irradiance: 'W/m²', radiant_exposure: 'J/m²' } as const;
 export const MEASURE_SYMBOL = { irradiance: 'E', radiant_exposure: 'H' } as const;

@@ -18,7 +18,7 @@
 import type { CheckKind, CheckResult, Comparison, DiffuseDistance, EffectSum, LimitRef, LineAtPoint, LineOpticalDensity, PointResult, Step, Verdict } from '$lib/assessmentResult';
 import { AVERSION_DURATION, INVISIBLE_DEFAULT_DURATION, RATIO_TOLERANCE, VISIBLE_MAX, VISIBLE_MIN } from './constants';
 import { diameterAt } from './beam';
-import { applicableLimits, extendedSourceFactor, MEASURE_SYMBOL, MEASURE_UNIT, planMissesT, type LimitAt, type Plan, type Plans } from './checks';
+import { applicableLimits, extendedSourceFactor, MEASURE_SYMBOL, MEASURE_UNIT, planMissesT, type ComparisonTexts, type LimitAt, type Plan, type Plans } from './checks';
 import { effectGroup } from './effects';
 import { requiredOpticalDensity } from './density';
 import { hazardDistance } from './distances';
@@ -253,24 +253,6 @@ function evaluateLine(ctx: Context, point: NormPoint, li: number, origin: Origin
 		pointSourceRatio,
 		deciding
 	};
-}
-
-/** Ids, labels and formulas of one comparison's steps. */
-export interface ComparisonTexts {
-	averaging: string;
-	exposure: string;
-	convert: string;
-	limit: string;
-	ratio: string;
-	averagingLabel: string;
-	averagedLabel: string;
-	averagedFormula: string;
-	diffuseLabel: string;
-	diffuseFormula: string;
-	convertLabel: string;
-	convertFormula: string;
-	ratioLabel: string;
-	ratioFormula: string;
 }
 
 function comparisonTexts(p: string, plan: Plan, limit: NormLimit, h: number): ComparisonTexts {
