@@ -1,8 +1,8 @@
 // Writing and reading limit-set files (format: src/lib/schemas/limitSet.ts). Reading checks every
 // row with the limit form's schema and then the hazard engine's own rules, and reports every problem
 // by row (counted from 1, as a person counts), label and field: one bad row refuses the whole file.
-import { UnitDecimal, SI_UNIT, type QuantityKind } from '$lib/units';
-import { limitFieldNames, limitFormValues, limitToSI, type LimitForm, type StoredLimit } from '$lib/schemas/limits';
+import { UnitDecimal, type QuantityKind } from '$lib/units';
+import { limitFieldNames, limitFormValues, type LimitForm, type StoredLimit } from '$lib/schemas/limits';
 import {
 	LIMIT_SET_FORMAT,
 	LIMIT_SET_SCHEMA_PATH,
@@ -48,19 +48,13 @@ const numericFields = [
 ] as const;
 
 /**
- * One stored limit as a row of the file: the form's values in readable units. The form shows 12
- * significant digits; a value that needs more is written exactly in its SI unit instead, so that
- * reading the file back gives the stored value to the last digit.
+ * One stored limit as a row of the file: the form's values, each written as entered (asEntered: a
+ * readable unit when 12 digits say it exactly, every digit in SI otherwise), so that reading the
+ * file back gives the stored value to the last digit.
  */
 export function exportRow(limitId: string, stored: StoredLimit): LimitSetRow {
 	const { version: _, ...form } = limitFormValues(stored, 0);
-	const row: LimitSetRow = { id: limitId, ...form };
-	for (const field of changedFields(limitToSI(row), stored)) {
-		const kind: QuantityKind | undefined = field === 'k' ? (stored.quantity === 'irradiance' ? 'irradiance' : 'radiant_exposure') : unitFields[field as keyof typeof unitFields];
-		const value = stored[field];
-		if (kind && typeof value === 'string') (row as Record<string, unknown>)[field] = `${new UnitDecimal(value).toString()} ${SI_UNIT[kind]}`;
-	}
-	return row;
+	return { id: limitId, ...form };
 }
 
 export function limitSetDocument(limits: { limitId: string; stored: StoredLimit }[], exportedAt = new Date()): { $schema: string } & LimitSet {
