@@ -10,7 +10,6 @@ import { engineProblems } from '$lib/server/limitChecks';
 import { isUuid } from '$lib/server/db/ids';
 import { limitToSI, type LimitForm } from '$lib/schemas/limits';
 
-type Executor = typeof db | Tx;
 export type LimitRow = table.ExposureLimitVersion;
 
 /**
@@ -26,7 +25,7 @@ export async function lockLimitLibrary(tx: Tx, mode: 'read' | 'change'): Promise
 }
 
 /** The current version of every limit in force today (not retired, within its validity dates). */
-export async function currentLimits(ex: Executor = db, at = new Date()): Promise<LimitRow[]> {
+export async function currentLimits(ex: Tx | typeof db = db, at = new Date()): Promise<LimitRow[]> {
 	const iso = at.toISOString();
 	const rows = await ex
 		.select({ v: table.exposureLimitVersion })
